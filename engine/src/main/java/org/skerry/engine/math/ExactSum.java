@@ -22,7 +22,9 @@ import java.util.Arrays;
  * {@code +0.0}; the sign of zero is not kept.
  *
  * <p>Mutable and not thread-safe; one accumulator per thread, merged with {@link #add(ExactSum)}.
- * {@link #equals} compares exact values. Partial sums travel as {@link #toCompactArray()}.
+ * {@link #equals} and {@link #hashCode} compare exact values (so a hash key must not be added to
+ * afterwards); like the other readers they may propagate pending carries, which never changes the
+ * value. Partial sums travel as {@link #toCompactArray()}.
  */
 public final class ExactSum {
 
