@@ -18,8 +18,16 @@ public interface ModelFactory {
     /** One line saying what the model is. */
     String description();
 
-    /** The settings and data roles {@link #create} reads, for listing to the user. */
+    /** The settings {@link #create} reads, for listing to the user. */
     List<SettingDescription> settings();
+
+    /**
+     * The data roles {@link #create} reads columns from (key = role), for listing to the user;
+     * binding a file's columns to these roles is the run file's business.
+     */
+    default List<SettingDescription> dataRoles() {
+        return List.of();
+    }
 
     /**
      * Builds the model.
