@@ -275,7 +275,7 @@ public final class MapModelSettings implements ModelSettings {
 
     @Override
     public String toString() {
-        return "settings(" + where(path.isEmpty() ? "<root>" : "") + " " + tree + ", columns "
+        return "settings(" + origin + (path.isEmpty() ? "" : ", " + path) + ": " + tree + ", columns "
                 + columns.keySet() + ")";
     }
 
