@@ -1,0 +1,110 @@
+package org.skerry.engine.model.builtin;
+
+import java.util.List;
+import org.apache.commons.math3.util.CombinatoricsUtils;
+import org.skerry.engine.model.LikelihoodContext;
+import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ParameterSpace;
+import org.skerry.engine.model.Prior;
+import org.skerry.engine.model.Support;
+import org.skerry.engine.model.prior.Beta;
+import org.skerry.engine.model.prior.IndependentPrior;
+
+/**
+ * A success probability p from binomial counts {@code kᵢ ~ Binomial(nᵢ, p)} under the conjugate
+ * prior {@code p ~ Beta(a, b)} (Gelman et al., Bayesian Data Analysis, 3rd ed., §2.4): posterior
+ * {@code Beta(a + Σk, b + Σn − Σk)}. The log-likelihood keeps the binomial coefficients, so the
+ * evidence is that of the counts themselves. Immutable and thread-safe.
+ */
+public final class BetaBinomialModel implements Model {
+
+    private static final ParameterSpace PARAMETERS =
+            ParameterSpace.of(List.of("p"), List.of(Support.interval(0.0, 1.0)));
+
+    private final IndependentPrior prior;
+    private final long successes;
+    private final long failures;
+    private final double logCoefficients;
+
+    private BetaBinomialModel(int[] k, int[] n, double a, double b) {
+        this.prior = IndependentPrior.of(Beta.of(a, b));
+        long sumK = 0;
+        long sumN = 0;
+        double logC = 0.0;
+        for (int i = 0; i < k.length; i++) {
+            sumK += k[i];
+            sumN += n[i];
+            logC += CombinatoricsUtils.binomialCoefficientLog(n[i], k[i]);
+        }
+        this.successes = sumK;
+        this.failures = sumN - sumK;
+        this.logCoefficients = logC;
+    }
+
+    /**
+     * @param successes the counts kᵢ
+     * @param trials the trial numbers nᵢ, with {@code 0 <= kᵢ <= nᵢ}
+     * @param a the prior's first shape
+     * @param b the prior's second shape
+     * @throws IllegalArgumentException if the arrays are empty or differ in length, a count is
+     *     out of range, or a shape is not finite and positive
+     */
+    public static BetaBinomialModel of(int[] successes, int[] trials, double a, double b) {
+        if (successes.length == 0) {
+            throw new IllegalArgumentException("successes must not be empty");
+        }
+        if (successes.length != trials.length) {
+            throw new IllegalArgumentException("successes has " + successes.length
+                    + " counts but trials has " + trials.length);
+        }
+        for (int i = 0; i < successes.length; i++) {
+            if (trials[i] < 0 || successes[i] < 0 || successes[i] > trials[i]) {
+                throw new IllegalArgumentException("need 0 <= successes <= trials, was successes["
+                        + i + "]=" + successes[i] + ", trials[" + i + "]=" + trials[i]);
+            }
+        }
+        Data.positive("a", a);
+        Data.positive("b", b);
+        return new BetaBinomialModel(successes.clone(), trials.clone(), a, b);
+    }
+
+    /** One count: {@code k} successes in {@code n} trials. */
+    public static BetaBinomialModel of(int k, int n, double a, double b) {
+        return of(new int[] {k}, new int[] {n}, a, b);
+    }
+
+    @Override
+    public ParameterSpace parameters() {
+        return PARAMETERS;
+    }
+
+    @Override
+    public Prior prior() {
+        return prior;
+    }
+
+    /** Σ kᵢ. */
+    public long totalSuccesses() {
+        return successes;
+    }
+
+    /** Σ (nᵢ − kᵢ). */
+    public long totalFailures() {
+        return failures;
+    }
+
+    @Override
+    public double logLikelihood(double[] parameters, LikelihoodContext context) {
+        double p = parameters[0];
+        if (!(p > 0.0 && p < 1.0)) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        return logCoefficients + successes * StrictMath.log(p) + failures * StrictMath.log1p(-p);
+    }
+
+    @Override
+    public String toString() {
+        return "beta-binomial(successes=" + successes + ", failures=" + failures + ", prior "
+                + prior.marginal(0) + ")";
+    }
+}
