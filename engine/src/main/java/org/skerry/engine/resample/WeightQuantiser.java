@@ -1,0 +1,86 @@
+package org.skerry.engine.resample;
+
+/**
+ * Turns log-weights into non-negative fixed-point integers, so that sums of weights are exact
+ * and associative and every grouping of particles into blocks sees the same prefix sums. Runs on
+ * the block side.
+ *
+ * <p>Particle {@code i} gets {@code q_i = floor(exp(logWeight_i - L) * 2^62)}, clamped to
+ * {@code [0, 2^62]}, where {@code L} is a log-normaliser shared by all blocks (normally the
+ * log of the sum of the weights, so the total is close to {@code 2^62}). Any {@code L} works
+ * provided every block uses the same one and the total fits in a {@code long}. The exponential is
+ * {@link StrictMath#exp}, and multiplying by a power of two is exact, so the integers are the
+ * same on every JVM.
+ */
+public final class WeightQuantiser {
+
+    /** The fixed-point value of a weight equal to the normaliser: {@code 2^62}. */
+    public static final long ONE = 1L << 62;
+
+    private static final double SCALE = 0x1.0p62;
+
+    private WeightQuantiser() {
+    }
+
+    /**
+     * The fixed-point weight of one particle.
+     *
+     * @throws IllegalArgumentException if {@code logNormaliser} is not finite, or
+     *     {@code logWeight} is NaN or +infinity
+     */
+    public static long quantise(double logWeight, double logNormaliser) {
+        checkNormaliser(logNormaliser);
+        checkLogWeight(logWeight, 0);
+        return quantiseChecked(logWeight, logNormaliser);
+    }
+
+    /**
+     * Quantises {@code logWeights[0..size)} into {@code out[0..size)} and returns their sum.
+     *
+     * @throws IllegalArgumentException if {@code logNormaliser} is not finite, a log-weight is
+     *     NaN or +infinity, an array is shorter than {@code size}, or the sum exceeds
+     *     {@link Long#MAX_VALUE} (then {@code logNormaliser} is far below the log of the sum)
+     */
+    public static long quantise(double[] logWeights, int size, double logNormaliser, long[] out) {
+        checkNormaliser(logNormaliser);
+        if (size < 0 || logWeights.length < size || out.length < size) {
+            throw new IllegalArgumentException("size must be in [0, array length], was " + size);
+        }
+        long total = 0;
+        try {
+            for (int i = 0; i < size; i++) {
+                double logWeight = logWeights[i];
+                if (!(logWeight < Double.POSITIVE_INFINITY)) {
+                    checkLogWeight(logWeight, i);
+                }
+                long q = quantiseChecked(logWeight, logNormaliser);
+                out[i] = q;
+                total = Math.addExact(total, q);
+            }
+        } catch (ArithmeticException e) {
+            throw new IllegalArgumentException("quantised weights overflow a long: logNormaliser "
+                    + logNormaliser + " is far below the log of the sum of the weights", e);
+        }
+        return total;
+    }
+
+    private static long quantiseChecked(double logWeight, double logNormaliser) {
+        double x = logWeight - logNormaliser;
+        // x >= 0 only when the weight reaches the normaliser (possible for L a little low from
+        // rounding); -infinity gives exp = 0, the wanted zero weight.
+        return x < 0 ? (long) (StrictMath.exp(x) * SCALE) : ONE;
+    }
+
+    private static void checkNormaliser(double logNormaliser) {
+        if (!Double.isFinite(logNormaliser)) {
+            throw new IllegalArgumentException("logNormaliser must be finite, was " + logNormaliser);
+        }
+    }
+
+    private static void checkLogWeight(double logWeight, int i) {
+        if (Double.isNaN(logWeight) || logWeight == Double.POSITIVE_INFINITY) {
+            throw new IllegalArgumentException("logWeight[" + i + "] must be < +infinity and not NaN, was "
+                    + logWeight);
+        }
+    }
+}
