@@ -21,9 +21,9 @@ public final class Resampling {
         if (n < 1 || n > logWeights.length) {
             throw new IllegalArgumentException("n must be in [1, " + logWeights.length + "], was " + n);
         }
-        double logNormaliser = logSumExp(logWeights, n);
+        double max = maxLogWeight(logWeights, n);
         long[] q = new long[n];
-        long total = WeightQuantiser.quantise(logWeights, n, logNormaliser, q);
+        long total = WeightQuantiser.quantise(logWeights, n, max, logSumRelative(logWeights, n, max), q);
         BlockLayout layout = BlockLayout.of(new long[] {0}, new int[] {n});
         int[] offspring = new int[n];
         BlockResamplingPlan plan;
@@ -40,11 +40,22 @@ public final class Resampling {
 
     /**
      * {@code log(sum exp(logWeights[0..n)))} with {@link StrictMath}, summed in index order, so it
-     * is the same on every JVM.
+     * is the same on every JVM. For huge log-weights prefer the unsummed pair
+     * {@link #maxLogWeight} and {@link #logSumRelative} (see {@link WeightQuantiser}).
      *
      * @throws IllegalArgumentException if every weight is 0, or a log-weight is NaN or +infinity
      */
     public static double logSumExp(double[] logWeights, int n) {
+        double max = maxLogWeight(logWeights, n);
+        return max + logSumRelative(logWeights, n, max);
+    }
+
+    /**
+     * The largest of {@code logWeights[0..n)}.
+     *
+     * @throws IllegalArgumentException if every weight is 0, or a log-weight is NaN or +infinity
+     */
+    public static double maxLogWeight(double[] logWeights, int n) {
         double max = Double.NEGATIVE_INFINITY;
         for (int i = 0; i < n; i++) {
             double w = logWeights[i];
@@ -56,10 +67,15 @@ public final class Resampling {
         if (max == Double.NEGATIVE_INFINITY) {
             throw new IllegalArgumentException("all " + n + " weights are zero (log-weight -infinity)");
         }
+        return max;
+    }
+
+    /** {@code log(sum exp(logWeights[i] - max))} over {@code [0, n)}, in index order with {@link StrictMath}. */
+    public static double logSumRelative(double[] logWeights, int n, double max) {
         double sum = 0;
         for (int i = 0; i < n; i++) {
             sum += StrictMath.exp(logWeights[i] - max);
         }
-        return max + StrictMath.log(sum);
+        return StrictMath.log(sum);
     }
 }

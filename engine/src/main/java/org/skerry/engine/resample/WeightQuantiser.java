@@ -11,6 +11,13 @@ package org.skerry.engine.resample;
  * provided every block uses the same one and the total fits in a {@code long}. The exponential is
  * {@link StrictMath#exp}, and multiplying by a power of two is exact, so the integers are the
  * same on every JVM.
+ *
+ * <p>When log-weights are huge in magnitude (beyond about 2<sup>50</sup>) a single double
+ * {@code L} cannot carry the log of the sum: {@code max + log(sum exp(logw - max))} rounds to
+ * {@code max}, and three equal top weights would then sum to {@code 3 * 2^62}, overflowing. The
+ * two-part form takes {@code L = reference + logSumRelative} unsummed, normally the global maximum
+ * log-weight (exact and the same in any grouping) and the log of the sum relative to it
+ * (between 0 and {@code log N}), and computes {@code (logw - reference) - logSumRelative}.
  */
 public final class WeightQuantiser {
 
@@ -29,9 +36,20 @@ public final class WeightQuantiser {
      *     {@code logWeight} is NaN or +infinity
      */
     public static long quantise(double logWeight, double logNormaliser) {
-        checkNormaliser(logNormaliser);
+        return quantise(logWeight, logNormaliser, 0);
+    }
+
+    /**
+     * The fixed-point weight of one particle, {@code floor(exp((logWeight - reference) -
+     * logSumRelative) * 2^62)} clamped to {@code [0, 2^62]}.
+     *
+     * @throws IllegalArgumentException if {@code reference} or {@code logSumRelative} is not
+     *     finite, or {@code logWeight} is NaN or +infinity
+     */
+    public static long quantise(double logWeight, double reference, double logSumRelative) {
+        checkNormaliser(reference, logSumRelative);
         checkLogWeight(logWeight, 0);
-        return quantiseChecked(logWeight, logNormaliser);
+        return quantiseChecked(logWeight, reference, logSumRelative);
     }
 
     /**
@@ -39,10 +57,21 @@ public final class WeightQuantiser {
      *
      * @throws IllegalArgumentException if {@code logNormaliser} is not finite, a log-weight is
      *     NaN or +infinity, an array is shorter than {@code size}, or the sum exceeds
-     *     {@link Long#MAX_VALUE} (then {@code logNormaliser} is far below the log of the sum)
+     *     {@link Long#MAX_VALUE} (then {@code logNormaliser} is below the log of the sum by more
+     *     than about log 2)
      */
     public static long quantise(double[] logWeights, int size, double logNormaliser, long[] out) {
-        checkNormaliser(logNormaliser);
+        return quantise(logWeights, size, logNormaliser, 0, out);
+    }
+
+    /**
+     * Two-part form of {@link #quantise(double[], int, double, long[])}: quantises with the
+     * normaliser {@code reference + logSumRelative}, never adding the two.
+     *
+     * @throws IllegalArgumentException as the one-part form
+     */
+    public static long quantise(double[] logWeights, int size, double reference, double logSumRelative, long[] out) {
+        checkNormaliser(reference, logSumRelative);
         if (size < 0 || logWeights.length < size || out.length < size) {
             throw new IllegalArgumentException("size must be in [0, array length], was " + size);
         }
@@ -53,27 +82,30 @@ public final class WeightQuantiser {
                 if (!(logWeight < Double.POSITIVE_INFINITY)) {
                     checkLogWeight(logWeight, i);
                 }
-                long q = quantiseChecked(logWeight, logNormaliser);
+                long q = quantiseChecked(logWeight, reference, logSumRelative);
                 out[i] = q;
                 total = Math.addExact(total, q);
             }
         } catch (ArithmeticException e) {
-            throw new IllegalArgumentException("quantised weights overflow a long: logNormaliser "
-                    + logNormaliser + " is far below the log of the sum of the weights", e);
+            throw new IllegalArgumentException("quantised weights overflow a long: normaliser "
+                    + reference + " + " + logSumRelative + " is far below the log of the sum of the weights", e);
         }
         return total;
     }
 
-    private static long quantiseChecked(double logWeight, double logNormaliser) {
-        double x = logWeight - logNormaliser;
+    private static long quantiseChecked(double logWeight, double reference, double logSumRelative) {
+        double x = (logWeight - reference) - logSumRelative;
         // x >= 0 only when the weight reaches the normaliser (possible for L a little low from
         // rounding); -infinity gives exp = 0, the wanted zero weight.
         return x < 0 ? (long) (StrictMath.exp(x) * SCALE) : ONE;
     }
 
-    private static void checkNormaliser(double logNormaliser) {
-        if (!Double.isFinite(logNormaliser)) {
-            throw new IllegalArgumentException("logNormaliser must be finite, was " + logNormaliser);
+    private static void checkNormaliser(double reference, double logSumRelative) {
+        if (!Double.isFinite(reference)) {
+            throw new IllegalArgumentException("log-normaliser must be finite, was " + reference);
+        }
+        if (!Double.isFinite(logSumRelative)) {
+            throw new IllegalArgumentException("logSumRelative must be finite, was " + logSumRelative);
         }
     }
 

@@ -17,7 +17,7 @@ final class BlockPipeline {
      * @param sizes block sizes in canonical order (zeros allowed)
      * @param blockIdOfPosition block number given to each canonical position (a permutation)
      */
-    static int[] offspring(ResamplingScheme scheme, double[] logWeights, double logNormaliser, int[] sizes,
+    static int[] offspring(ResamplingScheme scheme, double[] logWeights, double reference, double logSumRelative, int[] sizes,
             int[] blockIdOfPosition, long seed, int iteration) {
         int blocks = sizes.length;
         long[] first = new long[blocks];
@@ -37,7 +37,7 @@ final class BlockPipeline {
             double[] local = Arrays.copyOfRange(logWeights, (int) first[b], (int) first[b] + size[b]);
             q[b] = new long[size[b]];
             counts[b] = new int[size[b]];
-            totals[b] = WeightQuantiser.quantise(local, size[b], logNormaliser, q[b]);
+            totals[b] = WeightQuantiser.quantise(local, size[b], reference, logSumRelative, q[b]);
         }
         BlockLayout layout = BlockLayout.of(first, size);
         BlockResamplingPlan[] plans;
@@ -65,10 +65,15 @@ final class BlockPipeline {
         return all;
     }
 
+    static int[] offspring(ResamplingScheme scheme, double[] logWeights, double logNormaliser, int[] sizes,
+            int[] blockIdOfPosition, long seed, int iteration) {
+        return offspring(scheme, logWeights, logNormaliser, 0, sizes, blockIdOfPosition, seed, iteration);
+    }
+
     /** One block holding everything. */
     static int[] offspring(ResamplingScheme scheme, double[] logWeights, double logNormaliser, long seed,
             int iteration) {
-        return offspring(scheme, logWeights, logNormaliser, new int[] {logWeights.length}, new int[] {0}, seed,
+        return offspring(scheme, logWeights, logNormaliser, 0, new int[] {logWeights.length}, new int[] {0}, seed,
                 iteration);
     }
 }

@@ -16,10 +16,14 @@ final class ExactWeights {
     final BigInteger total;
 
     ExactWeights(double[] logWeights, double logNormaliser) {
+        this(logWeights, logNormaliser, 0);
+    }
+
+    ExactWeights(double[] logWeights, double reference, double logSumRelative) {
         q = new BigInteger[logWeights.length];
         BigInteger sum = BigInteger.ZERO;
         for (int i = 0; i < logWeights.length; i++) {
-            double e = StrictMath.exp(logWeights[i] - logNormaliser);
+            double e = StrictMath.exp((logWeights[i] - reference) - logSumRelative);
             // floor(e * 2^62) exactly, clamped to [0, 2^62] as specified for the quantiser.
             BigInteger v = new BigDecimal(e).multiply(TWO_POW_62).setScale(0, java.math.RoundingMode.FLOOR)
                     .toBigInteger();
