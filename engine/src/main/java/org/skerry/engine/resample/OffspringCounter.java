@@ -36,28 +36,29 @@ public final class OffspringCounter {
         if (weights.length < size || offspring.length < size) {
             throw new IllegalArgumentException("arrays too short for " + size + " particles");
         }
-        long end;
+        long lastPoint;
         switch (plan.scheme()) {
             case SYSTEMATIC:
-                end = systematic(plan, weights, size, offspring);
+                lastPoint = systematic(plan, weights, size, offspring);
                 break;
             case STRATIFIED:
-                end = stratified(plan, weights, size, offspring);
+                lastPoint = stratified(plan, weights, size, offspring);
                 break;
             case MULTINOMIAL:
-                end = multinomial(plan, weights, size, offspring, false);
+                lastPoint = multinomial(plan, weights, size, offspring, false);
                 break;
             default:
-                end = multinomial(plan, weights, size, offspring, true);
+                lastPoint = multinomial(plan, weights, size, offspring, true);
                 break;
         }
-        if (end != plan.weightBefore() + plan.blockWeight()) {
-            throw new IllegalStateException("block weights sum to " + (end - plan.weightBefore())
-                    + ", the plan was made for " + plan.blockWeight());
-        }
         long total = 0;
-        for (int i = 0; i < size; i++) {
-            total += offspring[i];
+        if (plan.scheme() == ResamplingScheme.RESIDUAL) {
+            for (int i = 0; i < size; i++) {
+                total += offspring[i];
+            }
+        } else {
+            // Each copy consumed one point, so the walk's point count is the offspring total.
+            total = lastPoint - plan.firstPoint();
         }
         if (total != plan.offspringCount()) {
             throw new IllegalStateException("block has " + total + " offspring, the plan expects "
@@ -124,7 +125,8 @@ public final class OffspringCounter {
             }
             offspring[i] = copies;
         }
-        return cumulative;
+        checkWeight(plan, cumulative);
+        return k;
     }
 
     private static long stratified(BlockResamplingPlan plan, long[] weights, int size, int[] offspring) {
@@ -146,7 +148,8 @@ public final class OffspringCounter {
             }
             offspring[i] = copies;
         }
-        return cumulative;
+        checkWeight(plan, cumulative);
+        return k;
     }
 
     private static long multinomial(BlockResamplingPlan plan, long[] weights, int size, int[] offspring,
@@ -181,6 +184,14 @@ public final class OffspringCounter {
             }
             offspring[i] = add ? offspring[i] + copies : copies;
         }
-        return cumulative;
+        checkWeight(plan, cumulative);
+        return k;
+    }
+
+    private static void checkWeight(BlockResamplingPlan plan, long end) {
+        if (end != plan.weightBefore() + plan.blockWeight()) {
+            throw new IllegalStateException("block weights sum to " + (end - plan.weightBefore())
+                    + ", the plan was made for " + plan.blockWeight());
+        }
     }
 }

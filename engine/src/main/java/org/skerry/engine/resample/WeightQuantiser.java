@@ -25,6 +25,12 @@ public final class WeightQuantiser {
     public static final long ONE = 1L << 62;
 
     private static final double SCALE = 0x1.0p62;
+    /**
+     * Below this, {@code exp(x) * 2^62 < 0.4} even allowing exp an error of several ulps, so the
+     * floor is 0 and exp need not be called: the answer is the same, and degenerate weights are
+     * cheap.
+     */
+    private static final double NEGLIGIBLE = -44.0;
 
     private WeightQuantiser() {
     }
@@ -97,7 +103,10 @@ public final class WeightQuantiser {
         double x = (logWeight - reference) - logSumRelative;
         // x >= 0 only when the weight reaches the normaliser (possible for L a little low from
         // rounding); -infinity gives exp = 0, the wanted zero weight.
-        return x < 0 ? (long) (StrictMath.exp(x) * SCALE) : ONE;
+        if (x < 0) {
+            return x < NEGLIGIBLE ? 0 : (long) (StrictMath.exp(x) * SCALE);
+        }
+        return ONE;
     }
 
     private static void checkNormaliser(double reference, double logSumRelative) {
