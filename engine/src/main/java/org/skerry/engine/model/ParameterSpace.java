@@ -87,6 +87,35 @@ public final class ParameterSpace {
         return true;
     }
 
+    /** Writes the unconstrained coordinates of {@code x} into {@code z}. */
+    public void toUnconstrained(double[] x, double[] z) {
+        for (int i = 0; i < supports.length; i++) {
+            z[i] = supports[i].toUnconstrained(x[i]);
+        }
+    }
+
+    /**
+     * Writes the model-scale values of {@code z} into {@code x} and returns
+     * {@code log|dx/dz|}, the log-Jacobian of the map, summed over coordinates.
+     */
+    public double fromUnconstrained(double[] z, double[] x) {
+        double logJacobian = 0.0;
+        for (int i = 0; i < supports.length; i++) {
+            x[i] = supports[i].fromUnconstrained(z[i]);
+            logJacobian += supports[i].logJacobian(z[i]);
+        }
+        return logJacobian;
+    }
+
+    /** {@code log|dx/dz|} summed over coordinates, at unconstrained point {@code z}. */
+    public double logJacobian(double[] z) {
+        double logJacobian = 0.0;
+        for (int i = 0; i < supports.length; i++) {
+            logJacobian += supports[i].logJacobian(z[i]);
+        }
+        return logJacobian;
+    }
+
     @Override
     public String toString() {
         StringBuilder text = new StringBuilder("[");

@@ -1,0 +1,86 @@
+package org.skerry.engine.population;
+
+import java.io.Serializable;
+import java.util.Arrays;
+
+/**
+ * Counts from a batch of likelihood evaluations: how many were made, how many returned a valid
+ * zero ({@code -Infinity}) and how many were invalid (NaN, {@code +Infinity} or an exception),
+ * with the report of the invalid evaluation of lowest particle index. Merging keeps the lowest
+ * index, so the report does not depend on which block finished first.
+ *
+ * <p>Immutable; crosses from executors to the driver once per block and phase.
+ */
+public final class EvaluationTally implements Serializable {
+
+    private static final long serialVersionUID = 1L;
+
+    /** The tally of no evaluations. */
+    public static final EvaluationTally NONE = new EvaluationTally(0, 0, 0, -1, null, null);
+
+    private final long evaluations;
+    private final long zeroLikelihood;
+    private final long invalid;
+    private final long firstInvalidIndex;
+    private final String firstInvalidReason;
+    private final double[] firstInvalidParameters;
+
+    public EvaluationTally(long evaluations, long zeroLikelihood, long invalid, long firstInvalidIndex,
+            String firstInvalidReason, double[] firstInvalidParameters) {
+        this.evaluations = evaluations;
+        this.zeroLikelihood = zeroLikelihood;
+        this.invalid = invalid;
+        this.firstInvalidIndex = firstInvalidIndex;
+        this.firstInvalidReason = firstInvalidReason;
+        this.firstInvalidParameters = firstInvalidParameters == null ? null : firstInvalidParameters.clone();
+    }
+
+    /** Sum of two tallies; the invalid report of lower particle index is kept. */
+    public EvaluationTally plus(EvaluationTally other) {
+        boolean keepThis = firstInvalidIndex >= 0
+                && (other.firstInvalidIndex < 0 || firstInvalidIndex <= other.firstInvalidIndex);
+        EvaluationTally report = keepThis ? this : other;
+        return new EvaluationTally(evaluations + other.evaluations, zeroLikelihood + other.zeroLikelihood,
+                invalid + other.invalid, report.firstInvalidIndex, report.firstInvalidReason,
+                report.firstInvalidParameters);
+    }
+
+    public long evaluations() {
+        return evaluations;
+    }
+
+    /** Evaluations that returned {@code -Infinity}: a valid zero likelihood. */
+    public long zeroLikelihood() {
+        return zeroLikelihood;
+    }
+
+    /** Evaluations that returned NaN or {@code +Infinity} or threw. */
+    public long invalid() {
+        return invalid;
+    }
+
+    /** Global index of the lowest-indexed particle with an invalid evaluation, or −1. */
+    public long firstInvalidIndex() {
+        return firstInvalidIndex;
+    }
+
+    /** What went wrong for that particle (exception text, "NaN", "+Infinity"), or null. */
+    public String firstInvalidReason() {
+        return firstInvalidReason;
+    }
+
+    /** The parameter values of that particle, or null. */
+    public double[] firstInvalidParameters() {
+        return firstInvalidParameters == null ? null : firstInvalidParameters.clone();
+    }
+
+    @Override
+    public String toString() {
+        String text = evaluations + " evaluations, " + zeroLikelihood + " zero likelihood, " + invalid + " invalid";
+        if (firstInvalidIndex >= 0) {
+            text += " (first: particle " + firstInvalidIndex + " at " + Arrays.toString(firstInvalidParameters)
+                    + ": " + firstInvalidReason + ")";
+        }
+        return text;
+    }
+}

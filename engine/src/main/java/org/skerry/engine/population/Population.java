@@ -1,0 +1,63 @@
+package org.skerry.engine.population;
+
+import org.skerry.engine.model.Prior;
+import org.skerry.engine.move.Proposal;
+import org.skerry.engine.resample.ResamplingScheme;
+
+/**
+ * A population of particles held by a backend, seen from the driver. The sampler loop
+ * ({@link org.skerry.engine.sampler.SmcSampler}) is written once against this interface; each
+ * backend decides where the blocks live (threads of this JVM, Spark executors) and runs the same
+ * block-side code from {@code org.skerry.engine.population.block} on them.
+ *
+ * <p>Every operation returns only scalars per particle or sums per block; parameter vectors stay
+ * with the blocks until {@link #export()}. Results must not depend on how particles are grouped
+ * into blocks or on the order in which blocks finish.
+ */
+public interface Population extends AutoCloseable {
+
+    /** Number of particles N. */
+    int size();
+
+    /**
+     * Draws the initial particles (from the prior, or from {@code proposal} with importance weights
+     * prior / proposal) and evaluates their log-likelihoods.
+     */
+    EvaluationTally initialise(Prior proposal);
+
+    /** Current log-weights and log-likelihoods of all particles (16 bytes a particle). */
+    TemperingInputs temperingInputs();
+
+    /** {@code log w += (toTemperature − fromTemperature)·log L} for every particle. */
+    void reweight(double fromTemperature, double toTemperature);
+
+    /**
+     * Resamples by normalised weight with the given scheme, gives every survivor weight 1 (log 0),
+     * renumbers particles canonically (ancestor order, then copy number) and rebalances the blocks.
+     *
+     * @param logTotal log of the current weight total, as computed by the driver
+     */
+    ResamplingReport resample(ResamplingScheme scheme, double logTotal, int iteration);
+
+    /** Weighted moment sums on the unconstrained scale, weights normalised by {@code logTotal}. */
+    MomentSums moments(double logTotal);
+
+    /**
+     * Metropolis–Hastings steps {@code firstStep … firstStep+steps−1} of every living particle,
+     * invariant for the target at {@code temperature}.
+     */
+    MoveTally move(Proposal proposal, double temperature, int iteration, int firstStep, int steps);
+
+    /** All particles in canonical order. Used once, at the end of a run. */
+    FinalParticles export();
+
+    /** A copy of the population's state, from which {@link #restore} can continue bit for bit. */
+    PopulationSnapshot snapshot();
+
+    /** Replaces the population's state with a snapshot taken from a population of the same shape. */
+    void restore(PopulationSnapshot snapshot);
+
+    /** Releases the population's resources (cached blocks); the backend stays open. */
+    @Override
+    void close();
+}

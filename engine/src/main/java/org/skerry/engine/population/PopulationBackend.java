@@ -1,0 +1,19 @@
+package org.skerry.engine.population;
+
+import org.skerry.engine.model.Model;
+
+/**
+ * Where populations live and are worked on: a thread pool in this JVM, or a Spark cluster.
+ * One backend can hold several populations at once (a batch of analyses sharing a cluster).
+ */
+public interface PopulationBackend extends AutoCloseable {
+
+    /** A short name for logs and outputs, e.g. {@code threads(2)}. */
+    String description();
+
+    /** Creates an empty population of {@code particles} particles of {@code model}, keyed by {@code seed}. */
+    Population create(Model model, int particles, long seed);
+
+    @Override
+    void close();
+}

@@ -1,0 +1,37 @@
+package org.skerry.engine.sampler;
+
+import java.util.List;
+import org.skerry.engine.population.EvaluationTally;
+import org.skerry.engine.population.FinalParticles;
+
+/**
+ * The outcome of a run: evidence with its error, posterior summaries per parameter, the
+ * per-iteration records, totals of likelihood evaluations, and the final weighted particles in
+ * canonical order. Everything but the phase times is determined by the settings and seed.
+ *
+ * @param evidence    log evidence and its single-run error
+ * @param parameters  posterior summary per parameter, in parameter order
+ * @param iterations  one record per iteration, starting with the initial draw
+ * @param evaluations tally of every likelihood evaluation of the run
+ * @param particles   the final population
+ * @param normalisedWeights normalised weights of the final particles (summing to 1)
+ */
+public record SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,
+        List<IterationRecord> iterations, EvaluationTally evaluations, FinalParticles particles,
+        double[] normalisedWeights) {
+
+    /** Number of tempering iterations after the initial draw. */
+    public int iterationCount() {
+        return iterations.size() - 1;
+    }
+
+    /** The summary of the named parameter. */
+    public ParameterSummary parameter(String name) {
+        for (ParameterSummary summary : parameters) {
+            if (summary.name().equals(name)) {
+                return summary;
+            }
+        }
+        throw new IllegalArgumentException("no parameter named '" + name + "'");
+    }
+}

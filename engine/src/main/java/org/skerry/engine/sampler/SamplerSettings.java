@@ -1,0 +1,282 @@
+package org.skerry.engine.sampler;
+
+import org.skerry.engine.model.Prior;
+import org.skerry.engine.move.MoveKernel;
+import org.skerry.engine.resample.ResamplingScheme;
+import org.skerry.engine.temper.AdaptiveTemperature;
+import org.skerry.engine.temper.TemperatureRule;
+
+/**
+ * Everything that determines a run's answer besides the model and the data: population size,
+ * seed, resampling, tempering and moves. Immutable; build with {@link #builder()}, which checks
+ * every value and names the setting it refuses.
+ */
+public final class SamplerSettings {
+
+    private final int particles;
+    private final long seed;
+    private final ResamplingScheme resamplingScheme;
+    private final double resampleThreshold;
+    private final boolean resampleEveryIteration;
+    private final TemperatureRule temperatureRule;
+    private final MoveKernel moveKernel;
+    private final int fixedSteps;
+    private final double stayProbability;
+    private final int maxSteps;
+    private final double initialScale;
+    private final double targetAcceptance;
+    private final int maxIterations;
+    private final Prior startProposal;
+    private final int minimumDistinctEves;
+
+    private SamplerSettings(Builder b) {
+        this.particles = b.particles;
+        this.seed = b.seed;
+        this.resamplingScheme = b.resamplingScheme;
+        this.resampleThreshold = b.resampleThreshold;
+        this.resampleEveryIteration = b.resampleEveryIteration;
+        this.temperatureRule = b.temperatureRule;
+        this.moveKernel = b.moveKernel;
+        this.fixedSteps = b.fixedSteps;
+        this.stayProbability = b.stayProbability;
+        this.maxSteps = b.maxSteps;
+        this.initialScale = b.initialScale;
+        this.targetAcceptance = b.targetAcceptance;
+        this.maxIterations = b.maxIterations;
+        this.startProposal = b.startProposal;
+        this.minimumDistinctEves = b.minimumDistinctEves;
+    }
+
+    public static Builder builder() {
+        return new Builder();
+    }
+
+    /** A builder holding this object's values. */
+    public Builder toBuilder() {
+        Builder b = new Builder();
+        b.particles = particles;
+        b.seed = seed;
+        b.resamplingScheme = resamplingScheme;
+        b.resampleThreshold = resampleThreshold;
+        b.resampleEveryIteration = resampleEveryIteration;
+        b.temperatureRule = temperatureRule;
+        b.moveKernel = moveKernel;
+        b.fixedSteps = fixedSteps;
+        b.stayProbability = stayProbability;
+        b.maxSteps = maxSteps;
+        b.initialScale = initialScale;
+        b.targetAcceptance = targetAcceptance;
+        b.maxIterations = maxIterations;
+        b.startProposal = startProposal;
+        b.minimumDistinctEves = minimumDistinctEves;
+        return b;
+    }
+
+    /** Number of particles N (at least 2). */
+    public int particles() {
+        return particles;
+    }
+
+    public long seed() {
+        return seed;
+    }
+
+    public ResamplingScheme resamplingScheme() {
+        return resamplingScheme;
+    }
+
+    /** Resample when ESS < threshold·N; in (0, 1], default 0.5 (common practice). */
+    public double resampleThreshold() {
+        return resampleThreshold;
+    }
+
+    /** Whether to resample at every iteration regardless of the ESS. */
+    public boolean resampleEveryIteration() {
+        return resampleEveryIteration;
+    }
+
+    public TemperatureRule temperatureRule() {
+        return temperatureRule;
+    }
+
+    public MoveKernel moveKernel() {
+        return moveKernel;
+    }
+
+    /** A fixed number of MH steps per iteration, or 0 to adapt it. */
+    public int fixedSteps() {
+        return fixedSteps;
+    }
+
+    /** With adaptive steps: the accepted chance c that a particle never moves in an iteration. */
+    public double stayProbability() {
+        return stayProbability;
+    }
+
+    /** Cap on adaptive MH steps per iteration. */
+    public int maxSteps() {
+        return maxSteps;
+    }
+
+    /** Initial random-walk scale λ (multiplies 2.38/√d). */
+    public double initialScale() {
+        return initialScale;
+    }
+
+    /** Acceptance rate the random-walk scale is steered towards. */
+    public double targetAcceptance() {
+        return targetAcceptance;
+    }
+
+    /** The run stops with an error if tempering has not reached 1 after this many iterations. */
+    public int maxIterations() {
+        return maxIterations;
+    }
+
+    /** The user's start distribution q, or {@code null} to start from the prior. */
+    public Prior startProposal() {
+        return startProposal;
+    }
+
+    /** Fewer distinct Eve indices than this flags the single-run evidence error as unreliable. */
+    public int minimumDistinctEves() {
+        return minimumDistinctEves;
+    }
+
+    /** Builder for {@link SamplerSettings}; each setter validates its argument. */
+    public static final class Builder {
+        private int particles = 1000;
+        private long seed = 1;
+        private ResamplingScheme resamplingScheme = ResamplingScheme.SYSTEMATIC;
+        private double resampleThreshold = 0.5;
+        private boolean resampleEveryIteration;
+        private TemperatureRule temperatureRule = new AdaptiveTemperature(AdaptiveTemperature.DEFAULT_TARGET);
+        private MoveKernel moveKernel = MoveKernel.RANDOM_WALK;
+        private int fixedSteps;
+        private double stayProbability = 0.01;
+        private int maxSteps = 20;
+        private double initialScale = 1.0;
+        private double targetAcceptance = 0.234;
+        private int maxIterations = 1000;
+        private Prior startProposal;
+        private int minimumDistinctEves = 20;
+
+        private Builder() {
+        }
+
+        public Builder particles(int value) {
+            if (value < 2) {
+                throw new IllegalArgumentException("particles must be >= 2, was " + value);
+            }
+            particles = value;
+            return this;
+        }
+
+        public Builder seed(long value) {
+            seed = value;
+            return this;
+        }
+
+        public Builder resamplingScheme(ResamplingScheme value) {
+            resamplingScheme = require("resamplingScheme", value);
+            return this;
+        }
+
+        public Builder resampleThreshold(double value) {
+            if (!(value > 0 && value <= 1)) {
+                throw new IllegalArgumentException("resampleThreshold must be in (0, 1], was " + value);
+            }
+            resampleThreshold = value;
+            return this;
+        }
+
+        public Builder resampleEveryIteration(boolean value) {
+            resampleEveryIteration = value;
+            return this;
+        }
+
+        public Builder temperatureRule(TemperatureRule value) {
+            temperatureRule = require("temperatureRule", value);
+            return this;
+        }
+
+        public Builder moveKernel(MoveKernel value) {
+            moveKernel = require("moveKernel", value);
+            return this;
+        }
+
+        /** A fixed number of MH steps per iteration (>= 1), or 0 to adapt it. */
+        public Builder fixedSteps(int value) {
+            if (value < 0 || value >= 65536) {
+                throw new IllegalArgumentException("fixedSteps must be in [0, 65535], was " + value);
+            }
+            fixedSteps = value;
+            return this;
+        }
+
+        public Builder stayProbability(double value) {
+            if (!(value > 0 && value < 1)) {
+                throw new IllegalArgumentException("stayProbability must be in (0, 1), was " + value);
+            }
+            stayProbability = value;
+            return this;
+        }
+
+        public Builder maxSteps(int value) {
+            if (value < 1 || value >= 65536) {
+                throw new IllegalArgumentException("maxSteps must be in [1, 65535], was " + value);
+            }
+            maxSteps = value;
+            return this;
+        }
+
+        public Builder initialScale(double value) {
+            if (!(value > 0) || !Double.isFinite(value)) {
+                throw new IllegalArgumentException("initialScale must be positive and finite, was " + value);
+            }
+            initialScale = value;
+            return this;
+        }
+
+        public Builder targetAcceptance(double value) {
+            if (!(value > 0 && value < 1)) {
+                throw new IllegalArgumentException("targetAcceptance must be in (0, 1), was " + value);
+            }
+            targetAcceptance = value;
+            return this;
+        }
+
+        public Builder maxIterations(int value) {
+            if (value < 1) {
+                throw new IllegalArgumentException("maxIterations must be >= 1, was " + value);
+            }
+            maxIterations = value;
+            return this;
+        }
+
+        /** Start from a user distribution q instead of the prior ({@code null} for the prior). */
+        public Builder startProposal(Prior value) {
+            startProposal = value;
+            return this;
+        }
+
+        public Builder minimumDistinctEves(int value) {
+            if (value < 1) {
+                throw new IllegalArgumentException("minimumDistinctEves must be >= 1, was " + value);
+            }
+            minimumDistinctEves = value;
+            return this;
+        }
+
+        public SamplerSettings build() {
+            return new SamplerSettings(this);
+        }
+
+        private static <T> T require(String name, T value) {
+            if (value == null) {
+                throw new IllegalArgumentException(name + " must not be null");
+            }
+            return value;
+        }
+    }
+}
