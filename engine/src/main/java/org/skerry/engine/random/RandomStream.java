@@ -29,6 +29,7 @@ public final class RandomStream {
     public static final int MAX_STEP = 1 << 16;
 
     private static final double TWO_POW_MINUS_53 = 0x1.0p-53;
+    private static final double TWO_POW_MINUS_52 = 0x1.0p-52;
 
     private final int[] words = new int[4];
     private int key0;
@@ -57,6 +58,9 @@ public final class RandomStream {
      * @throws IllegalArgumentException if an address component is out of range
      */
     public RandomStream reset(long seed, StreamPurpose purpose, int iteration, long particleIndex, int step) {
+        if (purpose == null) {
+            throw new IllegalArgumentException("purpose must not be null");
+        }
         if (iteration < 0) {
             throw new IllegalArgumentException("iteration must be >= 0, was " + iteration);
         }
@@ -101,9 +105,12 @@ public final class RandomStream {
         return (nextLong() >>> 11) * TWO_POW_MINUS_53;
     }
 
-    /** A uniform double in the open interval (0, 1), safe to take the logarithm of. */
+    /**
+     * A uniform double in the open interval (0, 1), safe to take the logarithm of: 52 random bits
+     * and a half-step offset, so that neither end can be reached by rounding.
+     */
     public double nextOpenDouble() {
-        return ((nextLong() >>> 11) + 0.5) * TWO_POW_MINUS_53;
+        return ((nextLong() >>> 12) + 0.5) * TWO_POW_MINUS_52;
     }
 
     /** A standard exponential deviate, by inversion with {@link StrictMath#log}. */
