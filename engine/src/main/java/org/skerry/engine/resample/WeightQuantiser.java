@@ -1,5 +1,7 @@
 package org.skerry.engine.resample;
 
+import org.skerry.engine.math.TableExp;
+
 /**
  * Turns log-weights into non-negative fixed-point integers, so that sums of weights are exact
  * and associative and every grouping of particles into blocks sees the same prefix sums. Runs on
@@ -9,7 +11,7 @@ package org.skerry.engine.resample;
  * {@code [0, 2^62]}, where {@code L} is a log-normaliser shared by all blocks (normally the
  * log of the sum of the weights, so the total is close to {@code 2^62}). Any {@code L} works
  * provided every block uses the same one and the total fits in a {@code long}. The exponential is
- * {@link StrictMath#exp}, and multiplying by a power of two is exact, so the integers are the
+ * {@link TableExp#exp} (pure Java, bit-identical everywhere), and multiplying by a power of two is exact, so the integers are the
  * same on every JVM.
  *
  * <p>When log-weights are huge in magnitude (beyond about 2<sup>50</sup>) a single double
@@ -104,7 +106,7 @@ public final class WeightQuantiser {
         // x >= 0 only when the weight reaches the normaliser (possible for L a little low from
         // rounding); -infinity gives exp = 0, the wanted zero weight.
         if (x < 0) {
-            return x < NEGLIGIBLE ? 0 : (long) (StrictMath.exp(x) * SCALE);
+            return x < NEGLIGIBLE ? 0 : (long) (TableExp.exp(x) * SCALE);
         }
         return ONE;
     }
