@@ -53,6 +53,10 @@ public class SamplerOverheadBenchmark {
     @Param("2")
     public int steps;
 
+    /** Particles per block; 0 lets the backend choose. */
+    @Param("0")
+    public int blockSize;
+
     private BusyModel model;
     private ThreadPoolBackend backend;
     private ExecutorService barePool;
@@ -61,7 +65,7 @@ public class SamplerOverheadBenchmark {
     @Setup(Level.Trial)
     public void setUp() {
         model = new BusyModel(2, costMicros);
-        backend = new ThreadPoolBackend(threads, 0);
+        backend = new ThreadPoolBackend(threads, blockSize);
         barePool = Executors.newFixedThreadPool(threads);
         settings = SamplerSettings.builder().particles(particles).seed(11)
                 .temperatureRule(FixedSchedule.power(temperatures, 3.0)).fixedSteps(steps).build();
