@@ -1,0 +1,75 @@
+package org.skerry.cli.output;
+
+import java.io.IOException;
+import java.nio.file.Path;
+import java.util.List;
+import org.apache.commons.csv.CSVPrinter;
+import org.skerry.engine.sampler.IterationRecord;
+import org.skerry.engine.sampler.PhaseTimes;
+
+/**
+ * Writes {@code iterations.csv}: one row per iteration record, iteration 0 (the initial draw)
+ * first.
+ *
+ * <p>Columns: {@code iteration, temperature, ess, resampled, distinct_ancestors, particles_moved,
+ * acceptance, mh_steps, scale, log_evidence_increment, log_evidence, evaluations,
+ * zero_likelihood, invalid, first_invalid_particle, first_invalid_reason, seconds_evaluate,
+ * seconds_temperature, seconds_reweight, seconds_resample, seconds_fit, seconds_move}. Doubles
+ * are written by {@link DoubleText} ({@code NaN} for the acceptance of iteration 0, which makes no
+ * moves); {@code resampled} is {@code true} or {@code false}; the two {@code first_invalid}
+ * fields, and the seconds of a record without phase times, are empty when there is nothing to
+ * report.
+ */
+public final class IterationsCsv {
+
+    /** The file's name in the run folder. */
+    public static final String FILE_NAME = "iterations.csv";
+
+    static final String[] COLUMNS = {
+        "iteration", "temperature", "ess", "resampled", "distinct_ancestors", "particles_moved",
+        "acceptance", "mh_steps", "scale", "log_evidence_increment", "log_evidence", "evaluations",
+        "zero_likelihood", "invalid", "first_invalid_particle", "first_invalid_reason", "seconds_evaluate",
+        "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_fit", "seconds_move",
+    };
+
+    private IterationsCsv() {
+    }
+
+    /**
+     * Writes {@code iterations.csv} in {@code folder}, atomically.
+     *
+     * @return the file written
+     */
+    public static Path write(Path folder, List<IterationRecord> records) throws IOException {
+        if (folder == null) {
+            throw new IllegalArgumentException("folder must not be null");
+        }
+        if (records == null) {
+            throw new IllegalArgumentException("records must not be null");
+        }
+        Path file = folder.resolve(FILE_NAME);
+        AtomicFile.writeText(file, out -> {
+            CSVPrinter printer = new CSVPrinter(out, CsvOutput.withHeader(COLUMNS));
+            for (IterationRecord r : records) {
+                boolean invalid = r.firstInvalidIndex() >= 0;
+                PhaseTimes t = r.seconds();
+                printer.printRecord(r.iteration(), DoubleText.format(r.temperature()), DoubleText.format(r.ess()),
+                        r.resampled(), r.distinctAncestors(), r.particlesMoved(), DoubleText.format(r.acceptanceRate()),
+                        r.mhSteps(), DoubleText.format(r.scale()), DoubleText.format(r.logEvidenceIncrement()),
+                        DoubleText.format(r.logEvidence()), r.evaluations(), r.zeroLikelihood(), r.invalidEvaluations(),
+                        invalid ? r.firstInvalidIndex() : null, invalid ? r.firstInvalidReason() : null,
+                        seconds(t, 0), seconds(t, 1), seconds(t, 2), seconds(t, 3), seconds(t, 4), seconds(t, 5));
+            }
+            printer.flush();
+        });
+        return file;
+    }
+
+    private static String seconds(PhaseTimes t, int phase) {
+        if (t == null) {
+            return null;
+        }
+        double[] all = {t.evaluate(), t.temperature(), t.reweight(), t.resample(), t.fit(), t.move()};
+        return DoubleText.format(all[phase]);
+    }
+}

@@ -1,0 +1,85 @@
+package org.skerry.cli.output;
+
+import com.fasterxml.jackson.core.JsonGenerator;
+import java.io.IOException;
+import java.nio.file.Path;
+import java.time.format.DateTimeFormatter;
+import java.util.List;
+import org.skerry.engine.sampler.IterationRecord;
+import org.skerry.engine.sampler.PhaseTimes;
+
+/**
+ * Writes {@code timing.json}: how long a run took and where it ran, kept apart from
+ * {@code summary.json} because none of it is determined by the seed.
+ *
+ * <p>Keys, in this order: {@code wallSeconds}; {@code phaseSeconds}, an object holding
+ * {@code evaluate, temperature, reweight, resample, fit, move}, each summed over all iterations;
+ * {@code programVersion}, {@code javaVersion}, {@code javaVendor}, {@code host}, {@code backend}
+ * (null where unknown); {@code startedAt}, ISO-8601 in UTC ({@code 2025-03-01T09:30:00.250Z}).
+ */
+public final class TimingJson {
+
+    /** The file's name in the run folder. */
+    public static final String FILE_NAME = "timing.json";
+
+    private TimingJson() {
+    }
+
+    /**
+     * Writes {@code timing.json} in {@code folder}, atomically.
+     *
+     * @param folder      an existing folder
+     * @param environment where and when the run happened
+     * @param wallSeconds wall-clock seconds of the whole run
+     * @param iterations  the run's iteration records (their phase times are summed); records
+     *                    without phase times count as zero
+     * @return the file written
+     */
+    public static Path write(Path folder, RunEnvironment environment, double wallSeconds,
+            List<IterationRecord> iterations) throws IOException {
+        if (folder == null) {
+            throw new IllegalArgumentException("folder must not be null");
+        }
+        if (environment == null) {
+            throw new IllegalArgumentException("environment must not be null");
+        }
+        if (iterations == null) {
+            throw new IllegalArgumentException("iterations must not be null");
+        }
+        double[] sums = new double[6];
+        for (IterationRecord record : iterations) {
+            PhaseTimes t = record.seconds();
+            if (t != null) {
+                sums[0] += t.evaluate();
+                sums[1] += t.temperature();
+                sums[2] += t.reweight();
+                sums[3] += t.resample();
+                sums[4] += t.fit();
+                sums[5] += t.move();
+            }
+        }
+        Path file = folder.resolve(FILE_NAME);
+        AtomicFile.write(file, out -> {
+            JsonGenerator json = JsonOutput.open(out);
+            json.writeStartObject();
+            JsonOutput.number(json, "wallSeconds", wallSeconds);
+            json.writeObjectFieldStart("phaseSeconds");
+            JsonOutput.number(json, "evaluate", sums[0]);
+            JsonOutput.number(json, "temperature", sums[1]);
+            JsonOutput.number(json, "reweight", sums[2]);
+            JsonOutput.number(json, "resample", sums[3]);
+            JsonOutput.number(json, "fit", sums[4]);
+            JsonOutput.number(json, "move", sums[5]);
+            json.writeEndObject();
+            JsonOutput.text(json, "programVersion", environment.programVersion());
+            JsonOutput.text(json, "javaVersion", environment.javaVersion());
+            JsonOutput.text(json, "javaVendor", environment.javaVendor());
+            JsonOutput.text(json, "host", environment.host());
+            JsonOutput.text(json, "backend", environment.backend());
+            json.writeStringField("startedAt", DateTimeFormatter.ISO_INSTANT.format(environment.startedAt()));
+            json.writeEndObject();
+            JsonOutput.close(json);
+        });
+        return file;
+    }
+}

@@ -1,0 +1,87 @@
+package org.skerry.cli.output;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.IOException;
+import java.io.Reader;
+import java.math.BigDecimal;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVParser;
+import org.apache.commons.csv.CSVRecord;
+import org.junit.jupiter.api.DisplayName;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.population.FinalParticles;
+import org.skerry.engine.sampler.SamplerResult;
+
+class ParticlesCsvTest {
+
+    @TempDir
+    Path folder;
+
+    private static List<CSVRecord> read(Path file) throws IOException {
+        try (Reader in = Files.newBufferedReader(file);
+                CSVParser parser = CSVParser.parse(in, CSVFormat.RFC4180)) {
+            return parser.getRecords();
+        }
+    }
+
+    @Test
+    @DisplayName("particles.csv reads back with commons-csv to the same bits, N rows, weights summing to 1")
+    void readsBackExactly() throws IOException {
+        SamplerResult result = EngineRuns.normalMean(3, 2);
+        FinalParticles particles = result.particles();
+        Path file = ParticlesCsv.write(folder, List.of("mu_a", "mu \"b\", second"), particles, result.normalisedWeights());
+        List<CSVRecord> records = read(file);
+        assertEquals(List.of("mu_a", "mu \"b\", second", "weight"), records.get(0).toList());
+        assertEquals(particles.size() + 1, records.size());
+        BigDecimal total = BigDecimal.ZERO;
+        for (int i = 0; i < particles.size(); i++) {
+            CSVRecord row = records.get(i + 1);
+            assertEquals(3, row.size());
+            for (int k = 0; k < 2; k++) {
+                assertEquals(Double.doubleToRawLongBits(particles.value(i, k)),
+                        Double.doubleToRawLongBits(Double.parseDouble(row.get(k))), "row " + i + " column " + k);
+            }
+            double weight = Double.parseDouble(row.get(2));
+            assertEquals(Double.doubleToRawLongBits(result.normalisedWeights()[i]), Double.doubleToRawLongBits(weight));
+            total = total.add(new BigDecimal(row.get(2)));
+        }
+        assertEquals(1.0, total.doubleValue(), 1e-12);
+    }
+
+    @Test
+    @DisplayName("the same seed gives a byte-identical particles.csv, whatever the thread count")
+    void sameSeedSameBytes() throws IOException {
+        Path a = Files.createDirectory(folder.resolve("a"));
+        Path b = Files.createDirectory(folder.resolve("b"));
+        SamplerResult one = EngineRuns.normalMean(4, 1);
+        SamplerResult three = EngineRuns.normalMean(4, 3);
+        ParticlesCsv.write(a, List.of("mu1", "mu2"), one.particles(), one.normalisedWeights());
+        ParticlesCsv.write(b, List.of("mu1", "mu2"), three.particles(), three.normalisedWeights());
+        assertArrayEquals(Files.readAllBytes(a.resolve("particles.csv")), Files.readAllBytes(b.resolve("particles.csv")));
+    }
+
+    @Test
+    @DisplayName("names that do not fit the particles are refused before anything is written")
+    void badNames() {
+        FinalParticles particles = new FinalParticles(2, 1, new double[] {1, 2}, new double[] {0}, new double[] {0},
+                new long[] {0}, new long[] {0});
+        double[] w = {1.0};
+        assertTrue(assertThrows(IllegalArgumentException.class,
+                () -> ParticlesCsv.write(folder, List.of("a"), particles, w)).getMessage().contains("one name per parameter (2)"));
+        assertTrue(assertThrows(IllegalArgumentException.class,
+                () -> ParticlesCsv.write(folder, List.of("a", "a"), particles, w)).getMessage().contains("'a' appears twice"));
+        assertTrue(assertThrows(IllegalArgumentException.class,
+                () -> ParticlesCsv.write(folder, List.of("a", "weight"), particles, w)).getMessage().contains("weight column"));
+        assertTrue(assertThrows(IllegalArgumentException.class,
+                () -> ParticlesCsv.write(folder, List.of("a", "b"), particles, new double[2])).getMessage().contains("one weight per particle (1), got 2"));
+        assertTrue(!Files.exists(folder.resolve("particles.csv")));
+    }
+}
