@@ -1,0 +1,150 @@
+package org.skerry.cli.progress;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.ByteArrayOutputStream;
+import java.io.PrintStream;
+import java.nio.charset.StandardCharsets;
+import java.time.Clock;
+import java.time.Duration;
+import java.time.Instant;
+import java.time.ZoneId;
+import java.time.ZoneOffset;
+import java.util.List;
+import org.junit.jupiter.api.DisplayName;
+import org.junit.jupiter.api.Test;
+import org.skerry.engine.sampler.IterationRecord;
+import org.skerry.engine.sampler.PhaseTimes;
+
+class ProgressDisplayTest {
+
+    private static final String NL = System.lineSeparator();
+
+    /** A clock that moves only when told. */
+    private static final class ManualClock extends Clock {
+        private Instant now;
+
+        ManualClock(Instant now) {
+            this.now = now;
+        }
+
+        void advance(double seconds) {
+            now = now.plus(Duration.ofMillis(Math.round(seconds * 1000)));
+        }
+
+        @Override
+        public ZoneId getZone() {
+            return ZoneOffset.UTC;
+        }
+
+        @Override
+        public Clock withZone(ZoneId zone) {
+            throw new UnsupportedOperationException();
+        }
+
+        @Override
+        public Instant instant() {
+            return now;
+        }
+    }
+
+    private static IterationRecord record(int iteration, double phi, double ess, double acceptance, long evaluations) {
+        return new IterationRecord(iteration, phi, ess, false, 1000, 0, acceptance, 3, 1.0, 0, 0, evaluations, 0, 0, -1,
+                null, new PhaseTimes(0, 0, 0, 0, 0, 0));
+    }
+
+    private final ByteArrayOutputStream bytes = new ByteArrayOutputStream();
+    private final PrintStream out = new PrintStream(bytes, true, StandardCharsets.UTF_8);
+    private final ManualClock clock = new ManualClock(Instant.parse("2025-03-01T09:30:00Z"));
+
+    private String text() {
+        return bytes.toString(StandardCharsets.UTF_8);
+    }
+
+    /** Four iterations, two seconds apart: φ 0, 10⁻³, 10⁻², 1. */
+    private void run(ProgressDisplay display, boolean finish) {
+        clock.advance(2);
+        display.iterationFinished(record(0, 0.0, 1000, Double.NaN, 1000));
+        clock.advance(2);
+        display.iterationFinished(record(1, 0.001, 498.6, 0.5, 3000));
+        clock.advance(2);
+        display.iterationFinished(record(2, 0.01, 512, 0.234, 2000));
+        if (finish) {
+            clock.advance(2);
+            display.iterationFinished(record(3, 1.0, 700, 0.25, 58000));
+        }
+    }
+
+    @Test
+    @DisplayName("interactive: one line rewritten with \\r, padded over longer content, ended when φ reaches 1")
+    void interactive() {
+        run(new ProgressDisplay(out, true, clock), true);
+        String text = text();
+        assertTrue(text.startsWith("\r"));
+        assertTrue(text.endsWith(NL));
+        assertEquals(text.indexOf(NL), text.length() - NL.length(), "exactly one line end, at the end");
+        List<String> shown = List.of(text.substring(1, text.length() - NL.length()).split("\r"));
+        assertEquals(4, shown.size());
+        assertEquals("iter 0  phi 0.0000  ESS 1000  acc -  500 eval/s  0:00:02  left ?", shown.get(0));
+        // 4000 evaluations in 4 s; no pace measured before the end of iteration 1.
+        assertTrue(shown.get(1).startsWith("iter 1  phi 0.0010  ESS 499  acc 50%  1000 eval/s  0:00:04  left ?"),
+                shown.get(1));
+        // log φ went from log 10⁻³ to log 10⁻² in 2 s; log 1 is as far again twice over: 4 s.
+        assertTrue(shown.get(2).startsWith("iter 2  phi 0.0100  ESS 512  acc 23%  1000 eval/s  0:00:06  left ~0:00:04"),
+                shown.get(2));
+        assertTrue(shown.get(3).startsWith("iter 3  phi 1.0000  ESS 700  acc 25%  8000 eval/s  0:00:08  done"),
+                shown.get(3));
+        for (int i = 1; i < shown.size(); i++) {
+            assertTrue(shown.get(i).length() >= shown.get(i - 1).strip().length(),
+                    "line " + i + " must cover the previous one");
+        }
+        assertTrue(shown.get(3).strip().length() < shown.get(2).length(), "the last line is the shorter");
+        assertEquals(shown.get(2).length(), shown.get(3).length(), "a shorter line is padded to the previous length");
+    }
+
+    @Test
+    @DisplayName("interactive: close() ends an unfinished line once; nothing more after that")
+    void closeEndsLine() {
+        ProgressDisplay display = new ProgressDisplay(out, true, clock);
+        run(display, false);
+        assertFalse(text().contains(NL));
+        display.close();
+        assertTrue(text().endsWith(NL));
+        int length = text().length();
+        display.close();
+        assertEquals(length, text().length());
+    }
+
+    @Test
+    @DisplayName("log mode: one stamped line per iteration with the same fields, no \\r")
+    void logMode() {
+        ProgressDisplay display = new ProgressDisplay(out, false, clock);
+        run(display, true);
+        display.close();
+        String text = text();
+        assertFalse(text.contains("\r"));
+        String[] lines = text.split(NL);
+        assertEquals(4, lines.length);
+        assertEquals("2025-03-01T09:30:02Z iter 0  phi 0.0000  ESS 1000  acc -  500 eval/s  0:00:02  left ?", lines[0]);
+        assertEquals("2025-03-01T09:30:06Z iter 2  phi 0.0100  ESS 512  acc 23%  1000 eval/s  0:00:06  left ~0:00:04",
+                lines[2]);
+        assertEquals("2025-03-01T09:30:08Z iter 3  phi 1.0000  ESS 700  acc 25%  8000 eval/s  0:00:08  done", lines[3]);
+        assertTrue(text.endsWith(NL));
+    }
+
+    @Test
+    @DisplayName("φ is rounded down, large rates are abbreviated, long times show hours")
+    void formatting() {
+        ProgressDisplay display = new ProgressDisplay(out, false, clock);
+        clock.advance(3725);
+        display.iterationFinished(record(0, 0.0, 10, Double.NaN, 100_000_000L));
+        clock.advance(1);
+        display.iterationFinished(record(1, 0.99999, 10, 0.5, 0));
+        String[] lines = text().split(NL);
+        assertTrue(lines[0].contains("26.8k eval/s  1:02:05"), lines[0]);
+        assertTrue(lines[1].contains("phi 0.9999 "), lines[1]);
+        assertEquals("12:00:00", ProgressDisplay.clockTime(43_200));
+    }
+}
