@@ -189,6 +189,10 @@ public final class CsvDataReader {
 
         private List<String> header(CSVRecord record, int line) {
             List<String> names = record.toList();
+            if (names.stream().allMatch(name -> DECIMAL.matcher(name).matches())) {
+                throw new DataException(source, line, null, "the header holds only numbers "
+                        + DataTable.listed(names) + "; the first line that is not a comment must name the columns");
+            }
             for (int k = 0; k < names.size(); k++) {
                 String name = names.get(k);
                 if (name.isEmpty()) {

@@ -13,6 +13,7 @@ import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.AccessDeniedException;
 import java.nio.file.AtomicMoveNotSupportedException;
+import java.nio.file.DirectoryNotEmptyException;
 import java.nio.file.FileAlreadyExistsException;
 import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
@@ -156,6 +157,9 @@ public final class AtomicFile {
     static String reason(IOException e) {
         if (e instanceof NoSuchFileException) {
             return "no such file or folder " + ((NoSuchFileException) e).getFile();
+        }
+        if (e instanceof DirectoryNotEmptyException) {
+            return "a folder of that name is in the way";
         }
         if (e instanceof AccessDeniedException) {
             return "permission denied on " + ((AccessDeniedException) e).getFile();

@@ -4,7 +4,6 @@ import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
-import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
 import java.math.BigDecimal;
@@ -112,6 +111,15 @@ class CsvDataReaderTest {
         assertEquals("chl", e.column());
         Path blank = file("blank.csv", "day,,depth\n1,2,3\n");
         assertEquals(blank + " line 1: column 2 of the header has no name", refused(blank).getMessage());
+    }
+
+    @Test
+    @DisplayName("a first line of numbers is taken for forgotten names")
+    void headerOfNumbers() throws IOException {
+        Path data = file("bare.csv", "# no names\n1,2.5,3\n4,5,6\n");
+        assertEquals(data + " line 2: the header holds only numbers (1, 2.5, 3); the first line that is not a comment"
+                + " must name the columns", refused(data).getMessage());
+        assertEquals(List.of("1", "x"), CsvDataReader.read(file("mixed.csv", "1,x\n2,3\n")).columns());
     }
 
     @Test

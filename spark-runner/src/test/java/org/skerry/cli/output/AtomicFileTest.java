@@ -111,4 +111,15 @@ class AtomicFileTest {
         IOException thrown = assertThrows(IOException.class, () -> AtomicFile.writeString(target, "x"));
         assertTrue(thrown.getMessage().startsWith("cannot write " + target), thrown.getMessage());
     }
+
+    @Test
+    @DisplayName("a folder in the way is reported; the folder and its content stay, no temporary is left")
+    void folderInTheWay() throws IOException {
+        Path target = Files.createDirectory(folder.resolve("out.txt"));
+        Files.writeString(target.resolve("inside"), "kept");
+        IOException thrown = assertThrows(IOException.class, () -> AtomicFile.writeString(target, "x"));
+        assertTrue(thrown.getMessage().startsWith("cannot write " + target + ": "), thrown.getMessage());
+        assertEquals("kept", Files.readString(target.resolve("inside")));
+        assertEquals(List.of("out.txt"), names());
+    }
 }
