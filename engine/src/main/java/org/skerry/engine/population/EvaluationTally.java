@@ -45,6 +45,17 @@ public final class EvaluationTally implements Serializable {
                 report.firstInvalidParameters);
     }
 
+    /**
+     * Sum of this tally and a later one; the invalid report kept is the earliest in time (this
+     * tally's, if it has one), since particle indices are renumbered between iterations.
+     */
+    public EvaluationTally followedBy(EvaluationTally later) {
+        EvaluationTally report = firstInvalidIndex >= 0 ? this : later;
+        return new EvaluationTally(evaluations + later.evaluations, zeroLikelihood + later.zeroLikelihood,
+                invalid + later.invalid, report.firstInvalidIndex, report.firstInvalidReason,
+                report.firstInvalidParameters);
+    }
+
     public long evaluations() {
         return evaluations;
     }

@@ -175,7 +175,7 @@ public final class SmcSampler {
                 scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), settings.targetAcceptance());
             }
             EvaluationTally evaluations = moves.evaluations();
-            total = total.plus(evaluations);
+            total = total.followedBy(evaluations);
 
             IterationRecord record = new IterationRecord(iteration, temperature, ess, resample, ancestors, moved,
                     moves.acceptanceRate(), steps, usedScale, increment, logEvidence, evaluations.evaluations(),

@@ -1,6 +1,6 @@
 package org.skerry.cli.progress;
 
-import java.io.PrintStream;
+import java.io.PrintWriter;
 import java.math.BigDecimal;
 import java.math.RoundingMode;
 import java.time.Clock;
@@ -32,7 +32,7 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
 
     private static final DateTimeFormatter STAMP = DateTimeFormatter.ISO_INSTANT;
 
-    private final PrintStream out;
+    private final PrintWriter out;
     private final boolean interactive;
     private final Clock clock;
     private final Instant start;
@@ -44,7 +44,7 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
     private boolean lineOpen;
 
     /** A display timed by the system clock. */
-    public ProgressDisplay(PrintStream out, boolean interactive) {
+    public ProgressDisplay(PrintWriter out, boolean interactive) {
         this(out, interactive, Clock.systemUTC());
     }
 
@@ -53,7 +53,7 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
      * @param interactive rewrite one line (a terminal) rather than print one line per iteration
      * @param clock       the source of elapsed time and time stamps
      */
-    public ProgressDisplay(PrintStream out, boolean interactive, Clock clock) {
+    public ProgressDisplay(PrintWriter out, boolean interactive, Clock clock) {
         if (out == null) {
             throw new IllegalArgumentException("out must not be null");
         }

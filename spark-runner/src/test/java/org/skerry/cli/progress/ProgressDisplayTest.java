@@ -5,7 +5,8 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.ByteArrayOutputStream;
-import java.io.PrintStream;
+import java.io.OutputStreamWriter;
+import java.io.PrintWriter;
 import java.nio.charset.StandardCharsets;
 import java.time.Clock;
 import java.time.Duration;
@@ -56,7 +57,7 @@ class ProgressDisplayTest {
     }
 
     private final ByteArrayOutputStream bytes = new ByteArrayOutputStream();
-    private final PrintStream out = new PrintStream(bytes, true, StandardCharsets.UTF_8);
+    private final PrintWriter out = new PrintWriter(new OutputStreamWriter(bytes, StandardCharsets.UTF_8), true);
     private final ManualClock clock = new ManualClock(Instant.parse("2025-03-01T09:30:00Z"));
 
     private String text() {

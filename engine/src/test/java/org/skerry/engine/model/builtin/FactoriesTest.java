@@ -26,11 +26,11 @@ class FactoriesTest {
     private static final ModelCatalog CATALOG = ModelCatalog.load();
 
     @Test
-    @DisplayName("ServiceLoader finds the five built-in factories, each describing its settings")
+    @DisplayName("ServiceLoader finds the built-in factories, each describing its settings")
     void catalog() {
         List<String> names = CATALOG.factories().stream().map(ModelFactory::name).toList();
         assertEquals(List.of("beta-binomial", "gaussian-mixture", "gaussian-shells", "linear-regression",
-                "normal-mean"), names);
+                "normal-mean", "plankton-npz"), names);
         for (ModelFactory factory : CATALOG.factories()) {
             assertFalse(factory.description().isBlank());
             assertFalse(factory.settings().isEmpty(), factory.name());

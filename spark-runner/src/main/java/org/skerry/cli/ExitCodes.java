@@ -1,0 +1,15 @@
+package org.skerry.cli;
+
+/** The program's exit codes, for scripts. */
+public final class ExitCodes {
+
+    /** The command did what was asked. */
+    public static final int SUCCESS = 0;
+    /** The run started but failed (every weight zero, tempering stuck, a model error). */
+    public static final int RUN_FAILURE = 1;
+    /** Bad input: run file, overrides, data, model choice or output folder; nothing was run. */
+    public static final int BAD_INPUT = 2;
+
+    private ExitCodes() {
+    }
+}

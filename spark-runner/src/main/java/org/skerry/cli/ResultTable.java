@@ -1,0 +1,38 @@
+package org.skerry.cli;
+
+import java.io.PrintWriter;
+import java.util.Locale;
+import org.skerry.engine.sampler.EvidenceEstimate;
+import org.skerry.engine.sampler.ParameterSummary;
+import org.skerry.engine.sampler.SamplerResult;
+
+/** The short result table printed at the end of a run. */
+final class ResultTable {
+
+    private ResultTable() {
+    }
+
+    static void print(Analysis.Outcome outcome, PrintWriter out) {
+        SamplerResult result = outcome.result();
+        EvidenceEstimate evidence = result.evidence();
+        out.println("run folder: " + outcome.folder());
+        out.println(String.format(Locale.ROOT, "log evidence: %.4f ± %.4f (single-run estimate)%s",
+                evidence.logEvidence(), evidence.standardError(), evidence.reliable() ? "" : "  [unreliable]"));
+        if (!evidence.reliable()) {
+            out.println("  warning: " + evidence.warning());
+        }
+        out.println(String.format(Locale.ROOT, "iterations: %d, likelihood evaluations: %d, invalid: %d, wall time: %.1f s",
+                result.iterationCount(), result.evaluations().evaluations(), result.evaluations().invalid(),
+                outcome.wallSeconds()));
+        int width = 9;
+        for (ParameterSummary p : result.parameters()) {
+            width = Math.max(width, p.name().length());
+        }
+        out.println(String.format(Locale.ROOT, "%-" + width + "s %12s %12s %12s %12s", "parameter", "mean", "sd",
+                "2.5 %", "97.5 %"));
+        for (ParameterSummary p : result.parameters()) {
+            out.println(String.format(Locale.ROOT, "%-" + width + "s %12.5g %12.5g %12.5g %12.5g", p.name(), p.mean(),
+                    p.sd(), p.q025(), p.q975()));
+        }
+    }
+}

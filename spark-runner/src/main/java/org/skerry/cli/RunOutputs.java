@@ -1,0 +1,51 @@
+package org.skerry.cli;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.file.Path;
+import java.time.Instant;
+import java.util.List;
+import org.skerry.cli.output.IterationsCsv;
+import org.skerry.cli.output.ParticlesCsv;
+import org.skerry.cli.output.RunConfFile;
+import org.skerry.cli.output.RunEnvironment;
+import org.skerry.cli.output.SummaryJson;
+import org.skerry.cli.output.TimingJson;
+import org.skerry.engine.sampler.SamplerResult;
+
+/**
+ * Writes a run folder in the order that keeps it honest: the resolved settings before the run;
+ * after it the particles, the iteration table, the timing and — last — the summary, whose
+ * presence marks a finished run. Each file is written whole or not at all.
+ */
+final class RunOutputs {
+
+    /** What a finished run leaves to write. */
+    record Run(String model, long seed, List<String> parameterNames, SamplerResult result, double wallSeconds,
+            Instant startedAt, String backend) {
+    }
+
+    private RunOutputs() {
+    }
+
+    static void writeSettings(Path folder, String resolvedSettings) {
+        try {
+            RunConfFile.write(folder, Version.text(), resolvedSettings);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + folder.resolve(RunConfFile.FILE_NAME), e);
+        }
+    }
+
+    static void writeResults(Path folder, Run run) {
+        try {
+            SamplerResult result = run.result();
+            ParticlesCsv.write(folder, run.parameterNames(), result.particles(), result.normalisedWeights());
+            IterationsCsv.write(folder, result.iterations());
+            TimingJson.write(folder, RunEnvironment.current(Version.text(), run.backend(), run.startedAt()),
+                    run.wallSeconds(), result.iterations());
+            SummaryJson.write(folder, run.model(), run.seed(), result);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write the results into " + folder, e);
+        }
+    }
+}

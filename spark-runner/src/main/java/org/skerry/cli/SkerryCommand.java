@@ -1,0 +1,62 @@
+package org.skerry.cli;
+
+import java.io.PrintWriter;
+import org.skerry.cli.runfile.RunFileException;
+import org.skerry.engine.sampler.SamplingFailedException;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/**
+ * The {@code skerry} command: sequential Monte Carlo calibration of costly models. Subcommands
+ * run an analysis, check a run file, list models and run the demo. Exit codes are in
+ * {@link ExitCodes}.
+ */
+@Command(name = "skerry", mixinStandardHelpOptions = true, versionProvider = Version.class,
+        description = "Bayesian calibration of costly models by sequential Monte Carlo: posterior, evidence, diagnostics.",
+        subcommands = {RunCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
+            DemoDataCommand.class, CommandLine.HelpCommand.class},
+        exitCodeOnInvalidInput = ExitCodes.BAD_INPUT, exitCodeOnExecutionException = ExitCodes.RUN_FAILURE)
+public final class SkerryCommand implements Runnable {
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public void run() {
+        spec.commandLine().usage(spec.commandLine().getOut());
+    }
+
+    /** Runs the program with the given arguments and returns its exit code. */
+    public static int execute(String[] args, PrintWriter out, PrintWriter err) {
+        CommandLine line = new CommandLine(new SkerryCommand());
+        line.setOut(out);
+        line.setErr(err);
+        line.setExecutionExceptionHandler((exception, commandLine, parseResult) -> {
+            PrintWriter errors = commandLine.getErr();
+            if (exception instanceof RunFileException) {
+                errors.println("skerry: bad input: " + exception.getMessage());
+                errors.flush();
+                return ExitCodes.BAD_INPUT;
+            }
+            if (exception instanceof SamplingFailedException) {
+                errors.println("skerry: the run failed at " + exception.getMessage());
+                errors.flush();
+                return ExitCodes.RUN_FAILURE;
+            }
+            errors.println("skerry: the run failed: " + exception);
+            StackTraceElement[] trace = exception.getStackTrace();
+            for (int i = 0; i < Math.min(8, trace.length); i++) {
+                errors.println("    at " + trace[i]);
+            }
+            errors.flush();
+            return ExitCodes.RUN_FAILURE;
+        });
+        return line.execute(args);
+    }
+
+    public static void main(String[] args) {
+        PrintWriter out = new PrintWriter(System.out, true);
+        PrintWriter err = new PrintWriter(System.err, true);
+        System.exit(execute(args, out, err));
+    }
+}

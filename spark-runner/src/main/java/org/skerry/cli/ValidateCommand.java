@@ -1,0 +1,44 @@
+package org.skerry.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.skerry.cli.runfile.ModelBuilder;
+import org.skerry.cli.runfile.RunFile;
+import org.skerry.cli.runfile.RunSpec;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+/** {@code skerry validate FILE}: check a run file and its data without running. */
+@Command(name = "validate", mixinStandardHelpOptions = true, versionProvider = Version.class,
+        description = "Check a run file, its data and its model settings without running anything.")
+final class ValidateCommand implements Callable<Integer> {
+
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "FILE", description = "the run file (HOCON)")
+    Path file;
+
+    @Option(names = "--set", paramLabel = "KEY=VALUE", description = "override one setting (repeatable)")
+    List<String> overrides = new ArrayList<>();
+
+    @Override
+    public Integer call() {
+        RunSpec run = RunSpec.from(RunFile.load(file, overrides));
+        ModelBuilder.Built built = ModelBuilder.build(run);
+        PrintWriter out = spec.commandLine().getOut();
+        out.println(file + ": ok");
+        out.println("  model:      " + run.modelLabel() + " with parameters " + built.model().parameters().names());
+        out.println("  data:       " + (built.data() == null ? "none"
+                : built.data().rowCount() + " rows from " + built.data().source()));
+        out.println("  particles:  " + run.sampler().particles() + ", seed " + run.sampler().seed());
+        out.flush();
+        return ExitCodes.SUCCESS;
+    }
+}

@@ -1,0 +1,216 @@
+package org.skerry.cli.runfile;
+
+import com.typesafe.config.Config;
+import com.typesafe.config.ConfigException;
+import java.lang.reflect.Constructor;
+import java.lang.reflect.InvocationTargetException;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.skerry.cli.data.CsvDataReader;
+import org.skerry.cli.data.DataException;
+import org.skerry.cli.data.DataTable;
+import org.skerry.engine.model.Model;
+import org.skerry.engine.model.settings.ModelCatalog;
+import org.skerry.engine.model.settings.ModelFactory;
+import org.skerry.engine.model.settings.ModelSettings;
+import org.skerry.engine.model.settings.SettingDescription;
+
+/**
+ * Builds the model a run file asks for: reads its data (CSV file or inline), binds data columns
+ * to the model's roles, and creates the model from a built-in factory or a user class. Every
+ * failure is bad input and becomes a {@link RunFileException}.
+ */
+public final class ModelBuilder {
+
+    private ModelBuilder() {
+    }
+
+    /** The model with its data, and the data table it read (or null without data). */
+    public record Built(Model model, DataTable data) {
+    }
+
+    public static Built build(RunSpec spec) {
+        DataTable data = readData(spec);
+        Map<String, double[]> columns = bind(spec, data);
+        String source = data == null ? "the run file (no data)" : data.source();
+        ModelSettings settings = ConfigModelSettings.of(spec.modelSettings(), columns, source);
+        Model model;
+        try {
+            if (spec.modelName() != null) {
+                ModelFactory factory = ModelCatalog.load().find(spec.modelName()).orElseThrow(() -> new RunFileException(
+                        where(spec, "model.name") + ": unknown model '" + spec.modelName() + "'; built-in models: "
+                                + names() + suggestion(spec.modelName())));
+                checkModelKeys(spec, factory);
+                model = factory.create(settings);
+            } else {
+                model = fromClass(spec, settings);
+            }
+        } catch (IllegalArgumentException e) {
+            throw new RunFileException("model " + spec.modelLabel() + ": " + e.getMessage(), e);
+        }
+        if (model == null) {
+            throw new RunFileException("model " + spec.modelLabel() + ": the factory returned no model");
+        }
+        return new Built(model, data);
+    }
+
+    private static String where(RunSpec spec, String key) {
+        return RunFile.where(spec.file().config(), key);
+    }
+
+    private static List<String> names() {
+        List<String> names = new ArrayList<>();
+        ModelCatalog.load().factories().forEach(f -> names.add(f.name()));
+        return names;
+    }
+
+    private static String suggestion(String name) {
+        String closest = KeySuggestion.closest(name, names());
+        return closest == null ? "" : "; did you mean '" + closest + "'?";
+    }
+
+    private static DataTable readData(RunSpec spec) {
+        try {
+            if (spec.dataFile() != null) {
+                return CsvDataReader.read(spec.dataFile());
+            }
+            if (spec.inlineData() != null) {
+                return inline(spec);
+            }
+            return null;
+        } catch (DataException e) {
+            throw new RunFileException(e.getMessage(), e);
+        }
+    }
+
+    private static DataTable inline(RunSpec spec) {
+        Config inline = spec.inlineData();
+        String where = RunFile.describe(inline.origin());
+        List<String> columns;
+        List<?> rows;
+        try {
+            columns = inline.getStringList("columns");
+            rows = inline.getList("rows").unwrapped();
+        } catch (ConfigException.Missing e) {
+            throw new RunFileException(where + ": data.inline needs columns = [names] and rows = [[numbers], …]");
+        } catch (ConfigException.WrongType | ClassCastException e) {
+            throw new RunFileException(where + ": data.inline needs columns = [names] and rows = [[numbers], …]: "
+                    + e.getMessage());
+        }
+        List<double[]> values = new ArrayList<>();
+        for (int i = 0; i < rows.size(); i++) {
+            Object row = rows.get(i);
+            if (!(row instanceof List) || ((List<?>) row).size() != columns.size()) {
+                throw new RunFileException(where + ": data.inline.rows[" + i + "] must list " + columns.size()
+                        + " numbers (" + String.join(", ", columns) + ")");
+            }
+            List<?> cells = (List<?>) row;
+            double[] parsed = new double[cells.size()];
+            for (int j = 0; j < parsed.length; j++) {
+                if (!(cells.get(j) instanceof Number)) {
+                    throw new RunFileException(where + ": data.inline.rows[" + i + "], column " + columns.get(j)
+                            + ": '" + cells.get(j) + "' is not a number");
+                }
+                parsed[j] = ((Number) cells.get(j)).doubleValue();
+                if (!Double.isFinite(parsed[j])) {
+                    throw new RunFileException(where + ": data.inline.rows[" + i + "], column " + columns.get(j)
+                            + ": value is not finite");
+                }
+            }
+            values.add(parsed);
+        }
+        try {
+            return DataTable.fromRows("inline data (" + where + ")", columns, values);
+        } catch (DataException e) {
+            throw new RunFileException(e.getMessage(), e);
+        }
+    }
+
+    /** Every data column under its own name, then the explicit role bindings. */
+    private static Map<String, double[]> bind(RunSpec spec, DataTable data) {
+        Map<String, double[]> columns = new LinkedHashMap<>();
+        if (data == null) {
+            if (!spec.columnBindings().isEmpty()) {
+                throw new RunFileException(where(spec, "data.columns") + ": data.columns binds roles but the run "
+                        + "file has no data (set data.file or data.inline)");
+            }
+            return columns;
+        }
+        for (String name : data.columns()) {
+            columns.put(name, data.column(name));
+        }
+        for (Map.Entry<String, String> binding : spec.columnBindings().entrySet()) {
+            if (!data.columns().contains(binding.getValue())) {
+                throw new RunFileException(where(spec, "data.columns." + binding.getKey()) + ": data.columns."
+                        + binding.getKey() + " = \"" + binding.getValue() + "\": " + data.source()
+                        + " has no such column; its columns: " + data.columns());
+            }
+            columns.put(binding.getKey(), data.column(binding.getValue()));
+        }
+        return columns;
+    }
+
+    /** Refuses keys under model.settings that the factory does not read. */
+    private static void checkModelKeys(RunSpec spec, ModelFactory factory) {
+        List<String> declared = new ArrayList<>();
+        for (SettingDescription description : factory.settings()) {
+            declared.add(description.key());
+        }
+        List<String> leaves = new ArrayList<>();
+        spec.modelSettings().entrySet().forEach(e -> leaves.add(e.getKey()));
+        for (String key : leaves) {
+            boolean known = false;
+            for (String d : declared) {
+                if (key.equals(d) || key.startsWith(d + ".") || d.startsWith(key + ".")) {
+                    known = true;
+                    break;
+                }
+            }
+            if (!known) {
+                String closest = KeySuggestion.closest(key, declared);
+                throw new RunFileException(where(spec, "model.settings." + key) + ": model " + factory.name()
+                        + " has no setting '" + key + "'" + (closest == null ? "" : "; did you mean '" + closest + "'?")
+                        + " (its settings: " + declared + ")");
+            }
+        }
+    }
+
+    private static Model fromClass(RunSpec spec, ModelSettings settings) {
+        Class<?> type;
+        try {
+            type = Class.forName(spec.modelClass(), true, Thread.currentThread().getContextClassLoader());
+        } catch (ClassNotFoundException | LinkageError e) {
+            throw new RunFileException(where(spec, "model.class") + ": model class '" + spec.modelClass()
+                    + "' not found on the classpath (add its jar with the launcher's --classpath or CLASSPATH)");
+        }
+        try {
+            if (ModelFactory.class.isAssignableFrom(type)) {
+                ModelFactory factory = (ModelFactory) type.getConstructor().newInstance();
+                return factory.create(settings);
+            }
+            if (Model.class.isAssignableFrom(type)) {
+                try {
+                    Constructor<?> withSettings = type.getConstructor(ModelSettings.class);
+                    return (Model) withSettings.newInstance(settings);
+                } catch (NoSuchMethodException e) {
+                    return (Model) type.getConstructor().newInstance();
+                }
+            }
+        } catch (NoSuchMethodException e) {
+            throw new RunFileException(where(spec, "model.class") + ": " + spec.modelClass()
+                    + " needs a public constructor taking ModelSettings, or none");
+        } catch (InvocationTargetException e) {
+            Throwable cause = e.getCause();
+            if (cause instanceof IllegalArgumentException) {
+                throw (IllegalArgumentException) cause;
+            }
+            throw new RunFileException("model class " + spec.modelClass() + " failed to start: " + cause, cause);
+        } catch (ReflectiveOperationException e) {
+            throw new RunFileException("model class " + spec.modelClass() + " cannot be created: " + e, e);
+        }
+        throw new RunFileException(where(spec, "model.class") + ": " + spec.modelClass()
+                + " is neither an org.skerry.engine.model.Model nor an org.skerry.engine.model.settings.ModelFactory");
+    }
+}

@@ -1,0 +1,211 @@
+package org.skerry.cli.runfile;
+
+import com.typesafe.config.Config;
+import com.typesafe.config.ConfigException;
+import com.typesafe.config.ConfigFactory;
+import com.typesafe.config.ConfigObject;
+import com.typesafe.config.ConfigOrigin;
+import com.typesafe.config.ConfigParseOptions;
+import com.typesafe.config.ConfigRenderOptions;
+import com.typesafe.config.ConfigSyntax;
+import com.typesafe.config.ConfigValue;
+import com.typesafe.config.ConfigValueType;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeSet;
+
+/**
+ * A run file read with Typesafe Config: the user's HOCON file, then {@code --set key=value}
+ * overrides on top, then the defaults of the jar's {@code reference.conf} underneath. Every key
+ * the user writes must be a known one (outside the free-form model settings, data bindings and
+ * inline data); an unknown key is refused with the closest known key suggested.
+ */
+public final class RunFile {
+
+    /** Sections whose keys are the user's own (model settings, role bindings, inline data). */
+    private static final List<String> FREE_FORM = List.of("model.settings", "data.columns", "data.inline");
+
+    private final Path path;
+    private final Config config;
+
+    private RunFile(Path path, Config config) {
+        this.path = path;
+        this.config = config;
+    }
+
+    /**
+     * Reads, overrides, checks and resolves a run file.
+     *
+     * @param overrides {@code key=value} strings; the value is HOCON (a number, a quoted or bare
+     *     string, a list …)
+     * @throws RunFileException naming the file, line and key of the first problem found
+     */
+    public static RunFile load(Path path, List<String> overrides) {
+        if (!Files.isRegularFile(path)) {
+            throw new RunFileException("cannot read run file " + path + ": no such file");
+        }
+        if (!Files.isReadable(path)) {
+            throw new RunFileException("cannot read run file " + path + ": permission denied");
+        }
+        Config user;
+        try {
+            user = ConfigFactory.parseFile(path.toFile(),
+                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
+        } catch (ConfigException e) {
+            throw new RunFileException(located(e), e);
+        }
+        for (int i = overrides.size() - 1; i >= 0; i--) {
+            user = parseOverride(overrides.get(i)).withFallback(user);
+        }
+        Config reference = ConfigFactory.parseResources(RunFile.class.getClassLoader(), "reference.conf",
+                ConfigParseOptions.defaults().setAllowMissing(false));
+        checkKnownKeys(user, reference);
+        try {
+            return new RunFile(path, user.withFallback(reference).resolve());
+        } catch (ConfigException e) {
+            throw new RunFileException(located(e), e);
+        }
+    }
+
+    private static Config parseOverride(String override) {
+        int equals = override.indexOf('=');
+        if (equals <= 0) {
+            throw new RunFileException("--set " + override + ": expected key=value");
+        }
+        String key = override.substring(0, equals).trim();
+        String value = override.substring(equals + 1).trim();
+        try {
+            return ConfigFactory.parseString(key + " = " + (value.isEmpty() ? "\"\"" : value),
+                    ConfigParseOptions.defaults().setOriginDescription("--set " + override));
+        } catch (ConfigException e) {
+            try {
+                // A bare value HOCON cannot parse (a path with a colon, say) is taken as a string.
+                return ConfigFactory.parseString(key + " = " + quote(value),
+                        ConfigParseOptions.defaults().setOriginDescription("--set " + override));
+            } catch (ConfigException again) {
+                throw new RunFileException("--set " + override + ": " + again.getMessage(), again);
+            }
+        }
+    }
+
+    private static String quote(String value) {
+        return '"' + value.replace("\\", "\\\\").replace("\"", "\\\"") + '"';
+    }
+
+    /** "run.conf: line 7: what is wrong", from an exception that knows its origin. */
+    private static String located(ConfigException e) {
+        String message = e.getMessage();
+        if (e.origin() == null) {
+            return message;
+        }
+        String prefix = e.origin().description() + ": ";
+        String rest = message.startsWith(prefix) ? message.substring(prefix.length()) : message;
+        return describe(e.origin()) + ": " + rest;
+    }
+
+    private static void checkKnownKeys(Config user, Config reference) {
+        TreeSet<String> known = new TreeSet<>();
+        collectPaths(reference.root(), "", known);
+        List<String> unknown = new ArrayList<>();
+        collectLeaves(user.root(), "", unknown);
+        for (String key : unknown) {
+            if (isFreeForm(key) || known.contains(key)) {
+                continue;
+            }
+            // A user object where reference has a leaf, or the reverse, is a type error found later.
+            boolean prefixOfKnown = known.stream().anyMatch(k -> k.startsWith(key + "."));
+            boolean underKnownLeaf = known.stream().anyMatch(k -> key.startsWith(k + ".") && !reference.getIsNull(k)
+                    && reference.getValue(k).valueType() != ConfigValueType.OBJECT);
+            if (prefixOfKnown || underKnownLeaf) {
+                continue;
+            }
+            String suggestion = KeySuggestion.closest(key, known);
+            throw new RunFileException(where(user, key) + ": unknown setting '" + key + "'"
+                    + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?"));
+        }
+    }
+
+    private static boolean isFreeForm(String key) {
+        for (String section : FREE_FORM) {
+            if (key.equals(section) || key.startsWith(section + ".")) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    private static void collectPaths(ConfigObject object, String prefix, TreeSet<String> out) {
+        for (Map.Entry<String, ConfigValue> entry : object.entrySet()) {
+            String key = prefix + quoteKey(entry.getKey());
+            out.add(key);
+            if (entry.getValue() instanceof ConfigObject) {
+                collectPaths((ConfigObject) entry.getValue(), key + ".", out);
+            }
+        }
+    }
+
+    private static void collectLeaves(ConfigObject object, String prefix, List<String> out) {
+        for (Map.Entry<String, ConfigValue> entry : object.entrySet()) {
+            String key = prefix + quoteKey(entry.getKey());
+            if (entry.getValue() instanceof ConfigObject && !isFreeForm(key)) {
+                ConfigObject child = (ConfigObject) entry.getValue();
+                if (child.isEmpty()) {
+                    out.add(key);
+                }
+                collectLeaves(child, key + ".", out);
+            } else {
+                out.add(key);
+            }
+        }
+    }
+
+    private static String quoteKey(String segment) {
+        return segment.matches("[A-Za-z0-9_-]+") ? segment : '"' + segment + '"';
+    }
+
+    /** "file:line" of a key's value, or the origin's description. */
+    static String where(Config config, String key) {
+        try {
+            return describe(config.getValue(key).origin());
+        } catch (ConfigException e) {
+            return describe(config.origin());
+        }
+    }
+
+    static String describe(ConfigOrigin origin) {
+        if (origin.filename() != null) {
+            Path file = shorten(Path.of(origin.filename()));
+            return origin.lineNumber() > 0 ? file + ": line " + origin.lineNumber() : file.toString();
+        }
+        if (origin.resource() != null) {
+            return origin.resource() + (origin.lineNumber() > 0 ? ": line " + origin.lineNumber() : "");
+        }
+        return origin.description();
+    }
+
+    /** The path relative to the working folder when it lies below it, else as it is. */
+    private static Path shorten(Path file) {
+        Path here = Path.of("").toAbsolutePath();
+        Path absolute = file.toAbsolutePath().normalize();
+        return absolute.startsWith(here) ? here.relativize(absolute) : absolute;
+    }
+
+    /** The run file as read. */
+    public Path path() {
+        return path;
+    }
+
+    /** The resolved settings: overrides, then the file, then the defaults. */
+    public Config config() {
+        return config;
+    }
+
+    /** The resolved settings as HOCON text, for the run folder's {@code run.conf}. */
+    public String render() {
+        return config.root().render(ConfigRenderOptions.defaults().setOriginComments(false).setComments(false)
+                .setJson(false).setFormatted(true));
+    }
+}

@@ -1,0 +1,198 @@
+package org.skerry.cli.runfile;
+
+import com.typesafe.config.Config;
+import com.typesafe.config.ConfigException;
+import com.typesafe.config.ConfigValue;
+import com.typesafe.config.ConfigValueType;
+import java.nio.file.Path;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import org.skerry.engine.move.MoveKernel;
+import org.skerry.engine.resample.ResamplingScheme;
+import org.skerry.engine.sampler.SamplerSettings;
+import org.skerry.engine.temper.AdaptiveTemperature;
+import org.skerry.engine.temper.FixedSchedule;
+
+/**
+ * The typed, checked content of a run file: which model and data, the sampler settings, the
+ * backend and the output. Every value is checked here, so a bad one is reported with its file,
+ * line and key before anything runs.
+ */
+public final class RunSpec {
+
+    /** How progress is shown. */
+    public enum Progress { AUTO, LIVE, LOG, OFF }
+
+    private final RunFile file;
+    private final String name;
+    private final String modelName;
+    private final String modelClass;
+    private final Config modelSettings;
+    private final Path dataFile;
+    private final Config inlineData;
+    private final Map<String, String> columnBindings;
+    private final SamplerSettings sampler;
+    private final int threads;
+    private final int blockSize;
+    private final Path outputFolder;
+    private final Progress progress;
+
+    private RunSpec(RunFile file, TypedReader r) {
+        this.file = file;
+        Config c = r.config();
+        String runName = r.getString("name");
+        if (runName == null || !runName.matches("[A-Za-z0-9][A-Za-z0-9._-]*")) {
+            throw r.error("name", "must be letters, digits, '.', '_' or '-' (it names the run folder)");
+        }
+        this.name = runName;
+        this.modelName = r.getString("model.name");
+        this.modelClass = r.getString("model.class");
+        if ((modelName == null) == (modelClass == null)) {
+            throw new RunFileException(RunFile.describe(c.getValue("model").origin()) + ": set exactly one of "
+                    + "model.name (a built-in model, see `skerry models`) and model.class (a class on the classpath)");
+        }
+        try {
+            this.modelSettings = c.getConfig("model.settings");
+        } catch (ConfigException.WrongType e) {
+            throw r.error("model.settings", "expected an object { … }");
+        }
+        String data = r.getString("data.file");
+        Path base = file.path().toAbsolutePath().getParent();
+        this.dataFile = data == null ? null : base.resolve(data).normalize();
+        this.inlineData = c.getIsNull("data.inline") ? null : objectAt(r, "data.inline");
+        if (dataFile != null && inlineData != null) {
+            throw r.error("data.inline", "set data.file or data.inline, not both");
+        }
+        this.columnBindings = new LinkedHashMap<>();
+        for (Map.Entry<String, ConfigValue> entry : objectAt(r, "data.columns").root().entrySet()) {
+            if (entry.getValue().valueType() != ConfigValueType.STRING) {
+                throw r.error("data.columns." + entry.getKey(), "expected the name of a data column");
+            }
+            columnBindings.put(entry.getKey(), (String) entry.getValue().unwrapped());
+        }
+        this.sampler = samplerSettings(r);
+        r.getChoice("backend.kind", List.of("threads"));
+        this.threads = r.getInt("backend.threads", 0, 4096);
+        this.blockSize = r.getInt("backend.block-size", 0, Integer.MAX_VALUE);
+        String folder = r.getString("output.folder");
+        if (folder == null || folder.isBlank()) {
+            throw r.error("output.folder", "must name a folder");
+        }
+        this.outputFolder = Path.of(folder);
+        this.progress = Progress.valueOf(r.getChoice("output.progress", List.of("auto", "live", "log", "off"))
+                .toUpperCase(java.util.Locale.ROOT));
+    }
+
+    private static Config objectAt(TypedReader r, String key) {
+        try {
+            return r.config().getConfig(key);
+        } catch (ConfigException.WrongType e) {
+            throw r.error(key, "expected an object { … }");
+        }
+    }
+
+    private static SamplerSettings samplerSettings(TypedReader r) {
+        SamplerSettings.Builder b = SamplerSettings.builder();
+        b.particles(r.getInt("sampler.particles", 2, 100_000_000));
+        b.seed(r.getLong("sampler.seed"));
+        b.maxIterations(r.getInt("sampler.max-iterations", 1, 1_000_000));
+        b.minimumDistinctEves(r.getInt("sampler.minimum-distinct-ancestors", 1, Integer.MAX_VALUE));
+        String scheme = r.getChoice("sampler.resampling.scheme",
+                List.of("multinomial", "stratified", "systematic", "residual"));
+        b.resamplingScheme(ResamplingScheme.valueOf(scheme.toUpperCase(java.util.Locale.ROOT)));
+        b.resampleThreshold(r.getDouble("sampler.resampling.threshold", 0, false, 1, true));
+        b.resampleEveryIteration(r.getBoolean("sampler.resampling.every-iteration"));
+        String rule = r.getChoice("sampler.tempering.rule", List.of("adaptive", "fixed"));
+        if (rule.equals("adaptive")) {
+            b.temperatureRule(new AdaptiveTemperature(r.getDouble("sampler.tempering.target", 0, false, 1, false)));
+        } else {
+            double[] schedule = r.getDoubleList("sampler.tempering.schedule");
+            try {
+                b.temperatureRule(new FixedSchedule(schedule));
+            } catch (IllegalArgumentException e) {
+                throw r.error("sampler.tempering.schedule", e.getMessage());
+            }
+        }
+        String kernel = r.getChoice("sampler.moves.kernel", List.of("random-walk", "independence"));
+        b.moveKernel(kernel.equals("random-walk") ? MoveKernel.RANDOM_WALK : MoveKernel.INDEPENDENCE);
+        ConfigValue steps = r.config().getValue("sampler.moves.steps");
+        if (steps.valueType() == ConfigValueType.NUMBER) {
+            b.fixedSteps(r.getInt("sampler.moves.steps", 1, 65535));
+        } else if (!"adaptive".equals(steps.unwrapped())) {
+            throw r.error("sampler.moves.steps", "must be \"adaptive\" or a number of steps");
+        }
+        b.stayProbability(r.getDouble("sampler.moves.stay-probability", 0, false, 1, false));
+        b.maxSteps(r.getInt("sampler.moves.max-steps", 1, 65535));
+        b.initialScale(r.getDouble("sampler.moves.initial-scale", 0, false, 100, true));
+        b.targetAcceptance(r.getDouble("sampler.moves.target-acceptance", 0, false, 1, false));
+        return b.build();
+    }
+
+    /** Checks every setting of a loaded run file. */
+    public static RunSpec from(RunFile file) {
+        return new RunSpec(file, new TypedReader(file.config()));
+    }
+
+    public RunFile file() {
+        return file;
+    }
+
+    public String name() {
+        return name;
+    }
+
+    /** The built-in model name, or null. */
+    public String modelName() {
+        return modelName;
+    }
+
+    /** The user model class name, or null. */
+    public String modelClass() {
+        return modelClass;
+    }
+
+    /** A label for outputs: the model name or class. */
+    public String modelLabel() {
+        return modelName != null ? modelName : modelClass;
+    }
+
+    public Config modelSettings() {
+        return modelSettings;
+    }
+
+    /** The data file (absolute), or null. */
+    public Path dataFile() {
+        return dataFile;
+    }
+
+    /** The inline data object, or null. */
+    public Config inlineData() {
+        return inlineData;
+    }
+
+    /** Explicit role-to-column bindings. */
+    public Map<String, String> columnBindings() {
+        return columnBindings;
+    }
+
+    public SamplerSettings sampler() {
+        return sampler;
+    }
+
+    public int threads() {
+        return threads;
+    }
+
+    public int blockSize() {
+        return blockSize;
+    }
+
+    public Path outputFolder() {
+        return outputFolder;
+    }
+
+    public Progress progress() {
+        return progress;
+    }
+}
