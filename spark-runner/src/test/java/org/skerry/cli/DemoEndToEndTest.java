@@ -1,0 +1,97 @@
+package org.skerry.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.DisplayName;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/** The demo through the real program, in a separate JVM, at small N. */
+class DemoEndToEndTest {
+
+    private static final Path DEMO = Path.of("..", "conf", "demo").toAbsolutePath().normalize();
+    private static final String[] FILES = {"summary.json", "timing.json", "iterations.csv", "particles.csv", "run.conf"};
+
+    @TempDir
+    Path folder;
+
+    private static Process start(Path log, String... args) throws IOException {
+        List<String> command = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+                "-cp", System.getProperty("java.class.path"), "org.skerry.cli.SkerryCommand"));
+        command.addAll(List.of(args));
+        return new ProcessBuilder(command).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+    }
+
+    @Test
+    @DisplayName("skerry demo at small N: both run folders hold all five files, and the Bayes factor is printed")
+    void demoWritesEverything() throws Exception {
+        Path out = folder.resolve("demo");
+        Path log = folder.resolve("log.txt");
+        Process process = start(log, "demo", "--demo-folder", DEMO.toString(), "--out", out.toString(),
+                "--set", "sampler.particles=60", "--set", "sampler.moves.max-steps=3");
+        assertTrue(process.waitFor(170, TimeUnit.SECONDS), "demo finished in time");
+        String text = Files.readString(log);
+        assertEquals(ExitCodes.SUCCESS, process.exitValue(), text);
+        for (String run : new String[] {"buoy-07-saturating", "buoy-07-sigmoidal"}) {
+            for (String file : FILES) {
+                assertTrue(Files.size(out.resolve(run).resolve(file)) > 0, run + "/" + file);
+            }
+        }
+        assertTrue(text.contains("log Bayes factor, sigmoidal vs saturating"), text);
+        assertTrue(text.contains("synthetic"), "the demo says its data are synthetic");
+    }
+
+    @Test
+    @DisplayName("the program's exit code for bad input is 2, from a separate JVM too")
+    void exitCodeFromProcess() throws Exception {
+        Path log = folder.resolve("log.txt");
+        Process process = start(log, "run", folder.resolve("missing.conf").toString());
+        assertTrue(process.waitFor(60, TimeUnit.SECONDS));
+        assertEquals(ExitCodes.BAD_INPUT, process.exitValue(), Files.readString(log));
+    }
+
+    @Test
+    @DisplayName("every demo data file says it is synthetic")
+    void dataSaysSynthetic() throws IOException {
+        try (var files = Files.list(DEMO.resolve("data"))) {
+            List<Path> csv = files.filter(p -> p.toString().endsWith(".csv")).toList();
+            assertEquals(12, csv.size());
+            for (Path file : csv) {
+                assertTrue(Files.readAllLines(file).get(0).toLowerCase().contains("synthetic"), file.toString());
+            }
+        }
+    }
+
+    @Test
+    @DisplayName("generate-demo-data reproduces the committed demo data (values compared after parsing)")
+    void committedDataRegenerate() throws IOException {
+        Path out = folder.resolve("data");
+        CommandRunner.Result result = CommandRunner.run("generate-demo-data", "--out", out.toString());
+        assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
+        try (var files = Files.list(DEMO.resolve("data"))) {
+            for (Path committed : files.filter(p -> p.toString().endsWith(".csv")).toList()) {
+                List<String> expected = Files.readAllLines(committed);
+                List<String> actual = Files.readAllLines(out.resolve(committed.getFileName()));
+                assertEquals(expected.size(), actual.size(), committed.toString());
+                for (int i = 0; i < expected.size(); i++) {
+                    if (expected.get(i).startsWith("#") || i == 2) {
+                        assertEquals(expected.get(i), actual.get(i));
+                        continue;
+                    }
+                    String[] a = expected.get(i).split(",");
+                    String[] b = actual.get(i).split(",");
+                    for (int k = 0; k < a.length; k++) {
+                        assertEquals(Double.parseDouble(a[k]), Double.parseDouble(b[k]), 0.0, committed + " line " + (i + 1));
+                    }
+                }
+            }
+        }
+    }
+}
