@@ -9,6 +9,11 @@ public final class ExitCodes {
     public static final int RUN_FAILURE = 1;
     /** Bad input: run file, overrides, data, model choice or output folder; nothing was run. */
     public static final int BAD_INPUT = 2;
+    /**
+     * Stopped on request (SIGTERM, wall-time limit) at a checkpoint; resume the run to continue.
+     * 75 is EX_TEMPFAIL of sysexits.h: "try again later", which batch scripts requeue on.
+     */
+    public static final int STOPPED_RESUMABLE = 75;
 
     private ExitCodes() {
     }
