@@ -12,7 +12,6 @@ import org.skerry.cli.progress.ProgressDisplay;
 import org.skerry.cli.runfile.ModelBuilder;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
-import org.skerry.engine.population.threads.ThreadPoolBackend;
 import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.SamplerResult;
 import org.skerry.engine.sampler.SmcSampler;
@@ -46,16 +45,15 @@ public final class Analysis {
         prepare(runFolder);
         RunOutputs.writeSettings(runFolder, spec.file().render());
 
-        int threads = spec.threads() == 0 ? Runtime.getRuntime().availableProcessors() : spec.threads();
         long start = System.nanoTime();
         SamplerResult result;
-        try (ThreadPoolBackend backend = new ThreadPoolBackend(threads, spec.blockSize());
+        try (Backends.Opened opened = Backends.open(spec, runFolder);
                 ProgressDisplay progress = progress(spec, progressOut)) {
             IterationListener listener = progress == null ? IterationListener.NONE : progress;
-            result = new SmcSampler(spec.sampler()).run(built.model(), backend, listener);
+            result = new SmcSampler(spec.sampler()).run(built.source(), opened.backend, listener);
             double wall = (System.nanoTime() - start) * 1e-9;
             RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
-                    built.model().parameters().names(), result, wall, started, backend.description()));
+                    built.model().parameters().names(), result, wall, started, opened.backend.description()));
             return new Outcome(runFolder, spec, result, wall);
         }
     }

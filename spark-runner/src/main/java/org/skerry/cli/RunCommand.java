@@ -32,9 +32,18 @@ final class RunCommand implements Callable<Integer> {
             description = "the run folder to write (default: <output.folder>/<name>-<start time>); must be new or empty")
     Path out;
 
+    @Option(names = "--master", paramLabel = "URL",
+            description = "run on this Spark master (e.g. spark://127.0.0.1:7077); same as --set backend.master=URL")
+    String master;
+
     @Override
     public Integer call() {
-        RunSpec run = RunSpec.from(RunFile.load(file, overrides));
+        List<String> all = new ArrayList<>(overrides);
+        if (master != null) {
+            all.add("backend.kind=spark");
+            all.add("backend.master=\"" + master + "\"");
+        }
+        RunSpec run = RunSpec.from(RunFile.load(file, all));
         Analysis.Outcome outcome = Analysis.run(run, out, spec.commandLine().getErr());
         PrintWriter stdout = spec.commandLine().getOut();
         ResultTable.print(outcome, stdout);

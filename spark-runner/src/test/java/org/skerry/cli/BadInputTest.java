@@ -23,6 +23,7 @@ class BadInputTest {
             "data { file = \"data.csv\" }",
             "sampler { particles = 200, seed = 4 }",
             "output.progress = off",
+            "backend.kind = threads",
             "");
 
     private Path write(String name, String text) throws IOException {
@@ -62,14 +63,14 @@ class BadInputTest {
     @DisplayName("syntax error: file and line")
     void syntaxError() throws IOException {
         goodData();
-        expectBadInput(write("run.conf", GOOD + "sampler { particles = \n"), "run.conf", "line 7");
+        expectBadInput(write("run.conf", GOOD + "sampler { particles = \n"), "run.conf", "line 8");
     }
 
     @Test
     @DisplayName("unknown key: the closest valid key is suggested")
     void unknownKey() throws IOException {
         goodData();
-        expectBadInput(write("run.conf", GOOD + "sampler.partcles = 10\n"), "run.conf: line 6",
+        expectBadInput(write("run.conf", GOOD + "sampler.partcles = 10\n"), "run.conf: line 7",
                 "unknown setting 'sampler.partcles'", "did you mean 'sampler.particles'");
     }
 
@@ -84,7 +85,7 @@ class BadInputTest {
     @DisplayName("wrong type")
     void wrongType() throws IOException {
         goodData();
-        expectBadInput(write("run.conf", GOOD + "sampler.particles = many\n"), "line 6", "sampler.particles",
+        expectBadInput(write("run.conf", GOOD + "sampler.particles = many\n"), "line 7", "sampler.particles",
                 "expected a whole number");
     }
 
@@ -92,7 +93,7 @@ class BadInputTest {
     @DisplayName("value out of range")
     void outOfRange() throws IOException {
         goodData();
-        expectBadInput(write("run.conf", GOOD + "sampler.resampling.threshold = 1.5\n"), "line 6",
+        expectBadInput(write("run.conf", GOOD + "sampler.resampling.threshold = 1.5\n"), "line 7",
                 "sampler.resampling.threshold = 1.5", "(0.0, 1.0]");
     }
 

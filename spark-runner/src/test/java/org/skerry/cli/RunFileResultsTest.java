@@ -34,6 +34,7 @@ class RunFileResultsTest {
                 "model { name = normal-mean, settings { sigma = 2.0, prior { mean = 0.5, sd = 3 } } }",
                 "data { file = \"data.csv\", columns { y = \"height\" } }",
                 "sampler { particles = 1000 }",
+                "backend { kind = threads, master = \"local[2]\", partitions = 3 }",
                 "output.progress = off", ""));
     }
 
@@ -65,12 +66,14 @@ class RunFileResultsTest {
     }
 
     @Test
-    @DisplayName("same run file and seed: byte-identical summary.json and particles.csv; all five files written")
+    @DisplayName("same run file and seed: byte-identical summary.json and particles.csv from Spark local mode and from threads; all five files written")
     void byteIdentical() throws IOException {
         Path run = runFile(SyntheticData.normalRows(32, 10, new double[] {0.0}, 2.0));
         Path a = folder.resolve("a");
         Path b = folder.resolve("b");
-        assertEquals(ExitCodes.SUCCESS, CommandRunner.run("run", run.toString(), "--out", a.toString()).exitCode());
+        CommandRunner.Result spark = CommandRunner.run("run", run.toString(), "--out", a.toString(),
+                "--set", "backend.kind=spark");
+        assertEquals(ExitCodes.SUCCESS, spark.exitCode(), spark.err());
         assertEquals(ExitCodes.SUCCESS, CommandRunner.run("run", run.toString(), "--out", b.toString(),
                 "--set", "backend.threads=1", "--set", "backend.block-size=7").exitCode());
         for (String name : new String[] {"summary.json", "timing.json", "iterations.csv", "particles.csv", "run.conf"}) {

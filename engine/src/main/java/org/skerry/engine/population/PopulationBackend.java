@@ -1,6 +1,6 @@
 package org.skerry.engine.population;
 
-import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ModelSource;
 
 /**
  * Where populations live and are worked on: a thread pool in this JVM, or a Spark cluster.
@@ -11,8 +11,11 @@ public interface PopulationBackend extends AutoCloseable {
     /** A short name for logs and outputs, e.g. {@code threads(2)}. */
     String description();
 
-    /** Creates an empty population of {@code particles} particles of {@code model}, keyed by {@code seed}. */
-    Population create(Model model, int particles, long seed);
+    /**
+     * Creates an empty population of {@code particles} particles of the model {@code source}
+     * builds, keyed by {@code seed}. Distributed backends send the source to their executors.
+     */
+    Population create(ModelSource source, int particles, long seed);
 
     @Override
     void close();

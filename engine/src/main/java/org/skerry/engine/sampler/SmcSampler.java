@@ -3,6 +3,7 @@ package org.skerry.engine.sampler;
 import java.util.ArrayList;
 import java.util.List;
 import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.move.MoveAdaptation;
 import org.skerry.engine.move.MoveKernel;
@@ -55,8 +56,17 @@ public final class SmcSampler {
 
     /** Runs to φ = 1 on a new population of {@code backend}, telling {@code listener} about each iteration. */
     public SamplerResult run(Model model, PopulationBackend backend, IterationListener listener) {
+        return run(ModelSource.local(model), backend, listener);
+    }
+
+    /**
+     * Runs to φ = 1 with the model {@code source} builds; a distributed backend builds it again on
+     * each executor.
+     */
+    public SamplerResult run(ModelSource source, PopulationBackend backend, IterationListener listener) {
+        Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(model, settings.particles(), settings.seed())) {
+        try (Population population = backend.create(source, settings.particles(), settings.seed())) {
             return run(model, population, listener);
         }
     }

@@ -27,33 +27,44 @@ public final class ModelBuilder {
     private ModelBuilder() {
     }
 
-    /** The model with its data, and the data table it read (or null without data). */
-    public record Built(Model model, DataTable data) {
+    /**
+     * The model with its data, the data table it read (or null without data), and a portable
+     * source that rebuilds the same model on another JVM.
+     */
+    public record Built(Model model, DataTable data, RunModelSource source) {
     }
 
     public static Built build(RunSpec spec) {
         DataTable data = readData(spec);
         Map<String, double[]> columns = bind(spec, data);
-        String source = data == null ? "the run file (no data)" : data.source();
-        ModelSettings settings = ConfigModelSettings.of(spec.modelSettings(), columns, source);
+        String dataSource = data == null ? "the run file (no data)" : data.source();
+        if (spec.modelName() != null) {
+            ModelFactory factory = ModelCatalog.load().find(spec.modelName()).orElseThrow(() -> new RunFileException(
+                    where(spec, "model.name") + ": unknown model '" + spec.modelName() + "'; built-in models: "
+                            + names() + suggestion(spec.modelName())));
+            checkModelKeys(spec, factory);
+        }
+        RunModelSource source = new RunModelSource(spec.modelName(), spec.modelClass(), spec.modelSettings(), columns,
+                dataSource);
         Model model;
         try {
-            if (spec.modelName() != null) {
-                ModelFactory factory = ModelCatalog.load().find(spec.modelName()).orElseThrow(() -> new RunFileException(
-                        where(spec, "model.name") + ": unknown model '" + spec.modelName() + "'; built-in models: "
-                                + names() + suggestion(spec.modelName())));
-                checkModelKeys(spec, factory);
-                model = factory.create(settings);
-            } else {
-                model = fromClass(spec, settings);
-            }
+            model = create(spec.modelName(), spec.modelClass(),
+                    ConfigModelSettings.of(spec.modelSettings(), columns, dataSource), where(spec, "model"));
         } catch (IllegalArgumentException e) {
             throw new RunFileException("model " + spec.modelLabel() + ": " + e.getMessage(), e);
         }
+        return new Built(model, data, source);
+    }
+
+    /** Creates the model from a built-in name or a class name; the same code runs on executors. */
+    static Model create(String modelName, String modelClass, ModelSettings settings, String where) {
+        Model model = modelName != null ? ModelCatalog.load().get(modelName).create(settings)
+                : fromClass(modelClass, settings, where);
         if (model == null) {
-            throw new RunFileException("model " + spec.modelLabel() + ": the factory returned no model");
+            throw new RunFileException("model " + (modelName != null ? modelName : modelClass)
+                    + ": the factory returned no model");
         }
-        return new Built(model, data);
+        return model;
     }
 
     private static String where(RunSpec spec, String key) {
@@ -177,12 +188,12 @@ public final class ModelBuilder {
         }
     }
 
-    private static Model fromClass(RunSpec spec, ModelSettings settings) {
+    private static Model fromClass(String className, ModelSettings settings, String where) {
         Class<?> type;
         try {
-            type = Class.forName(spec.modelClass(), true, Thread.currentThread().getContextClassLoader());
+            type = Class.forName(className, true, Thread.currentThread().getContextClassLoader());
         } catch (ClassNotFoundException | LinkageError e) {
-            throw new RunFileException(where(spec, "model.class") + ": model class '" + spec.modelClass()
+            throw new RunFileException(where + ": model class '" + className
                     + "' not found on the classpath (add its jar with the launcher's --classpath or CLASSPATH)");
         }
         try {
@@ -199,18 +210,18 @@ public final class ModelBuilder {
                 }
             }
         } catch (NoSuchMethodException e) {
-            throw new RunFileException(where(spec, "model.class") + ": " + spec.modelClass()
+            throw new RunFileException(where + ": " + className
                     + " needs a public constructor taking ModelSettings, or none");
         } catch (InvocationTargetException e) {
             Throwable cause = e.getCause();
             if (cause instanceof IllegalArgumentException) {
                 throw (IllegalArgumentException) cause;
             }
-            throw new RunFileException("model class " + spec.modelClass() + " failed to start: " + cause, cause);
+            throw new RunFileException("model class " + className + " failed to start: " + cause, cause);
         } catch (ReflectiveOperationException e) {
-            throw new RunFileException("model class " + spec.modelClass() + " cannot be created: " + e, e);
+            throw new RunFileException("model class " + className + " cannot be created: " + e, e);
         }
-        throw new RunFileException(where(spec, "model.class") + ": " + spec.modelClass()
+        throw new RunFileException(where + ": " + className
                 + " is neither an org.skerry.engine.model.Model nor an org.skerry.engine.model.settings.ModelFactory");
     }
 }

@@ -26,7 +26,7 @@ import java.util.TreeSet;
 public final class RunFile {
 
     /** Sections whose keys are the user's own (model settings, role bindings, inline data). */
-    private static final List<String> FREE_FORM = List.of("model.settings", "data.columns", "data.inline");
+    private static final List<String> FREE_FORM = List.of("model.settings", "data.columns", "data.inline", "backend.spark");
 
     private final Path path;
     private final Config config;

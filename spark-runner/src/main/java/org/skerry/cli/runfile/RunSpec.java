@@ -33,6 +33,12 @@ public final class RunSpec {
     private final Config inlineData;
     private final Map<String, String> columnBindings;
     private final SamplerSettings sampler;
+    private final String backendKind;
+    private final String master;
+    private final int partitions;
+    private final Map<String, String> sparkSettings;
+    private final List<String> jars;
+    private final int connectTimeoutSeconds;
     private final int threads;
     private final int blockSize;
     private final Path outputFolder;
@@ -72,7 +78,26 @@ public final class RunSpec {
             columnBindings.put(entry.getKey(), (String) entry.getValue().unwrapped());
         }
         this.sampler = samplerSettings(r);
-        r.getChoice("backend.kind", List.of("threads"));
+        this.backendKind = r.getChoice("backend.kind", List.of("spark", "threads"));
+        this.master = r.getString("backend.master");
+        if (master == null || master.isBlank()) {
+            throw r.error("backend.master", "must name a Spark master, e.g. local[*] or spark://host:7077");
+        }
+        this.partitions = r.getInt("backend.partitions", 0, 1_000_000);
+        this.sparkSettings = new LinkedHashMap<>();
+        for (Map.Entry<String, ConfigValue> entry : objectAt(r, "backend.spark").entrySet()) {
+            String key = "backend.spark." + entry.getKey();
+            if (!entry.getKey().startsWith("\"spark.") && !entry.getKey().startsWith("spark.")) {
+                throw r.error(key, "Spark settings start with spark. (quote the key: \"spark.executor.memory\" = 2g)");
+            }
+            sparkSettings.put(entry.getKey().replace("\"", ""), String.valueOf(entry.getValue().unwrapped()));
+        }
+        try {
+            this.jars = List.copyOf(c.getStringList("backend.jars"));
+        } catch (ConfigException.WrongType e) {
+            throw r.error("backend.jars", "expected a list of jar paths");
+        }
+        this.connectTimeoutSeconds = r.getInt("backend.connect-timeout-seconds", 1, 3600);
         this.threads = r.getInt("backend.threads", 0, 4096);
         this.blockSize = r.getInt("backend.block-size", 0, Integer.MAX_VALUE);
         String folder = r.getString("output.folder");
@@ -178,6 +203,34 @@ public final class RunSpec {
 
     public SamplerSettings sampler() {
         return sampler;
+    }
+
+    /** "spark" or "threads". */
+    public String backendKind() {
+        return backendKind;
+    }
+
+    public String master() {
+        return master;
+    }
+
+    /** Partitions for the Spark backend; 0 for automatic. */
+    public int partitions() {
+        return partitions;
+    }
+
+    /** Extra {@code spark.*} settings. */
+    public Map<String, String> sparkSettings() {
+        return sparkSettings;
+    }
+
+    /** Extra jars for the executors. */
+    public List<String> jars() {
+        return jars;
+    }
+
+    public int connectTimeoutSeconds() {
+        return connectTimeoutSeconds;
     }
 
     public int threads() {

@@ -9,7 +9,7 @@ import java.util.concurrent.Future;
 import java.util.concurrent.ThreadFactory;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.Function;
-import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.population.Population;
 import org.skerry.engine.population.PopulationBackend;
 
@@ -61,10 +61,10 @@ public final class ThreadPoolBackend implements PopulationBackend {
     }
 
     @Override
-    public Population create(Model model, int particles, long seed) {
+    public Population create(ModelSource source, int particles, long seed) {
         int size = blockSize > 0 ? blockSize : Math.max(1, (particles + 4 * threads - 1) / (4 * threads));
         int blocks = (particles + size - 1) / size;
-        return new ThreadPopulation(this, model, particles, seed, blocks);
+        return new ThreadPopulation(this, source.create(), particles, seed, blocks);
     }
 
     /** Applies {@code task} to every item on the pool and returns the results in item order. */

@@ -1,0 +1,133 @@
+package org.skerry.cli;
+
+import java.io.IOException;
+import java.net.InetSocketAddress;
+import java.net.Socket;
+import java.net.URI;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.stream.Stream;
+import org.skerry.cli.runfile.RunFileException;
+import org.skerry.cli.runfile.RunSpec;
+import org.skerry.engine.population.PopulationBackend;
+import org.skerry.engine.population.threads.ThreadPoolBackend;
+import org.skerry.spark.SparkBackend;
+
+/**
+ * Opens the backend a run file asks for: a thread pool, or a Spark context (local mode, a
+ * standalone master, or whatever master Spark accepts). For a {@code spark://} master the
+ * address is tried first with a bounded timeout, so an unreachable master is reported at once
+ * instead of after Spark's own registration retries.
+ */
+final class Backends {
+
+    private Backends() {
+    }
+
+    /** An open backend and the scratch folder it writes into (removed on close). */
+    static final class Opened implements AutoCloseable {
+        final PopulationBackend backend;
+        private final Path scratch;
+
+        Opened(PopulationBackend backend, Path scratch) {
+            this.backend = backend;
+            this.scratch = scratch;
+        }
+
+        @Override
+        public void close() {
+            try {
+                backend.close();
+            } finally {
+                deleteQuietly(scratch);
+            }
+        }
+    }
+
+    static Opened open(RunSpec spec, Path runFolder) {
+        if (spec.backendKind().equals("threads")) {
+            int threads = spec.threads() == 0 ? Runtime.getRuntime().availableProcessors() : spec.threads();
+            return new Opened(new ThreadPoolBackend(threads, spec.blockSize()), null);
+        }
+        String master = spec.master();
+        if (master.startsWith("spark://")) {
+            checkReachable(master, spec.connectTimeoutSeconds());
+        }
+        Path scratch = runFolder.resolve(".spark-scratch");
+        Map<String, String> settings = new LinkedHashMap<>();
+        settings.put("spark.local.dir", scratch.toAbsolutePath().toString());
+        List<String> jars = new ArrayList<>(shippedJars());
+        jars.addAll(spec.jars());
+        if (!master.startsWith("local")) {
+            settings.put("spark.jars", String.join(",", jars));
+        }
+        settings.putAll(spec.sparkSettings());
+        try {
+            Files.createDirectories(scratch);
+            return new Opened(SparkBackend.start(master, "skerry " + spec.name(), spec.partitions(), settings), scratch);
+        } catch (IOException e) {
+            throw new RunFileException("cannot create Spark's scratch folder " + scratch + ": " + e, e);
+        } catch (RuntimeException e) {
+            deleteQuietly(scratch);
+            throw new RunFileException("cannot start Spark with master " + master + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** skerry's own jars, which executors need besides Spark's (found beside the runner jar). */
+    static List<String> shippedJars() {
+        List<String> jars = new ArrayList<>();
+        try {
+            Path runner = Path.of(Backends.class.getProtectionDomain().getCodeSource().getLocation().toURI());
+            if (Files.isRegularFile(runner)) {
+                jars.add(runner.toString());
+                Path lib = runner.getParent().resolve("lib");
+                if (Files.isDirectory(lib)) {
+                    try (Stream<Path> files = Files.list(lib)) {
+                        files.filter(f -> {
+                            String name = f.getFileName().toString();
+                            return name.startsWith("skerry-") || name.startsWith("commons-math3-")
+                                    || name.startsWith("config-");
+                        }).sorted().forEach(f -> jars.add(f.toString()));
+                    }
+                }
+            }
+        } catch (Exception e) {
+            // Running from classes (tests): executors in local mode share this JVM.
+        }
+        return jars;
+    }
+
+    private static void checkReachable(String master, int timeoutSeconds) {
+        for (String hostPort : master.substring("spark://".length()).split(",")) {
+            URI uri = URI.create("spark://" + hostPort);
+            int port = uri.getPort() < 0 ? 7077 : uri.getPort();
+            try (Socket socket = new Socket()) {
+                socket.connect(new InetSocketAddress(uri.getHost(), port), timeoutSeconds * 1000);
+                return;
+            } catch (IOException | IllegalArgumentException e) {
+                if (!master.contains(",")) {
+                    throw new RunFileException("cannot reach the Spark master " + master + " within " + timeoutSeconds
+                            + " s (" + e.getMessage() + "); is the cluster up? (deploy/loopback-cluster status; "
+                            + "backend.connect-timeout-seconds sets the wait)");
+                }
+            }
+        }
+        throw new RunFileException("cannot reach any of the Spark masters " + master + " within " + timeoutSeconds + " s");
+    }
+
+    private static void deleteQuietly(Path folder) {
+        if (folder == null || !Files.exists(folder)) {
+            return;
+        }
+        try (Stream<Path> paths = Files.walk(folder)) {
+            paths.sorted(Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+        } catch (IOException e) {
+            // leftovers in a hidden scratch folder are harmless
+        }
+    }
+}

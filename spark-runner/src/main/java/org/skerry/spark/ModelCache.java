@@ -1,0 +1,21 @@
+package org.skerry.spark;
+
+import java.util.concurrent.ConcurrentHashMap;
+import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ModelSource;
+
+/**
+ * Executor side: one model per model source and JVM, built on first use, so a costly model set-up
+ * (reading data, precomputing) happens once per executor, not once per task.
+ */
+final class ModelCache {
+
+    private static final ConcurrentHashMap<String, Model> MODELS = new ConcurrentHashMap<>();
+
+    private ModelCache() {
+    }
+
+    static Model get(ModelSource source) {
+        return MODELS.computeIfAbsent(source.id(), id -> source.create());
+    }
+}

@@ -1,0 +1,45 @@
+package org.skerry.spark;
+
+import com.esotericsoftware.kryo.Kryo;
+import org.apache.spark.serializer.KryoRegistrator;
+import org.skerry.engine.math.ExactSum;
+import org.skerry.engine.move.MoveKernel;
+import org.skerry.engine.move.Proposal;
+import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.EvaluationTally;
+import org.skerry.engine.population.MomentSums;
+import org.skerry.engine.population.MoveTally;
+import org.skerry.engine.resample.BlockResamplingPlan;
+import org.skerry.engine.resample.ResamplingScheme;
+import org.skerry.engine.resample.ResidualTotals;
+
+/**
+ * Registers every class of ours that Spark serialises with Kryo (cached partitions, shuffled runs
+ * of particles, collected reports), so {@code spark.kryo.registrationRequired=true} can catch an
+ * unregistered class instead of silently writing class names.
+ */
+public final class SkerryKryoRegistrator implements KryoRegistrator {
+
+    @Override
+    public void registerClasses(Kryo kryo) {
+        kryo.register(ParticleBlock.class, new ParticleBlockSerializer());
+        kryo.register(PartitionState.class);
+        kryo.register(EvaluationTally.class);
+        kryo.register(MoveTally.class);
+        kryo.register(MomentSums.class);
+        kryo.register(ExactSum.class);
+        kryo.register(ExactSum[].class);
+        kryo.register(Proposal.class);
+        kryo.register(MoveKernel.class);
+        kryo.register(ResamplingScheme.class);
+        kryo.register(BlockResamplingPlan.class);
+        kryo.register(ResidualTotals.class);
+        kryo.register(double[].class);
+        kryo.register(double[][].class);
+        kryo.register(long[].class);
+        kryo.register(long[][].class);
+        kryo.register(int[].class);
+        kryo.register(Object[].class);
+        kryo.register(ParticleBlock[].class);
+    }
+}

@@ -1,0 +1,314 @@
+package org.skerry.spark;
+
+import java.util.ArrayList;
+import java.util.Iterator;
+import java.util.List;
+import org.apache.spark.TaskContext;
+import org.apache.spark.api.java.JavaPairRDD;
+import org.apache.spark.api.java.JavaRDD;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.apache.spark.storage.StorageLevel;
+import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ModelSource;
+import org.skerry.engine.model.Prior;
+import org.skerry.engine.move.Proposal;
+import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.EvaluationTally;
+import org.skerry.engine.population.FinalParticles;
+import org.skerry.engine.population.MomentSums;
+import org.skerry.engine.population.MoveTally;
+import org.skerry.engine.population.Population;
+import org.skerry.engine.population.PopulationSnapshot;
+import org.skerry.engine.population.ResamplingReport;
+import org.skerry.engine.population.TemperingInputs;
+import org.skerry.engine.population.block.InitialDraw;
+import org.skerry.engine.population.block.LikelihoodEvaluator;
+import org.skerry.engine.population.block.MetropolisHastingsMover;
+import org.skerry.engine.population.block.MomentCollector;
+import org.skerry.engine.population.block.Reweighting;
+import org.skerry.engine.resample.BlockLayout;
+import org.skerry.engine.resample.BlockResamplingPlan;
+import org.skerry.engine.resample.OffspringCounter;
+import org.skerry.engine.resample.ParticleExpansion;
+import org.skerry.engine.resample.Redistribution;
+import org.skerry.engine.resample.ResamplingPlanner;
+import org.skerry.engine.resample.ResamplingScheme;
+import org.skerry.engine.resample.ResidualSplit;
+import org.skerry.engine.resample.ResidualTotals;
+import org.skerry.engine.resample.WeightQuantiser;
+import scala.Tuple2;
+
+/**
+ * A population held by Spark: a cached RDD with one {@link ParticleBlock} per partition, each a
+ * contiguous run of global indices. Every step maps the cached states to new ones with the
+ * engine's block-side code, caches the result, collects the per-block reports and drops the old
+ * states. Parameter vectors stay on the executors until {@link #export()}; the driver receives
+ * two scalars per particle for tempering and per-block sums otherwise.
+ */
+final class SparkPopulation implements Population {
+
+    private final JavaSparkContext context;
+    private final ModelSource source;
+    private final int size;
+    private final long seed;
+    private final int partitions;
+    private final int dimension;
+    private JavaRDD<PartitionState> states;
+
+    SparkPopulation(JavaSparkContext context, ModelSource source, int size, long seed, int partitions) {
+        this.context = context;
+        this.source = source;
+        this.size = size;
+        this.seed = seed;
+        this.partitions = partitions;
+        this.dimension = source.create().dimension();
+    }
+
+    @Override
+    public int size() {
+        return size;
+    }
+
+    /** Number of partitions (blocks). */
+    int partitions() {
+        return partitions;
+    }
+
+    /** Caches {@code next}, materialises it by collecting its reports, then drops the old states. */
+    private List<Object> commit(JavaRDD<PartitionState> next) {
+        next.persist(StorageLevel.MEMORY_ONLY());
+        List<Object> reports = next.map(state -> state.report).collect();
+        if (states != null) {
+            states.unpersist(false);
+        }
+        states = next;
+        return reports;
+    }
+
+    @Override
+    public EvaluationTally initialise(Prior proposal) {
+        if (proposal != null && !(proposal instanceof java.io.Serializable)) {
+            throw new IllegalArgumentException("a start proposal for the Spark backend must be Serializable: "
+                    + proposal.getClass().getName());
+        }
+        List<long[]> runs = new ArrayList<>(partitions);
+        long first = 0;
+        for (int p = 0; p < partitions; p++) {
+            int count = size / partitions + (p < size % partitions ? 1 : 0);
+            runs.add(new long[] {first, count});
+            first += count;
+        }
+        ModelSource modelSource = source;
+        long streamSeed = seed;
+        int d = dimension;
+        JavaRDD<PartitionState> next = context.parallelize(runs, partitions).map(run -> {
+            Model model = ModelCache.get(modelSource);
+            int count = (int) run[1];
+            ParticleBlock block = new ParticleBlock(d, count);
+            block.resize(count);
+            for (int i = 0; i < count; i++) {
+                block.index()[i] = run[0] + i;
+            }
+            EvaluationTally tally = InitialDraw.draw(block, proposal, new LikelihoodEvaluator(model, streamSeed),
+                    streamSeed);
+            return new PartitionState(block, tally);
+        });
+        EvaluationTally total = EvaluationTally.NONE;
+        for (Object report : commit(next)) {
+            total = total.plus((EvaluationTally) report);
+        }
+        return total;
+    }
+
+    @Override
+    public TemperingInputs temperingInputs() {
+        List<double[][]> parts = states.map(state -> new double[][] {
+            java.util.Arrays.copyOf(state.block.logWeight(), state.block.size()),
+            java.util.Arrays.copyOf(state.block.logLikelihood(), state.block.size())}).collect();
+        double[] logWeight = new double[size];
+        double[] logLikelihood = new double[size];
+        int offset = 0;
+        for (double[][] part : parts) {
+            System.arraycopy(part[0], 0, logWeight, offset, part[0].length);
+            System.arraycopy(part[1], 0, logLikelihood, offset, part[1].length);
+            offset += part[0].length;
+        }
+        return new TemperingInputs(logWeight, logLikelihood, size);
+    }
+
+    @Override
+    public void reweight(double fromTemperature, double toTemperature) {
+        commit(states.map(state -> {
+            ParticleBlock block = state.block.copy();
+            Reweighting.reweight(block, fromTemperature, toTemperature);
+            return new PartitionState(block, null);
+        }));
+    }
+
+    @Override
+    public ResamplingReport resample(ResamplingScheme scheme, double logTotal, int iteration) {
+        List<long[]> totals = states.map(state -> new long[] {
+            state.block.size() == 0 ? -1 : state.block.index()[0], state.block.size(),
+            WeightQuantiser.quantise(state.block.logWeight(), state.block.size(), logTotal,
+                    new long[state.block.size()])}).collect();
+        long[] first = new long[partitions];
+        int[] sizes = new int[partitions];
+        long[] weightTotals = new long[partitions];
+        long running = 0;
+        for (int p = 0; p < partitions; p++) {
+            long[] t = totals.get(p);
+            sizes[p] = (int) t[1];
+            first[p] = t[1] == 0 ? running : t[0];
+            weightTotals[p] = t[2];
+            running = first[p] + sizes[p];
+        }
+        BlockLayout layout = BlockLayout.of(first, sizes);
+        BlockResamplingPlan[] plans;
+        ResidualSplit split = null;
+        if (scheme == ResamplingScheme.RESIDUAL) {
+            split = ResamplingPlanner.residualSplit(layout, weightTotals);
+            ResidualSplit residual = split;
+            List<ResidualTotals> parts = states.map(state -> {
+                long[] q = new long[state.block.size()];
+                WeightQuantiser.quantise(state.block.logWeight(), state.block.size(), logTotal, q);
+                return OffspringCounter.splitResidual(residual, q, state.block.size(), new int[state.block.size()]);
+            }).collect();
+            plans = ResamplingPlanner.planResidual(seed, iteration, layout, split, parts.toArray(new ResidualTotals[0]));
+        } else {
+            plans = ResamplingPlanner.plan(scheme, seed, iteration, layout, weightTotals);
+        }
+        BlockResamplingPlan[] sentPlans = plans;
+        ResidualSplit sentSplit = split;
+        JavaRDD<PartitionState> expanded = states.mapPartitionsWithIndex((p, iterator) -> {
+            PartitionState state = iterator.next();
+            ParticleBlock block = state.block;
+            long[] q = new long[block.size()];
+            WeightQuantiser.quantise(block.logWeight(), block.size(), logTotal, q);
+            int[] offspring = new int[block.size()];
+            if (sentSplit != null) {
+                OffspringCounter.splitResidual(sentSplit, q, block.size(), offspring);
+            }
+            OffspringCounter.count(sentPlans[p], q, block.size(), offspring);
+            long distinct = ParticleExpansion.distinctAncestors(offspring, block.size());
+            ParticleBlock children = ParticleExpansion.expand(block, offspring, sentPlans[p].firstNewIndex());
+            return List.of(new PartitionState(children, distinct)).iterator();
+        }, true);
+        long distinct = 0;
+        for (Object report : commit(expanded)) {
+            distinct += (Long) report;
+        }
+        Redistribution redistribution = Redistribution.plan(ResamplingPlanner.expandedLayout(plans));
+        redistribute(redistribution);
+        return new ResamplingReport(distinct, redistribution.movedCount());
+    }
+
+    /** Moves only the runs the plan names; each partition keeps the part of its run it will hold. */
+    private void redistribute(Redistribution plan) {
+        if (plan.transferCount() == 0) {
+            return;
+        }
+        JavaRDD<Tuple2<Integer, ParticleBlock>> outgoing = states.mapPartitionsWithIndex((p, iterator) -> {
+            ParticleBlock block = iterator.next().block;
+            List<Tuple2<Integer, ParticleBlock>> runs = new ArrayList<>();
+            for (int t = 0; t < plan.transferCount(); t++) {
+                if (plan.fromBlock(t) == p) {
+                    int from = (int) (plan.runFirstIndex(t) - block.index()[0]);
+                    runs.add(new Tuple2<>(plan.toBlock(t), BlockSlices.slice(block, from, plan.runCount(t))));
+                }
+            }
+            return runs.iterator();
+        }, true);
+        JavaRDD<ParticleBlock> incoming = JavaPairRDD.fromJavaRDD(outgoing).partitionBy(new BlockPartitioner(partitions))
+                .values();
+        int d = dimension;
+        JavaRDD<PartitionState> balanced = states.zipPartitions(incoming,
+                (Iterator<PartitionState> own, Iterator<ParticleBlock> arriving) -> {
+                    int p = TaskContext.getPartitionId();
+                    ParticleBlock block = own.next().block;
+                    long targetFirst = plan.targetFirstIndex(p);
+                    long targetEnd = targetFirst + plan.targetSize(p);
+                    List<ParticleBlock> pieces = new ArrayList<>();
+                    if (block.size() > 0) {
+                        long keepFirst = Math.max(targetFirst, block.index()[0]);
+                        long keepEnd = Math.min(targetEnd, block.index()[0] + block.size());
+                        if (keepEnd > keepFirst) {
+                            pieces.add(BlockSlices.slice(block, (int) (keepFirst - block.index()[0]),
+                                    (int) (keepEnd - keepFirst)));
+                        }
+                    }
+                    arriving.forEachRemaining(pieces::add);
+                    return List.of(new PartitionState(BlockSlices.join(d, pieces), null)).iterator();
+                });
+        commit(balanced);
+    }
+
+    @Override
+    public MomentSums moments(double logTotal) {
+        ModelSource modelSource = source;
+        List<MomentSums> parts = states.map(state -> MomentCollector.collect(state.block,
+                ModelCache.get(modelSource).parameters(), logTotal)).collect();
+        MomentSums total = new MomentSums(dimension);
+        parts.forEach(total::merge);
+        return total;
+    }
+
+    @Override
+    public MoveTally move(Proposal proposal, double temperature, int iteration, int firstStep, int steps) {
+        ModelSource modelSource = source;
+        long streamSeed = seed;
+        List<Object> reports = commit(states.map(state -> {
+            ParticleBlock block = state.block.copy();
+            MoveTally tally = MetropolisHastingsMover.move(block, proposal, temperature, iteration, firstStep, steps,
+                    new LikelihoodEvaluator(ModelCache.get(modelSource), streamSeed), streamSeed);
+            return new PartitionState(block, tally);
+        }));
+        MoveTally total = MoveTally.NONE;
+        for (Object report : reports) {
+            total = total.plus((MoveTally) report);
+        }
+        return total;
+    }
+
+    @Override
+    public FinalParticles export() {
+        double[] values = new double[size * dimension];
+        double[] logWeight = new double[size];
+        double[] logLikelihood = new double[size];
+        long[] index = new long[size];
+        long[] eve = new long[size];
+        for (ParticleBlock block : states.map(state -> state.block).collect()) {
+            for (int i = 0; i < block.size(); i++) {
+                int at = (int) block.index()[i];
+                System.arraycopy(block.values(), i * dimension, values, at * dimension, dimension);
+                logWeight[at] = block.logWeight()[i];
+                logLikelihood[at] = block.logLikelihood()[i];
+                index[at] = block.index()[i];
+                eve[at] = block.eve()[i];
+            }
+        }
+        return new FinalParticles(dimension, size, values, logWeight, logLikelihood, index, eve);
+    }
+
+    @Override
+    public PopulationSnapshot snapshot() {
+        return new PopulationSnapshot(states.map(state -> state.block).collect());
+    }
+
+    @Override
+    public void restore(PopulationSnapshot snapshot) {
+        List<ParticleBlock> blocks = snapshot.blocks();
+        if (snapshot.size() != size || blocks.size() != partitions) {
+            throw new IllegalArgumentException("snapshot holds " + snapshot.size() + " particles in " + blocks.size()
+                    + " blocks; population has " + size + " in " + partitions);
+        }
+        commit(context.parallelize(blocks, partitions).map(block -> new PartitionState(block, null)));
+    }
+
+    @Override
+    public void close() {
+        if (states != null) {
+            states.unpersist(false);
+            states = null;
+        }
+    }
+}
