@@ -40,6 +40,17 @@ public enum GrazingResponse {
     }
 
     /**
+     * {@code G(P)/P}, written so that it stays finite as {@code p} goes to 0: {@code gMax/(kP + p)}
+     * or {@code gMax·p/(kP² + p²)}.
+     */
+    public double ratePerPrey(double gMax, double kP, double p) {
+        if (this == SATURATING) {
+            return gMax / (kP + p);
+        }
+        return gMax * p / (kP * kP + p * p);
+    }
+
+    /**
      * The response named {@code name} (case-insensitive).
      *
      * @throws IllegalArgumentException naming the value and the known names

@@ -4,8 +4,8 @@ import org.apache.commons.math3.ode.FirstOrderDifferentialEquations;
 
 /**
  * The right-hand side of a nutrient–phytoplankton–zooplankton model in the form of Franks,
- * Wroblewski &amp; Flierl (1986), Marine Biology 91, 121–129, with state {@code (N, P, Z)} in
- * mmol N m⁻³ and time in days:
+ * Wroblewski &amp; Flierl (1986), Marine Biology 91, 121–129, with N, P, Z in mmol N m⁻³ and
+ * time in days:
  * <pre>
  *   dN/dt = −μ·N/(k_N + N)·P + (1 − γ)·G(P)·Z + m_P·P + m_Z·Z
  *   dP/dt =  μ·N/(k_N + N)·P − G(P)·Z − m_P·P
@@ -13,7 +13,18 @@ import org.apache.commons.math3.ode.FirstOrderDifferentialEquations;
  * </pre>
  * Nutrient uptake is Monod's (1949, Annual Review of Microbiology 3, 371–394); the grazing
  * response {@code G} is a {@link GrazingResponse}. Every loss returns to the nutrient pool, so
- * {@code N + P + Z} is conserved. Immutable.
+ * {@code N + P + Z} is conserved.
+ *
+ * <p>The integrated state is {@code (N, ln P, ln Z)}:
+ * <pre>
+ *   d ln P/dt = μ·N/(k_N + N) − (G(P)/P)·Z − m_P
+ *   d ln Z/dt = γ·G(P) − m_Z
+ * </pre>
+ * P and Z then stay positive by construction and the error control acts on their relative
+ * error, which is what a log-normal likelihood needs. In (N, P, Z) a grazed-out phytoplankton
+ * stock falls below the absolute tolerance, may cross zero, and then grows as a negative bloom
+ * towards the pole of G at P = −k_P. Uptake is evaluated at {@code max(N, 0)}, which leaves the
+ * solution unchanged (it keeps N positive) and keeps trial stages finite. Immutable.
  */
 public final class NpzEquations implements FirstOrderDifferentialEquations {
 
@@ -60,17 +71,26 @@ public final class NpzEquations implements FirstOrderDifferentialEquations {
     @Override
     public void computeDerivatives(double t, double[] y, double[] yDot) {
         double n = y[0];
-        double p = y[1];
-        double z = y[2];
-        double uptake = maxGrowth * n / (nutrientHalfSaturation + n) * p;
-        double grazed = grazing.rate(maxGrazing, grazingHalfSaturation, p) * z;
-        double phytoplanktonDeath = phytoplanktonMortality * p;
-        double zooplanktonDeath = zooplanktonMortality * z;
-        // Each flux is written out in every equation it enters (rather than dN = −dP − dZ), so
+        double p = StrictMath.exp(y[1]);
+        double z = StrictMath.exp(y[2]);
+        // The solution keeps N > 0, but a trial stage of a long step may not, and Monod uptake has a
+        // pole at N = −k_N. Without the clamp such a stage returns NaN, and Commons Math accepts
+        // a step whose error estimate is NaN; with it the estimate is large and the step is cut.
+        double available = n > 0.0 ? n : 0.0;
+        double growth = maxGrowth * available / (nutrientHalfSaturation + available);
+        double grazingRate = grazing.rate(maxGrazing, grazingHalfSaturation, p);
+        double grazingPerP = grazing.ratePerPrey(maxGrazing, grazingHalfSaturation, p);
+        // Each flux is written out in the equation it enters (rather than dN = −dP − dZ), so
         // that the conservation test checks the bookkeeping instead of assuming it.
-        yDot[0] = -uptake + (1.0 - assimilation) * grazed + phytoplanktonDeath + zooplanktonDeath;
-        yDot[1] = uptake - grazed - phytoplanktonDeath;
-        yDot[2] = assimilation * grazed - zooplanktonDeath;
+        yDot[0] = -growth * p + (1.0 - assimilation) * grazingRate * z + phytoplanktonMortality * p
+                + zooplanktonMortality * z;
+        yDot[1] = growth - grazingPerP * z - phytoplanktonMortality;
+        yDot[2] = assimilation * grazingRate - zooplanktonMortality;
+    }
+
+    /** The integrated state {@code (N, ln P, ln Z)} of a state {@code (N, P, Z)}; P and Z must be positive. */
+    public static double[] toIntegrated(double nutrient, double phytoplankton, double zooplankton) {
+        return new double[] {nutrient, StrictMath.log(phytoplankton), StrictMath.log(zooplankton)};
     }
 
     @Override

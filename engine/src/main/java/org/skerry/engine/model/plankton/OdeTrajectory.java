@@ -13,70 +13,79 @@ import org.apache.commons.math3.ode.sampling.StepInterpolator;
  * {@link DormandPrince853Integrator}. The outputs are read from the method's 7th-order dense
  * output inside the step that covers each time, so output times never shorten the steps.
  *
+ * <p>A step is accepted when a root-mean-square norm over components of the local error
+ * estimates scaled by {@code atol_i + rtol_i·|y_i|} is at most 1 (Commons Math's control, after
+ * Hairer, Nørsett &amp; Wanner §II.4 and §II.10). Minimum and maximum step are left open (0 and
+ * the whole span); a runaway solve is stopped by the evaluation cap instead.
+ *
  * <p>Commons Math integrators are pure Java (its {@code FastMath}) and therefore give the same
  * numbers on every Java 17 JVM. They are also stateful, so each {@link #solve} builds its own:
  * this class is immutable and may be shared between threads.
  */
 public final class OdeTrajectory {
 
-    /**
-     * Relative tolerance of {@link #standard()}. On the Lake Quellmar seasons it keeps the global
-     * relative error of P near 1e-7 (measured against a solve at 1e-13), which moves a
-     * log-likelihood with σ ≈ 0.2 by about 1e-5: far below the sampler's Monte Carlo error.
-     */
-    public static final double RELATIVE_TOLERANCE = 1e-8;
-    /**
-     * Absolute tolerance of {@link #standard()}, in mmol N m⁻³: small against the
-     * phytoplankton troughs (about 0.03) so that those are still resolved in relative terms.
-     */
-    public static final double ABSOLUTE_TOLERANCE = 1e-10;
-    /**
-     * Right-hand-side evaluations {@link #standard()} allows one solve before giving up (a
-     * season takes a few thousand); bounds the cost of a pathological parameter vector.
-     */
-    public static final int MAX_EVALUATIONS = 100_000;
-
-    private static final OdeTrajectory STANDARD =
-            new OdeTrajectory(ABSOLUTE_TOLERANCE, RELATIVE_TOLERANCE, MAX_EVALUATIONS);
-
-    private final double absoluteTolerance;
-    private final double relativeTolerance;
+    private final double[] absoluteTolerances;
+    private final double[] relativeTolerances;
     private final int maxEvaluations;
 
-    private OdeTrajectory(double absoluteTolerance, double relativeTolerance, int maxEvaluations) {
-        this.absoluteTolerance = absoluteTolerance;
-        this.relativeTolerance = relativeTolerance;
+    private OdeTrajectory(double[] absoluteTolerances, double[] relativeTolerances, int maxEvaluations) {
+        this.absoluteTolerances = absoluteTolerances;
+        this.relativeTolerances = relativeTolerances;
         this.maxEvaluations = maxEvaluations;
     }
 
-    /** The configuration {@link PlanktonModel} solves with. */
-    public static OdeTrajectory standard() {
-        return STANDARD;
+    /**
+     * A solver whose error control keeps the local error of every component {@code y_i} within
+     * about {@code absoluteTolerance + relativeTolerance·|y_i|}, for systems of any size.
+     *
+     * @throws IllegalArgumentException if a tolerance is negative or not finite, both are zero,
+     *     or {@code maxEvaluations < 1}
+     */
+    public static OdeTrajectory of(double absoluteTolerance, double relativeTolerance, int maxEvaluations) {
+        return of(new double[] {absoluteTolerance}, new double[] {relativeTolerance}, maxEvaluations);
     }
 
     /**
-     * @throws IllegalArgumentException if a tolerance is not finite and positive or
-     *     {@code maxEvaluations < 1}
+     * A solver for systems of {@code absoluteTolerances.length} equations whose error control keeps
+     * the local error of component {@code y_i} within about
+     * {@code absoluteTolerances[i] + relativeTolerances[i]·|y_i|}.
+     *
+     * @throws IllegalArgumentException if the arrays differ in length or are empty, a tolerance is
+     *     negative or not finite, both tolerances of a component are zero, or {@code maxEvaluations < 1}
      */
-    public static OdeTrajectory of(double absoluteTolerance, double relativeTolerance, int maxEvaluations) {
-        if (!(absoluteTolerance > 0 && absoluteTolerance < Double.POSITIVE_INFINITY)) {
-            throw new IllegalArgumentException("absoluteTolerance must be finite and > 0, was " + absoluteTolerance);
+    public static OdeTrajectory of(double[] absoluteTolerances, double[] relativeTolerances, int maxEvaluations) {
+        if (absoluteTolerances.length == 0 || absoluteTolerances.length != relativeTolerances.length) {
+            throw new IllegalArgumentException("absoluteTolerances (" + absoluteTolerances.length
+                    + ") and relativeTolerances (" + relativeTolerances.length + ") must be non-empty and of one length");
         }
-        if (!(relativeTolerance > 0 && relativeTolerance < Double.POSITIVE_INFINITY)) {
-            throw new IllegalArgumentException("relativeTolerance must be finite and > 0, was " + relativeTolerance);
+        for (int i = 0; i < absoluteTolerances.length; i++) {
+            double a = absoluteTolerances[i];
+            double r = relativeTolerances[i];
+            if (!(a >= 0 && a < Double.POSITIVE_INFINITY)) {
+                throw new IllegalArgumentException("absoluteTolerance[" + i + "] must be finite and >= 0, was " + a);
+            }
+            if (!(r >= 0 && r < Double.POSITIVE_INFINITY)) {
+                throw new IllegalArgumentException("relativeTolerance[" + i + "] must be finite and >= 0, was " + r);
+            }
+            if (a == 0 && r == 0) {
+                throw new IllegalArgumentException("absoluteTolerance[" + i + "] and relativeTolerance[" + i
+                        + "] must not both be 0");
+            }
         }
         if (maxEvaluations < 1) {
             throw new IllegalArgumentException("maxEvaluations must be >= 1, was " + maxEvaluations);
         }
-        return new OdeTrajectory(absoluteTolerance, relativeTolerance, maxEvaluations);
+        return new OdeTrajectory(absoluteTolerances.clone(), relativeTolerances.clone(), maxEvaluations);
     }
 
-    public double absoluteTolerance() {
-        return absoluteTolerance;
+    /** The absolute tolerance of component {@code i} (the one tolerance of a size-free solver for every i). */
+    public double absoluteTolerance(int i) {
+        return absoluteTolerances[absoluteTolerances.length == 1 ? 0 : i];
     }
 
-    public double relativeTolerance() {
-        return relativeTolerance;
+    /** The relative tolerance of component {@code i} (the one tolerance of a size-free solver for every i). */
+    public double relativeTolerance(int i) {
+        return relativeTolerances[relativeTolerances.length == 1 ? 0 : i];
     }
 
     public int maxEvaluations() {
@@ -97,6 +106,10 @@ public final class OdeTrajectory {
      */
     public double[][] solve(FirstOrderDifferentialEquations ode, double t0, double[] y0, double[] times) {
         int dimension = ode.getDimension();
+        if (absoluteTolerances.length != 1 && absoluteTolerances.length != dimension) {
+            throw new IllegalArgumentException("this solver's tolerances are for " + absoluteTolerances.length
+                    + " equations but the system has " + dimension);
+        }
         if (y0.length != dimension) {
             throw new IllegalArgumentException("initial state has " + y0.length + " values but the system has "
                     + dimension + " equations");
@@ -109,8 +122,9 @@ public final class OdeTrajectory {
         }
         if (next < times.length) {
             double end = times[times.length - 1];
-            DormandPrince853Integrator integrator = new DormandPrince853Integrator(
-                    0.0, end - t0, absoluteTolerance, relativeTolerance);
+            DormandPrince853Integrator integrator = absoluteTolerances.length == 1
+                    ? new DormandPrince853Integrator(0.0, end - t0, absoluteTolerances[0], relativeTolerances[0])
+                    : new DormandPrince853Integrator(0.0, end - t0, absoluteTolerances, relativeTolerances);
             integrator.setMaxEvaluations(maxEvaluations);
             integrator.addStepHandler(new Recorder(times, next, out));
             integrator.integrate(ode, t0, y0.clone(), end, new double[dimension]);
@@ -147,8 +161,8 @@ public final class OdeTrajectory {
 
     @Override
     public String toString() {
-        return "dormand-prince-853(absTol=" + absoluteTolerance + ", relTol=" + relativeTolerance
-                + ", maxEvaluations=" + maxEvaluations + ")";
+        return "dormand-prince-853(absTol=" + Arrays.toString(absoluteTolerances) + ", relTol="
+                + Arrays.toString(relativeTolerances) + ", maxEvaluations=" + maxEvaluations + ")";
     }
 
     /** Copies the dense output at each pending output time the current step has reached. */

@@ -10,7 +10,8 @@ package org.skerry.engine.model.plankton;
  * @param zooplanktonMortality   m_Z, d⁻¹, finite and {@code >= 0}
  * @param initialNutrient        N₀, mmol N m⁻³, finite and {@code >= 0}
  * @param initialPhytoplankton   P₀, mmol N m⁻³, finite and {@code > 0}
- * @param initialZooplankton     Z₀, mmol N m⁻³, finite and {@code >= 0}
+ * @param initialZooplankton     Z₀, mmol N m⁻³, finite and {@code > 0} (the equations are
+ *                               integrated in ln Z)
  * @param chlorophyllPerNitrogen mg chlorophyll-a per mmol N of phytoplankton, finite and {@code > 0}
  * @param initialDay             the day the initial state holds, finite
  */
@@ -51,7 +52,10 @@ public record PlanktonConstants(double assimilation, double zooplanktonMortality
             throw new IllegalArgumentException("initial.phytoplankton must be finite and > 0, was "
                     + initialPhytoplankton);
         }
-        requireNonNegative("initial.zooplankton", initialZooplankton);
+        if (!(initialZooplankton > 0.0 && initialZooplankton < Double.POSITIVE_INFINITY)) {
+            throw new IllegalArgumentException("initial.zooplankton must be finite and > 0, was "
+                    + initialZooplankton);
+        }
         if (!(chlorophyllPerNitrogen > 0.0 && chlorophyllPerNitrogen < Double.POSITIVE_INFINITY)) {
             throw new IllegalArgumentException("chlorophyll-per-nitrogen must be finite and > 0, was "
                     + chlorophyllPerNitrogen);

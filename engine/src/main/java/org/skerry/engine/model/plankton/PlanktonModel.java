@@ -21,10 +21,10 @@ import org.skerry.engine.model.prior.UnivariateDistribution;
  * <p>Observations are log-normal: {@code log y_j ~ N(log(ratio·P(t_j)), σ²)}. The log-likelihood
  * keeps every constant, the {@code 1/y} Jacobian included, so that the evidence of the two
  * {@link GrazingResponse} variants can be compared. Each evaluation is one
- * {@link OdeTrajectory#standard()} solve. Failures: an exception from the solver (too many steps,
- * a non-finite state) propagates, and a phytoplankton value that is not finite and positive at an
- * observation day (only reachable through integration error after a collapse) returns NaN;
- * the sampler counts both as invalid evaluations. Immutable and thread-safe.
+ * {@link PlanktonDynamics#SOLVER} solve in {@code (N, ln P, ln Z)}, so ln P is read off
+ * directly and P cannot reach zero. A failed solve (more steps than the solver allows, a
+ * non-finite state) throws, and the sampler counts the exception as an invalid evaluation with
+ * its message as the reason. Immutable and thread-safe.
  */
 public final class PlanktonModel implements Model {
 
@@ -151,14 +151,10 @@ public final class PlanktonModel implements Model {
     @Override
     public double logLikelihood(double[] theta, LikelihoodContext context) {
         double sigma = theta[SIGMA];
-        double[][] states = dynamics.states(theta);
+        double[][] states = dynamics.integratedStates(theta);
         double squares = 0.0;
         for (int j = 0; j < states.length; j++) {
-            double p = states[j][1];
-            if (!(p > 0.0 && p < Double.POSITIVE_INFINITY)) {
-                return Double.NaN;
-            }
-            double residual = logChlorophyll[j] - logRatio - StrictMath.log(p);
+            double residual = logChlorophyll[j] - logRatio - states[j][1];
             squares += residual * residual;
         }
         return logConstant - states.length * StrictMath.log(sigma) - 0.5 * squares / (sigma * sigma);

@@ -11,15 +11,17 @@ import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 
 /**
- * The integration core against closed-form solutions. The bound on the relative error, 1e-6, is
- * a hundred times the standard configuration's per-step relative tolerance of 1e-8: the global
- * error of a method run with local error control stays within a modest multiple of the tolerance
- * on problems that do not amplify errors (Hairer, Nørsett &amp; Wanner, Solving ODEs I, §II.4
- * and §II.10; the factor 100 is common practice, not a theorem).
+ * The integration core against closed-form solutions. Each bound is a hundred times the local
+ * tolerance, {@code 100·(atol + rtol·|y|)}: the global error of a method run with local error
+ * control stays within a modest multiple of the tolerance on problems that do not amplify errors
+ * (Hairer, Nørsett &amp; Wanner, Solving ODEs I, §II.4 and §II.10; the factor 100 is common
+ * practice, not a theorem). With 1e-8 relative that is 1e-6 relative.
  */
 class OdeTrajectoryTest {
 
     private static final double BOUND = 1e-6;
+    /** Scalar tolerances equal to those {@link PlanktonDynamics#SOLVER} gives the nutrient. */
+    private static final OdeTrajectory SCALAR = OdeTrajectory.of(1e-10, 1e-8, 100_000);
 
     private static final class Logistic implements FirstOrderDifferentialEquations {
         final double rate;
@@ -53,12 +55,48 @@ class OdeTrajectoryTest {
         double[] days = QuellmarScenario.seasonDays(QuellmarScenario.FULL_SEASON);
         for (double rate : new double[] {0.3, 1.2}) {
             Logistic ode = new Logistic(rate, 10.0);
-            double[][] states = OdeTrajectory.standard().solve(ode, 0.0, new double[] {0.01}, days);
+            double[][] states = SCALAR.solve(ode, 0.0, new double[] {0.01}, days);
             for (int j = 0; j < days.length; j++) {
                 double exact = ode.exact(0.01, days[j]);
                 assertEquals(exact, states[j][0], BOUND * exact, "rate " + rate + ", day " + days[j]);
             }
         }
+    }
+
+    @Test
+    @DisplayName("the plankton solver itself: logistic growth in N and in ln N matches Verhulst's closed form")
+    void planktonSolverOnLogisticGrowth() {
+        // Three uncoupled logistic equations in the plankton state's layout: component 0 as N,
+        // components 1 and 2 as u = ln N, du/dt = r (1 - e^u / K). Same closed form for each.
+        Logistic nutrientLike = new Logistic(0.3, 10.0);
+        Logistic fast = new Logistic(1.2, 6.0);
+        Logistic slow = new Logistic(0.15, 2.0);
+        FirstOrderDifferentialEquations ode = new FirstOrderDifferentialEquations() {
+            @Override
+            public int getDimension() {
+                return 3;
+            }
+
+            @Override
+            public void computeDerivatives(double t, double[] y, double[] yDot) {
+                yDot[0] = nutrientLike.rate * y[0] * (1.0 - y[0] / nutrientLike.capacity);
+                yDot[1] = fast.rate * (1.0 - StrictMath.exp(y[1]) / fast.capacity);
+                yDot[2] = slow.rate * (1.0 - StrictMath.exp(y[2]) / slow.capacity);
+            }
+        };
+        double[] days = QuellmarScenario.seasonDays(QuellmarScenario.FULL_SEASON);
+        double[][] states = PlanktonDynamics.SOLVER.solve(ode, 0.0,
+                new double[] {0.01, StrictMath.log(0.001), StrictMath.log(0.05)}, days);
+        for (int j = 0; j < days.length; j++) {
+            double n = nutrientLike.exact(0.01, days[j]);
+            assertEquals(n, states[j][0], BOUND * n, "N at day " + days[j]);
+            // ln N has tolerance 1e-8 absolute, so 1e-6 on ln N, which is 1e-6 relative on N.
+            assertEquals(StrictMath.log(fast.exact(0.001, days[j])), states[j][1], BOUND, "ln N (fast) at day " + days[j]);
+            assertEquals(StrictMath.log(slow.exact(0.05, days[j])), states[j][2], BOUND, "ln N (slow) at day " + days[j]);
+        }
+        IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+                () -> PlanktonDynamics.SOLVER.solve(nutrientLike, 0.0, new double[] {1.0}, days));
+        assertTrue(e.getMessage().contains("for 3 equations"), e.getMessage());
     }
 
     @Test
@@ -68,7 +106,7 @@ class OdeTrajectoryTest {
         double t0 = 12.5;
         double[] times = {12.5, 12.6, 13.0, 15.25, 20.0, 31.7, 58.0};
         double[] y0 = {0.2};
-        double[][] states = OdeTrajectory.standard().solve(ode, t0, y0, times);
+        double[][] states = SCALAR.solve(ode, t0, y0, times);
         assertArrayEquals(y0, states[0], 0.0, "the state at t0 is the initial state");
         for (int j = 1; j < times.length; j++) {
             double exact = ode.exact(0.2, times[j] - t0);
@@ -97,7 +135,7 @@ class OdeTrajectoryTest {
         for (int j = 0; j < times.length; j++) {
             times[j] = 5.0 * j + 0.3;
         }
-        double[][] states = OdeTrajectory.standard().solve(ode, 0.0, new double[] {1.0, 0.0}, times);
+        double[][] states = SCALAR.solve(ode, 0.0, new double[] {1.0, 0.0}, times);
         for (int j = 0; j < times.length; j++) {
             // Closed form: y = cos(wt), y' = -w sin(wt). Errors of an oscillation grow linearly in
             // time rather than being damped, so this bound is absolute on a unit amplitude.
@@ -110,7 +148,7 @@ class OdeTrajectoryTest {
     @DisplayName("bad output times are refused naming the index and value; the evaluation cap throws")
     void failures() {
         Logistic ode = new Logistic(0.3, 10.0);
-        OdeTrajectory solver = OdeTrajectory.standard();
+        OdeTrajectory solver = SCALAR;
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
                 () -> solver.solve(ode, 0.0, new double[] {1.0}, new double[] {0.0, 7.0, 7.0}));
         assertTrue(e.getMessage().contains("times[2] was 7.0"), e.getMessage());
@@ -122,7 +160,9 @@ class OdeTrajectoryTest {
         assertTrue(e.getMessage().contains("2 values"), e.getMessage());
         assertThrows(MaxCountExceededException.class,
                 () -> OdeTrajectory.of(1e-10, 1e-8, 50).solve(ode, 0.0, new double[] {1.0}, new double[] {175.0}));
-        e = assertThrows(IllegalArgumentException.class, () -> OdeTrajectory.of(0.0, 1e-8, 10));
-        assertTrue(e.getMessage().contains("absoluteTolerance"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> OdeTrajectory.of(-1.0, 1e-8, 10));
+        assertTrue(e.getMessage().contains("absoluteTolerance[0]") && e.getMessage().contains("-1.0"), e.getMessage());
+        e = assertThrows(IllegalArgumentException.class, () -> OdeTrajectory.of(0.0, 0.0, 10));
+        assertTrue(e.getMessage().contains("both be 0"), e.getMessage());
     }
 }
