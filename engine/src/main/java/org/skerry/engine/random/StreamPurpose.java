@@ -16,6 +16,8 @@ public enum StreamPurpose {
     MOVE_ACCEPT(4),
     /** Handed to a stochastic simulator when it evaluates a likelihood. */
     SIMULATOR(5),
+    /** Generating synthetic data sets (the demo's generator); never used by the sampler. */
+    DATA_GENERATION(6),
     /** Free for tests and benchmarks; never used by the sampler. */
     TESTING(255);
 

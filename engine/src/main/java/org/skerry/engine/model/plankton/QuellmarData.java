@@ -32,7 +32,7 @@ public final class QuellmarData {
      */
     public static double[][] generate(QuellmarBuoy buoy, long seed, int observations) {
         PlanktonDynamics dynamics = QuellmarScenario.dynamics(buoy, observations);
-        RandomStream noise = new RandomStream(seed, StreamPurpose.SIMULATOR, 0, buoy.number());
+        RandomStream noise = new RandomStream(seed, StreamPurpose.DATA_GENERATION, 0, buoy.number());
         double[] chlorophyll = simulate(dynamics, buoy.trueParameters(), noise);
         double[] days = dynamics.days();
         double[][] rows = new double[days.length][];
