@@ -70,13 +70,17 @@ public final class SparkBackend implements PopulationBackend {
     }
 
     @Override
-    public Population create(ModelSource source, int particles, long seed) {
+    public Population create(ModelSource source, int particles, long seed, int islands) {
+        if (islands < 0 || islands > particles) {
+            throw new IllegalArgumentException("islands must be in [0, " + particles + "], was " + islands);
+        }
         if (!source.isPortable()) {
             throw new IllegalArgumentException("the Spark backend needs a model it can rebuild on executors: "
                     + "build it from a run file (model.name or model.class) or implement ModelSource");
         }
         checkSerialisable(source);
-        return new SparkPopulation(context, source, particles, seed, partitionsFor(particles));
+        return new SparkPopulation(context, source, particles, seed,
+                islands > 0 ? islands : partitionsFor(particles));
     }
 
     private static void checkSerialisable(ModelSource source) {

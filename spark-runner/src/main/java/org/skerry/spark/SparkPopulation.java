@@ -22,6 +22,7 @@ import org.skerry.engine.population.PopulationSnapshot;
 import org.skerry.engine.population.ResamplingReport;
 import org.skerry.engine.population.TemperingInputs;
 import org.skerry.engine.population.block.InitialDraw;
+import org.skerry.engine.population.block.IslandResampling;
 import org.skerry.engine.population.block.LikelihoodEvaluator;
 import org.skerry.engine.population.block.MetropolisHastingsMover;
 import org.skerry.engine.population.block.MomentCollector;
@@ -127,13 +128,16 @@ final class SparkPopulation implements Population {
             java.util.Arrays.copyOf(state.block.logLikelihood(), state.block.size())}).collect();
         double[] logWeight = new double[size];
         double[] logLikelihood = new double[size];
+        int[] blockSizes = new int[parts.size()];
         int offset = 0;
-        for (double[][] part : parts) {
+        for (int p = 0; p < parts.size(); p++) {
+            double[][] part = parts.get(p);
             System.arraycopy(part[0], 0, logWeight, offset, part[0].length);
             System.arraycopy(part[1], 0, logLikelihood, offset, part[1].length);
+            blockSizes[p] = part[0].length;
             offset += part[0].length;
         }
-        return new TemperingInputs(logWeight, logLikelihood, size);
+        return new TemperingInputs(logWeight, logLikelihood, size, blockSizes);
     }
 
     @Override
@@ -240,6 +244,19 @@ final class SparkPopulation implements Population {
                     return List.of(new PartitionState(BlockSlices.join(d, pieces), null)).iterator();
                 });
         commit(balanced);
+    }
+
+    @Override
+    public ResamplingReport resampleIslands(ResamplingScheme scheme, int iteration) {
+        long streamSeed = seed;
+        long distinct = 0;
+        for (Object report : commit(states.map(state -> {
+            IslandResampling.Result result = IslandResampling.resample(state.block, scheme, streamSeed, iteration);
+            return new PartitionState(result.block(), result.distinctAncestors());
+        }))) {
+            distinct += (Long) report;
+        }
+        return new ResamplingReport(distinct, 0);
     }
 
     @Override

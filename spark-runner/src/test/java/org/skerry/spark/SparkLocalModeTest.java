@@ -118,4 +118,16 @@ class SparkLocalModeTest {
                 SamplerSettings.builder().particles(20).build()).run(NormalMeanModel.of(DATA, 1.5, 0, 2), backend));
         assertTrue(e.getMessage().contains("model.name or model.class"), e.getMessage());
     }
+
+    @Test
+    @DisplayName("island mode: identical on threads and on Spark, whatever the placement of the islands")
+    void islandsIdentical() {
+        SamplerSettings settings = SamplerSettings.builder().particles(200).seed(23).islands(4).build();
+        SamplerResult reference = onThreads(settings);
+        SamplerResult spark = onSpark(settings, 0);
+        assertEquals(fingerprint(reference), fingerprint(spark));
+        assertEquals(reference.evidence(), spark.evidence());
+        assertArrayEquals(reference.particles().values(), spark.particles().values());
+        assertTrue(spark.evidence().islandStandardError() > 0);
+    }
 }

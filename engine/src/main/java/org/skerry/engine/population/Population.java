@@ -39,6 +39,14 @@ public interface Population extends AutoCloseable {
      */
     ResamplingReport resample(ResamplingScheme scheme, double logTotal, int iteration);
 
+    /**
+     * Island resampling: every block (island) resamples its own particles by their weights within
+     * the island, keeps its size and its run of global indices, and gives each survivor the
+     * island's mean weight, so the island's total weight — its island weight — is carried on
+     * (Vergé, Dubarry, Del Moral &amp; Moulines 2015). No particle changes block.
+     */
+    ResamplingReport resampleIslands(ResamplingScheme scheme, int iteration);
+
     /** Weighted moment sums on the unconstrained scale, weights normalised by {@code logTotal}. */
     MomentSums moments(double logTotal);
 

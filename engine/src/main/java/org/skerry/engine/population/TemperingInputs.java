@@ -10,14 +10,36 @@ public final class TemperingInputs {
     private final double[] logWeight;
     private final double[] logLikelihood;
     private final int size;
+    private final int[] blockSizes;
 
     public TemperingInputs(double[] logWeight, double[] logLikelihood, int size) {
+        this(logWeight, logLikelihood, size, new int[] {size});
+    }
+
+    /**
+     * @param blockSizes the number of particles each block contributed, in the order of the
+     *     arrays; in island mode the blocks are the islands, in island order
+     */
+    public TemperingInputs(double[] logWeight, double[] logLikelihood, int size, int[] blockSizes) {
         if (logWeight.length < size || logLikelihood.length < size) {
             throw new IllegalArgumentException("arrays shorter than size " + size);
+        }
+        long total = 0;
+        for (int count : blockSizes) {
+            total += count;
+        }
+        if (total != size) {
+            throw new IllegalArgumentException("block sizes add up to " + total + ", not " + size);
         }
         this.logWeight = logWeight;
         this.logLikelihood = logLikelihood;
         this.size = size;
+        this.blockSizes = blockSizes.clone();
+    }
+
+    /** Particles per block, in array order. */
+    public int[] blockSizes() {
+        return blockSizes.clone();
     }
 
     /** Log-weights; do not modify. */

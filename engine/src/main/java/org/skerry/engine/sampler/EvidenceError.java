@@ -58,6 +58,7 @@ public final class EvidenceError {
         String warning = reliable ? null
                 : "only " + distinct + " distinct iteration-0 ancestors remain (fewer than " + minimumDistinctEves
                         + "): the single-run evidence error is unreliable; replicate the run over seeds instead";
-        return new EvidenceEstimate(logEvidence, relativeVariance, standardError, distinct, reliable, warning);
+        return new EvidenceEstimate(logEvidence, relativeVariance, standardError, distinct, reliable, warning, 0,
+                Double.NaN);
     }
 }

@@ -11,7 +11,17 @@ package org.skerry.engine.sampler;
  * @param distinctEves      number of distinct Eve indices among particles with positive weight
  * @param reliable          false when {@code distinctEves} is below the configured minimum
  * @param warning           why the error is unreliable, or null
+ * @param islands           number of islands (0 in global mode)
+ * @param islandStandardError in island mode without interaction, the standard error of log Ẑ
+ *     from the spread of the islands' own evidence estimates (a second, independent error
+ *     estimate); NaN otherwise
  */
 public record EvidenceEstimate(double logEvidence, double relativeVariance, double standardError,
-        long distinctEves, boolean reliable, String warning) {
+        long distinctEves, boolean reliable, String warning, int islands, double islandStandardError) {
+
+    /** This estimate with the island error attached. */
+    public EvidenceEstimate withIslands(int count, double error) {
+        return new EvidenceEstimate(logEvidence, relativeVariance, standardError, distinctEves, reliable, warning,
+                count, error);
+    }
 }

@@ -28,6 +28,9 @@ public final class SamplerSettings {
     private final int maxIterations;
     private final Prior startProposal;
     private final int minimumDistinctEves;
+    private final int islands;
+    private final int islandInteractionEvery;
+    private final double islandInteractionThreshold;
 
     private SamplerSettings(Builder b) {
         this.particles = b.particles;
@@ -45,6 +48,12 @@ public final class SamplerSettings {
         this.maxIterations = b.maxIterations;
         this.startProposal = b.startProposal;
         this.minimumDistinctEves = b.minimumDistinctEves;
+        this.islands = b.islands;
+        this.islandInteractionEvery = b.islandInteractionEvery;
+        this.islandInteractionThreshold = b.islandInteractionThreshold;
+        if (islands > particles) {
+            throw new IllegalArgumentException("islands (" + islands + ") must not exceed particles (" + particles + ")");
+        }
     }
 
     public static Builder builder() {
@@ -69,6 +78,9 @@ public final class SamplerSettings {
         b.maxIterations = maxIterations;
         b.startProposal = startProposal;
         b.minimumDistinctEves = minimumDistinctEves;
+        b.islands = islands;
+        b.islandInteractionEvery = islandInteractionEvery;
+        b.islandInteractionThreshold = islandInteractionThreshold;
         return b;
     }
 
@@ -143,6 +155,21 @@ public final class SamplerSettings {
         return minimumDistinctEves;
     }
 
+    /** Number of islands K, or 0 for global resampling. */
+    public int islands() {
+        return islands;
+    }
+
+    /** Island mode: resample globally (all islands interact) every this many iterations; 0 never. */
+    public int islandInteractionEvery() {
+        return islandInteractionEvery;
+    }
+
+    /** Island mode: resample globally when the ESS of the island weights falls below this fraction of K; 0 never. */
+    public double islandInteractionThreshold() {
+        return islandInteractionThreshold;
+    }
+
     /** Builder for {@link SamplerSettings}; each setter validates its argument. */
     public static final class Builder {
         private int particles = 1000;
@@ -160,8 +187,36 @@ public final class SamplerSettings {
         private int maxIterations = 1000;
         private Prior startProposal;
         private int minimumDistinctEves = 20;
+        private int islands;
+        private int islandInteractionEvery;
+        private double islandInteractionThreshold;
 
         private Builder() {
+        }
+
+        /** K islands, each resampling on its own (0: global resampling). */
+        public Builder islands(int value) {
+            if (value < 0) {
+                throw new IllegalArgumentException("islands must be >= 0, was " + value);
+            }
+            islands = value;
+            return this;
+        }
+
+        public Builder islandInteractionEvery(int value) {
+            if (value < 0) {
+                throw new IllegalArgumentException("islandInteractionEvery must be >= 0, was " + value);
+            }
+            islandInteractionEvery = value;
+            return this;
+        }
+
+        public Builder islandInteractionThreshold(double value) {
+            if (!(value >= 0 && value <= 1)) {
+                throw new IllegalArgumentException("islandInteractionThreshold must be in [0, 1], was " + value);
+            }
+            islandInteractionThreshold = value;
+            return this;
         }
 
         public Builder particles(int value) {

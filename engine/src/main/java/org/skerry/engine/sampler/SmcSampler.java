@@ -66,7 +66,8 @@ public final class SmcSampler {
     public SamplerResult run(ModelSource source, PopulationBackend backend, IterationListener listener) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source, settings.particles(), settings.seed())) {
+        try (Population population = backend.create(source, settings.particles(), settings.seed(),
+                settings.islands())) {
             return run(model, population, listener);
         }
     }
@@ -102,6 +103,8 @@ public final class SmcSampler {
                     + n + " particles; " + total + ")");
         }
         double logEvidence = settings.startProposal() == null ? 0.0 : logTotal - logN;
+        IslandLedger islands = settings.islands() > 0
+                ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.startProposal() != null) : null;
         double temperature = 0.0;
         double scale = settings.initialScale();
         int resamplings = 0;
@@ -143,6 +146,9 @@ public final class SmcSampler {
             }
             double increment = newLogTotal - logTotal;
             logEvidence += increment;
+            if (islands != null) {
+                islands.advance(inputs.logWeight(), newLogWeight);
+            }
 
             phase = System.nanoTime();
             population.reweight(temperature, next);
@@ -151,14 +157,33 @@ public final class SmcSampler {
             logTotal = newLogTotal;
 
             phase = System.nanoTime();
-            boolean resample = settings.resampleEveryIteration() || ess < settings.resampleThreshold() * n;
             long ancestors = LogWeights.countAlive(newLogWeight, n);
             long moved = 0;
+            boolean resample;
+            boolean global;
+            if (islands == null) {
+                resample = settings.resampleEveryIteration() || ess < settings.resampleThreshold() * n;
+                global = true;
+            } else {
+                global = (settings.islandInteractionEvery() > 0 && iteration % settings.islandInteractionEvery() == 0)
+                        || islands.islandWeightEssFraction(newLogWeight) < settings.islandInteractionThreshold();
+                resample = global || settings.resampleEveryIteration()
+                        || islands.withinIslandEssFraction(newLogWeight) < settings.resampleThreshold();
+            }
             if (resample) {
-                ResamplingReport report = population.resample(settings.resamplingScheme(), logTotal, iteration);
+                ResamplingReport report;
+                if (global) {
+                    report = population.resample(settings.resamplingScheme(), logTotal, iteration);
+                    logTotal = logN;
+                    if (islands != null) {
+                        islands.interacted();
+                    }
+                } else {
+                    report = population.resampleIslands(settings.resamplingScheme(), iteration);
+                    logTotal = LogWeights.logSum(islands.afterIslandResampling(newLogWeight), n);
+                }
                 ancestors = report.distinctAncestors();
                 moved = report.particlesMoved();
-                logTotal = logN;
                 resamplings++;
             }
             double resampleSeconds = seconds(phase);
@@ -203,6 +228,9 @@ public final class SmcSampler {
         List<ParameterSummary> summaries = PosteriorSummaries.summarise(particles, weights, model.parameters());
         EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights, resamplings,
                 settings.minimumDistinctEves());
+        if (islands != null) {
+            evidence = evidence.withIslands(islands.islands(), islands.standardError());
+        }
         return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights);
     }
 

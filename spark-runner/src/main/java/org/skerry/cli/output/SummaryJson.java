@@ -18,6 +18,8 @@ import org.skerry.engine.sampler.SamplerResult;
  *
  * <p>Keys, in this order: {@code logEvidence}, {@code logEvidenceError},
  * {@code logEvidenceErrorReliable}, {@code logEvidenceErrorWarning} (null when none),
+ * {@code islands} (0 in global mode), {@code islandLogEvidenceError} (the error of log Z from the
+ * islands' spread, null unless islands ran without interaction),
  * {@code distinctAncestorsAtEnd} (distinct iteration-0 ancestors among particles of positive
  * weight), {@code parameters} (an object with one entry per parameter, in parameter order, each
  * holding {@code mean, sd, q025, q050, q250, q500, q750, q950, q975}), {@code iterations}
@@ -73,6 +75,8 @@ public final class SummaryJson {
             json.writeBooleanField("logEvidenceErrorReliable", evidence.reliable());
             JsonOutput.text(json, "logEvidenceErrorWarning", evidence.warning());
             json.writeNumberField("distinctAncestorsAtEnd", evidence.distinctEves());
+            json.writeNumberField("islands", evidence.islands());
+            JsonOutput.number(json, "islandLogEvidenceError", evidence.islandStandardError());
             json.writeObjectFieldStart("parameters");
             for (ParameterSummary p : result.parameters()) {
                 json.writeObjectFieldStart(p.name());

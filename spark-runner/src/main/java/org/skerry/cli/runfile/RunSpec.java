@@ -128,6 +128,9 @@ public final class RunSpec {
         b.resamplingScheme(ResamplingScheme.valueOf(scheme.toUpperCase(java.util.Locale.ROOT)));
         b.resampleThreshold(r.getDouble("sampler.resampling.threshold", 0, false, 1, true));
         b.resampleEveryIteration(r.getBoolean("sampler.resampling.every-iteration"));
+        b.islands(r.getInt("sampler.islands.count", 0, 10_000_000));
+        b.islandInteractionEvery(r.getInt("sampler.islands.interaction-every", 0, 1_000_000));
+        b.islandInteractionThreshold(r.getDouble("sampler.islands.interaction-threshold", 0, true, 1, true));
         String rule = r.getChoice("sampler.tempering.rule", List.of("adaptive", "fixed"));
         if (rule.equals("adaptive")) {
             b.temperatureRule(new AdaptiveTemperature(r.getDouble("sampler.tempering.target", 0, false, 1, false)));
@@ -151,7 +154,11 @@ public final class RunSpec {
         b.maxSteps(r.getInt("sampler.moves.max-steps", 1, 65535));
         b.initialScale(r.getDouble("sampler.moves.initial-scale", 0, false, 100, true));
         b.targetAcceptance(r.getDouble("sampler.moves.target-acceptance", 0, false, 1, false));
-        return b.build();
+        try {
+            return b.build();
+        } catch (IllegalArgumentException e) {
+            throw r.error("sampler.islands.count", e.getMessage());
+        }
     }
 
     /** Checks every setting of a loaded run file. */

@@ -40,7 +40,7 @@ class SummaryJsonTest {
         Map<String, Object> json = JsonTree.read(file);
 
         assertEquals(List.of("logEvidence", "logEvidenceError", "logEvidenceErrorReliable", "logEvidenceErrorWarning",
-                "distinctAncestorsAtEnd", "parameters", "iterations", "likelihoodEvaluations",
+                "distinctAncestorsAtEnd", "islands", "islandLogEvidenceError", "parameters", "iterations", "likelihoodEvaluations",
                 "zeroLikelihoodEvaluations", "invalidEvaluations", "firstInvalid", "particles", "seed", "model"),
                 new ArrayList<>(json.keySet()));
         EvidenceEstimate evidence = result.evidence();
@@ -124,7 +124,7 @@ class SummaryJsonTest {
         FinalParticles particles = new FinalParticles(1, 2, new double[] {0.5, 1.5}, new double[] {0, 0},
                 new double[] {0, 0}, new long[] {0, 1}, new long[] {0, 0});
         SamplerResult result = new SamplerResult(
-                new EvidenceEstimate(-3.25, Double.NaN, Double.NaN, 1, false, "only 1 distinct ancestor"),
+                new EvidenceEstimate(-3.25, Double.NaN, Double.NaN, 1, false, "only 1 distinct ancestor", 0, Double.NaN),
                 List.of(new ParameterSummary("x", 1.0, 0.5, 0.5, 0.5, 0.5, 0.5, 1.5, 1.5, Double.POSITIVE_INFINITY)),
                 List.of(), EvaluationTally.NONE, particles, new double[] {0.5, 0.5});
         Path file = SummaryJson.write(folder, "m", -1, result);

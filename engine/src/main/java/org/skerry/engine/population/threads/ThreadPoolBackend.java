@@ -61,9 +61,12 @@ public final class ThreadPoolBackend implements PopulationBackend {
     }
 
     @Override
-    public Population create(ModelSource source, int particles, long seed) {
+    public Population create(ModelSource source, int particles, long seed, int islands) {
+        if (islands < 0 || islands > particles) {
+            throw new IllegalArgumentException("islands must be in [0, " + particles + "], was " + islands);
+        }
         int size = blockSize > 0 ? blockSize : Math.max(1, (particles + 4 * threads - 1) / (4 * threads));
-        int blocks = (particles + size - 1) / size;
+        int blocks = islands > 0 ? islands : (particles + size - 1) / size;
         return new ThreadPopulation(this, source.create(), particles, seed, blocks);
     }
 

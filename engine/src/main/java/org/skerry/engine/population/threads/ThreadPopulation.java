@@ -15,6 +15,7 @@ import org.skerry.engine.population.PopulationSnapshot;
 import org.skerry.engine.population.ResamplingReport;
 import org.skerry.engine.population.TemperingInputs;
 import org.skerry.engine.population.block.InitialDraw;
+import org.skerry.engine.population.block.IslandResampling;
 import org.skerry.engine.population.block.LikelihoodEvaluator;
 import org.skerry.engine.population.block.MetropolisHastingsMover;
 import org.skerry.engine.population.block.MomentCollector;
@@ -79,13 +80,16 @@ final class ThreadPopulation implements Population {
     public TemperingInputs temperingInputs() {
         double[] logWeight = new double[size];
         double[] logLikelihood = new double[size];
+        int[] blockSizes = new int[blocks.size()];
         int offset = 0;
-        for (ParticleBlock block : blocks) {
+        for (int b = 0; b < blocks.size(); b++) {
+            ParticleBlock block = blocks.get(b);
             System.arraycopy(block.logWeight(), 0, logWeight, offset, block.size());
             System.arraycopy(block.logLikelihood(), 0, logLikelihood, offset, block.size());
+            blockSizes[b] = block.size();
             offset += block.size();
         }
-        return new TemperingInputs(logWeight, logLikelihood, size);
+        return new TemperingInputs(logWeight, logLikelihood, size, blockSizes);
     }
 
     @Override
@@ -101,6 +105,20 @@ final class ThreadPopulation implements Population {
         BlockResampling.Result result = BlockResampling.resample(backend, blocks, scheme, logTotal, seed, iteration);
         blocks = result.blocks();
         return result.report();
+    }
+
+    @Override
+    public ResamplingReport resampleIslands(ResamplingScheme scheme, int iteration) {
+        List<IslandResampling.Result> results = backend.map(blocks,
+                block -> IslandResampling.resample(block, scheme, seed, iteration));
+        List<ParticleBlock> next = new ArrayList<>(results.size());
+        long distinct = 0;
+        for (IslandResampling.Result result : results) {
+            next.add(result.block());
+            distinct += result.distinctAncestors();
+        }
+        blocks = next;
+        return new ResamplingReport(distinct, 0);
     }
 
     @Override
