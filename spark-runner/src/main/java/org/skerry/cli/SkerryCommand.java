@@ -43,6 +43,12 @@ public final class SkerryCommand implements Runnable {
                 errors.flush();
                 return ExitCodes.RUN_FAILURE;
             }
+            String hint = SparkFailures.explain(exception);
+            if (hint != null) {
+                errors.println("skerry: the run failed: " + hint);
+                errors.flush();
+                return ExitCodes.RUN_FAILURE;
+            }
             errors.println("skerry: the run failed: " + exception);
             StackTraceElement[] trace = exception.getStackTrace();
             for (int i = 0; i < Math.min(8, trace.length); i++) {

@@ -16,6 +16,15 @@ final class ModelCache {
     }
 
     static Model get(ModelSource source) {
-        return MODELS.computeIfAbsent(source.id(), id -> source.create());
+        return MODELS.computeIfAbsent(source.id(), id -> {
+            try {
+                return source.create();
+            } catch (RuntimeException | LinkageError e) {
+                throw new IllegalStateException("cannot build the model on executor "
+                        + org.apache.spark.SparkEnv.get().executorId() + ": " + e.getMessage()
+                        + " — if a model class is missing there, ship its jar with backend.jars = [\"/path/model.jar\"]"
+                        + " in the run file (or spark-submit --jars)", e);
+            }
+        });
     }
 }

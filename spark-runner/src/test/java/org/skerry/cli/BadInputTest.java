@@ -205,4 +205,22 @@ class BadInputTest {
     void unknownOption() {
         assertEquals(ExitCodes.BAD_INPUT, CommandRunner.run("run", "--frobnicate").exitCode());
     }
+
+    @Test
+    @DisplayName("an unreachable Spark master: a clear error within the connect timeout, never a hang")
+    void unreachableMaster() throws IOException {
+        goodData();
+        int port;
+        try (java.net.ServerSocket socket = new java.net.ServerSocket(0)) {
+            port = socket.getLocalPort();
+        }
+        long start = System.nanoTime();
+        CommandRunner.Result result = CommandRunner.run("run", write("run.conf", GOOD).toString(), "--out",
+                folder.resolve("out").toString(), "--master", "spark://127.0.0.1:" + port,
+                "--set", "backend.connect-timeout-seconds=3");
+        double seconds = (System.nanoTime() - start) * 1e-9;
+        assertEquals(ExitCodes.BAD_INPUT, result.exitCode(), result.err());
+        assertTrue(result.err().contains("cannot reach the Spark master spark://127.0.0.1:" + port), result.err());
+        assertTrue(seconds < 10, "gave up after " + seconds + " s");
+    }
 }

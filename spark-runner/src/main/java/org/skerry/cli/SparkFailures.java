@@ -1,0 +1,37 @@
+package org.skerry.cli;
+
+/**
+ * Turns Spark's failure reports into one sentence a user can act on: a model that cannot be
+ * built on the executors, executors that ran out of memory, a population too large for a
+ * message. Spark wraps the cause in job-abort text, so the chain and the texts are searched.
+ */
+final class SparkFailures {
+
+    private SparkFailures() {
+    }
+
+    /** A plain explanation, or null when the failure is not one of the known kinds. */
+    static String explain(Throwable failure) {
+        StringBuilder text = new StringBuilder();
+        for (Throwable t = failure; t != null; t = t.getCause()) {
+            text.append(t.getClass().getName()).append(": ").append(t.getMessage()).append('\n');
+        }
+        String all = text.toString();
+        int model = all.indexOf("cannot build the model on executor");
+        if (model >= 0) {
+            int end = all.indexOf('\n', model);
+            return all.substring(model, end < 0 ? all.length() : end);
+        }
+        if (all.contains("OutOfMemoryError") || all.contains("Java heap space")
+                || all.contains("GC overhead limit exceeded")) {
+            return "an executor ran out of memory holding its particle blocks; give executors more memory with "
+                    + "backend.spark { \"spark.executor.memory\" = \"4g\" } (or spark-submit --executor-memory), "
+                    + "or use more partitions (backend.partitions)";
+        }
+        if (all.contains("spark.rpc.message.maxSize")) {
+            return "a message to or from the driver exceeded spark.rpc.message.maxSize; raise it with "
+                    + "backend.spark { \"spark.rpc.message.maxSize\" = \"512\" } or use more partitions";
+        }
+        return null;
+    }
+}
