@@ -1,15 +1,9 @@
 package org.skerry.engine.population.block;
 
 import org.skerry.engine.particle.ParticleBlock;
-import org.skerry.engine.resample.BlockLayout;
-import org.skerry.engine.resample.BlockResamplingPlan;
-import org.skerry.engine.resample.OffspringCounter;
 import org.skerry.engine.resample.ParticleExpansion;
-import org.skerry.engine.resample.ResamplingPlanner;
+import org.skerry.engine.resample.Resampling;
 import org.skerry.engine.resample.ResamplingScheme;
-import org.skerry.engine.resample.ResidualSplit;
-import org.skerry.engine.resample.ResidualTotals;
-import org.skerry.engine.resample.WeightQuantiser;
 import org.skerry.engine.weight.LogWeights;
 
 /**
@@ -50,20 +44,7 @@ public final class IslandResampling {
             return new Result(island.copy(), 0);
         }
         long first = island.index()[0];
-        long islandSeed = islandSeed(seed, first);
-        long[] q = new long[n];
-        long total = WeightQuantiser.quantise(island.logWeight(), n, logSum, q);
-        BlockLayout layout = BlockLayout.of(new long[] {0}, new int[] {n});
-        int[] offspring = new int[n];
-        BlockResamplingPlan plan;
-        if (scheme == ResamplingScheme.RESIDUAL) {
-            ResidualSplit split = ResamplingPlanner.residualSplit(layout, new long[] {total});
-            ResidualTotals totals = OffspringCounter.splitResidual(split, q, n, offspring);
-            plan = ResamplingPlanner.planResidual(islandSeed, iteration, layout, split, new ResidualTotals[] {totals})[0];
-        } else {
-            plan = ResamplingPlanner.plan(scheme, islandSeed, iteration, layout, new long[] {total})[0];
-        }
-        OffspringCounter.count(plan, q, n, offspring);
+        int[] offspring = Resampling.offspring(scheme, island.logWeight(), n, islandSeed(seed, first), iteration);
         long distinct = ParticleExpansion.distinctAncestors(offspring, n);
         ParticleBlock children = ParticleExpansion.expand(island, offspring, first);
         double islandMean = logSum - StrictMath.log(n);
