@@ -63,7 +63,11 @@ final class Backends {
         settings.put("spark.local.dir", scratch.toAbsolutePath().toString());
         List<String> jars = new ArrayList<>(shippedJars());
         jars.addAll(spec.jars());
-        if (!master.startsWith("local")) {
+        if (master.startsWith("local")) {
+            // Everything stays in this process: bind to loopback rather than the first interface.
+            settings.put("spark.driver.host", "127.0.0.1");
+            settings.put("spark.driver.bindAddress", "127.0.0.1");
+        } else {
             settings.put("spark.jars", String.join(",", jars));
         }
         settings.putAll(spec.sparkSettings());
