@@ -299,6 +299,20 @@ public final class LoopbackCluster implements AutoCloseable {
         if (!left.isEmpty()) {
             throw new IllegalStateException("cluster processes still alive after SIGKILL: " + pids(left));
         }
+        removeJarLinks();
+    }
+
+    /** Removes the links to Maven's jars, so a temporary-folder cleanup has nothing outside to warn about. */
+    private void removeJarLinks() {
+        Path jars = dir.resolve("spark-home").resolve("jars");
+        if (!Files.isDirectory(jars)) {
+            return;
+        }
+        try (java.util.stream.Stream<Path> links = Files.list(jars)) {
+            links.filter(Files::isSymbolicLink).forEach(link -> link.toFile().delete());
+        } catch (IOException e) {
+            // the links are harmless; the temporary folder's cleanup deals with them
+        }
     }
 
     private void launch(String name, String host, Path sparkHome, List<String> mainAndArgs) throws IOException {
