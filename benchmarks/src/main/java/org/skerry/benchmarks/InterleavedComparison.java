@@ -118,14 +118,17 @@ public final class InterleavedComparison {
                 for (int k = 0; k < variants.size(); k++) {
                     String variant = variants.get((k + shift) % variants.size());
                     long start = System.nanoTime();
+                    long cpuStart = processCpuNanos();
                     SamplerResult result = variant.equals("bare") ? null : sample(backends.get(variant));
                     if (result == null) {
                         bareLoop(barePool);
                     }
                     double seconds = (System.nanoTime() - start) * 1e-9;
+                    double cpu = (processCpuNanos() - cpuStart) * 1e-9;
                     wall.put(variant, seconds);
                     String label = round < 0 ? "warmup" : "round " + round;
-                    System.out.printf(Locale.ROOT, "%s %s: %.3f s%n", label, variant, seconds);
+                    System.out.printf(Locale.ROOT, "%s %s: %.3f s wall, %.3f s CPU of this JVM; load average %s%n",
+                            label, variant, seconds, cpu, loadAverage());
                     if (result != null) {
                         double z = result.evidence().logEvidence();
                         if (logEvidence != null && Double.compare(logEvidence, z) != 0) {
@@ -203,6 +206,18 @@ public final class InterleavedComparison {
             spins += part.get();
         }
         return spins;
+    }
+
+    /** CPU time of this whole JVM (driver, local executors, Spark's own threads). */
+    private static long processCpuNanos() {
+        return ((com.sun.management.OperatingSystemMXBean) java.lang.management.ManagementFactory
+                .getOperatingSystemMXBean()).getProcessCpuTime();
+    }
+
+    /** The machine's 1-minute load average, to show how much other work shared the cores. */
+    private static String loadAverage() {
+        return String.format(Locale.ROOT, "%.2f",
+                java.lang.management.ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage());
     }
 
     private static double mean(List<Double> values) {
