@@ -1,0 +1,41 @@
+package org.skerry.benchmarks;
+
+import org.openjdk.jmh.annotations.Fork;
+
+/**
+ * Base of the JMH benchmarks that run Spark: their forks get Spark's Java 17 module options (the
+ * pom's {@code spark.module.options}; {@link LocalSpark#requireModuleOptions()} fails a run whose
+ * JVM lacks any of them, so this list cannot drift from the pom unnoticed) and a fixed heap, so
+ * runs on different machines hold the same amount of cached data in memory.
+ */
+@Fork(value = 1, jvmArgsAppend = {
+        "-Xmx6g",
+        "-XX:+IgnoreUnrecognizedVMOptions",
+        "--add-modules=jdk.incubator.vector",
+        "--add-opens=java.base/java.lang=ALL-UNNAMED",
+        "--add-opens=java.base/java.lang.invoke=ALL-UNNAMED",
+        "--add-opens=java.base/java.lang.reflect=ALL-UNNAMED",
+        "--add-opens=java.base/java.io=ALL-UNNAMED",
+        "--add-opens=java.base/java.net=ALL-UNNAMED",
+        "--add-opens=java.base/java.nio=ALL-UNNAMED",
+        "--add-opens=java.base/java.util=ALL-UNNAMED",
+        "--add-opens=java.base/java.util.concurrent=ALL-UNNAMED",
+        "--add-opens=java.base/java.util.concurrent.atomic=ALL-UNNAMED",
+        "--add-opens=java.base/jdk.internal.ref=ALL-UNNAMED",
+        "--add-opens=java.base/sun.nio.ch=ALL-UNNAMED",
+        "--add-opens=java.base/sun.nio.cs=ALL-UNNAMED",
+        "--add-opens=java.base/sun.security.action=ALL-UNNAMED",
+        "--add-opens=java.base/sun.util.calendar=ALL-UNNAMED",
+        "--add-opens=java.security.jgss/sun.security.krb5=ALL-UNNAMED",
+        "-Djdk.reflect.useDirectMethodHandle=false",
+        "-Dio.netty.tryReflectionSetAccessible=true",
+        "-Dio.netty.allocator.type=pooled",
+        "-Dio.netty.handler.ssl.defaultEndpointVerificationAlgorithm=NONE",
+        "--enable-native-access=ALL-UNNAMED"})
+public abstract class SparkForkedBenchmark {
+
+    /** Evaluations a run with a fixed schedule and fixed steps makes: N draws, then N per step and temperature. */
+    static long evaluations(int particles, int temperatures, int steps) {
+        return (long) particles * (1 + (long) temperatures * steps);
+    }
+}
