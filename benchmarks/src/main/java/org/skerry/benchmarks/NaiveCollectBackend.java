@@ -28,7 +28,10 @@ final class NaiveCollectBackend implements PopulationBackend {
     }
 
     @Override
-    public Population create(ModelSource source, int particles, long seed) {
+    public Population create(ModelSource source, int particles, long seed, int islands) {
+        if (islands != 0) {
+            throw new IllegalArgumentException("the naive baseline has no island mode");
+        }
         return new NaiveCollectPopulation(context, source, particles, seed, Math.min(partitions, particles));
     }
 

@@ -183,6 +183,11 @@ final class NaiveCollectPopulation implements Population {
     }
 
     @Override
+    public ResamplingReport resampleIslands(ResamplingScheme scheme, int iteration) {
+        throw new UnsupportedOperationException("the naive baseline has no island mode");
+    }
+
+    @Override
     public MomentSums moments(double logTotal) {
         return MomentCollector.collect(all, model.parameters(), logTotal);
     }
