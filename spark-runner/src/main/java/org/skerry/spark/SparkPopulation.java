@@ -56,6 +56,9 @@ final class SparkPopulation implements Population {
     private final int dimension;
     private JavaRDD<PartitionState> states;
 
+    /** Partitions fetched per job by {@link #export()}: bounds the driver's extra memory. */
+    private static final int EXPORT_PARTITIONS_PER_JOB = 16;
+
     SparkPopulation(JavaSparkContext context, ModelSource source, int size, long seed, int partitions) {
         this.context = context;
         this.source = source;
@@ -293,17 +296,33 @@ final class SparkPopulation implements Population {
         double[] logLikelihood = new double[size];
         long[] index = new long[size];
         long[] eve = new long[size];
-        for (ParticleBlock block : states.map(state -> state.block).collect()) {
-            for (int i = 0; i < block.size(); i++) {
-                int at = (int) block.index()[i];
-                System.arraycopy(block.values(), i * dimension, values, at * dimension, dimension);
-                logWeight[at] = block.logWeight()[i];
-                logLikelihood[at] = block.logLikelihood()[i];
-                index[at] = block.index()[i];
-                eve[at] = block.eve()[i];
+        // A few partitions per job, so the driver never holds every block and the output at once.
+        JavaRDD<ParticleBlock> blocks = states.map(state -> state.block);
+        for (int from = 0; from < partitions; from += EXPORT_PARTITIONS_PER_JOB) {
+            int[] ids = new int[Math.min(EXPORT_PARTITIONS_PER_JOB, partitions - from)];
+            for (int k = 0; k < ids.length; k++) {
+                ids[k] = from + k;
+            }
+            for (List<ParticleBlock> part : blocks.collectPartitions(ids)) {
+                for (ParticleBlock block : part) {
+                    copyOut(block, values, logWeight, logLikelihood, index, eve);
+                }
             }
         }
         return new FinalParticles(dimension, size, values, logWeight, logLikelihood, index, eve);
+    }
+
+    /** Places a block's particles at their global indices (always a permutation of 0..N−1). */
+    private void copyOut(ParticleBlock block, double[] values, double[] logWeight, double[] logLikelihood,
+            long[] index, long[] eve) {
+        for (int i = 0; i < block.size(); i++) {
+            int at = (int) block.index()[i];
+            System.arraycopy(block.values(), i * dimension, values, at * dimension, dimension);
+            logWeight[at] = block.logWeight()[i];
+            logLikelihood[at] = block.logLikelihood()[i];
+            index[at] = block.index()[i];
+            eve[at] = block.eve()[i];
+        }
     }
 
     @Override
