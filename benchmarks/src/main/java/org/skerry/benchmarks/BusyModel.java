@@ -56,6 +56,30 @@ final class BusyModel implements Model {
         return spins;
     }
 
+    /**
+     * The floor every overhead is measured against: {@code evaluations} spins of
+     * {@code costMicros} split evenly over {@code threads} tasks of {@code pool}.
+     */
+    static long bareLoop(java.util.concurrent.ExecutorService pool, int threads, long evaluations, long costMicros)
+            throws Exception {
+        java.util.List<java.util.concurrent.Future<Long>> parts = new java.util.ArrayList<>();
+        for (int t = 0; t < threads; t++) {
+            long share = evaluations / threads + (t < evaluations % threads ? 1 : 0);
+            parts.add(pool.submit(() -> {
+                long spins = 0;
+                for (long i = 0; i < share; i++) {
+                    spins += spin(costMicros * 1000L);
+                }
+                return spins;
+            }));
+        }
+        long spins = 0;
+        for (java.util.concurrent.Future<Long> part : parts) {
+            spins += part.get();
+        }
+        return spins;
+    }
+
     @Override
     public ParameterSpace parameters() {
         return space;

@@ -7,7 +7,6 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
-import java.util.concurrent.Future;
 import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
 import org.skerry.engine.sampler.IterationListener;
@@ -189,23 +188,7 @@ public final class InterleavedComparison {
 
     /** The floor: the same number of likelihood calls split evenly over the same number of threads. */
     private long bareLoop(ExecutorService pool) throws Exception {
-        long total = evaluations();
-        List<Future<Long>> parts = new ArrayList<>();
-        for (int t = 0; t < threads; t++) {
-            long share = total / threads + (t < total % threads ? 1 : 0);
-            parts.add(pool.submit(() -> {
-                long spins = 0;
-                for (long i = 0; i < share; i++) {
-                    spins += BusyModel.spin(costMicros * 1000L);
-                }
-                return spins;
-            }));
-        }
-        long spins = 0;
-        for (Future<Long> part : parts) {
-            spins += part.get();
-        }
-        return spins;
+        return BusyModel.bareLoop(pool, threads, evaluations(), costMicros);
     }
 
     /** CPU time of this whole JVM (driver, local executors, Spark's own threads). */

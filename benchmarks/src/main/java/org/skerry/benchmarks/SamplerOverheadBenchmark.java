@@ -1,10 +1,7 @@
 package org.skerry.benchmarks;
 
-import java.util.ArrayList;
-import java.util.List;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
-import java.util.concurrent.Future;
 import java.util.concurrent.TimeUnit;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -94,22 +91,6 @@ public class SamplerOverheadBenchmark {
 
     @Benchmark
     public long bareLikelihoodLoop() throws Exception {
-        long total = evaluations();
-        List<Future<Long>> parts = new ArrayList<>();
-        for (int t = 0; t < threads; t++) {
-            long share = total / threads + (t < total % threads ? 1 : 0);
-            parts.add(barePool.submit(() -> {
-                long spins = 0;
-                for (long i = 0; i < share; i++) {
-                    spins += BusyModel.spin(costMicros * 1000L);
-                }
-                return spins;
-            }));
-        }
-        long spins = 0;
-        for (Future<Long> part : parts) {
-            spins += part.get();
-        }
-        return spins;
+        return BusyModel.bareLoop(barePool, threads, evaluations(), costMicros);
     }
 }

@@ -1,11 +1,8 @@
 package org.skerry.benchmarks;
 
-import java.util.ArrayList;
-import java.util.List;
 import java.util.Map;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
-import java.util.concurrent.Future;
 import java.util.concurrent.TimeUnit;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -121,22 +118,6 @@ public class SparkOverheadBenchmark extends SparkForkedBenchmark {
     /** The floor: the same number of likelihood calls split evenly over the same threads. */
     @Benchmark
     public long bareLikelihoodLoop() throws Exception {
-        long total = evaluations(particles, temperatures, steps);
-        List<Future<Long>> parts = new ArrayList<>();
-        for (int t = 0; t < threads; t++) {
-            long share = total / threads + (t < total % threads ? 1 : 0);
-            parts.add(barePool.submit(() -> {
-                long spins = 0;
-                for (long i = 0; i < share; i++) {
-                    spins += BusyModel.spin(costMicros * 1000L);
-                }
-                return spins;
-            }));
-        }
-        long spins = 0;
-        for (Future<Long> part : parts) {
-            spins += part.get();
-        }
-        return spins;
+        return BusyModel.bareLoop(barePool, threads, evaluations(particles, temperatures, steps), costMicros);
     }
 }
