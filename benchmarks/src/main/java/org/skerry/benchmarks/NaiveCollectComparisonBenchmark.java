@@ -21,7 +21,6 @@ import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.SamplerResult;
 import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.sampler.SmcSampler;
-import org.skerry.engine.temper.FixedSchedule;
 import org.skerry.spark.SparkBackend;
 
 /**
@@ -40,27 +39,8 @@ import org.skerry.spark.SparkBackend;
 @Measurement(iterations = 4)
 public class NaiveCollectComparisonBenchmark extends SparkForkedBenchmark {
 
-    @Param("4000")
-    public int particles;
-
     @Param("2")
     public int dimension;
-
-    @Param("1000")
-    public long costMicros;
-
-    @Param("2")
-    public int threads;
-
-    @Param("4")
-    public int temperatures;
-
-    @Param("2")
-    public int steps;
-
-    /** Partitions for both backends; 0 means three per core. */
-    @Param("0")
-    public int partitions;
 
     private ModelSource source;
     private SparkBackend spark;
@@ -74,19 +54,14 @@ public class NaiveCollectComparisonBenchmark extends SparkForkedBenchmark {
         source = new BusyModelSource(dimension, costMicros);
         spark = LocalSpark.start("local[" + threads + "]", partitions, Map.of());
         naive = new NaiveCollectBackend(spark.context(), partitions);
-        settings = settings(particles);
+        settings = fixedSettings(particles);
         checkSameAnswer();
-    }
-
-    private SamplerSettings settings(int n) {
-        return SamplerSettings.builder().particles(n).seed(11)
-                .temperatureRule(FixedSchedule.power(temperatures, 3.0)).fixedSteps(steps).build();
     }
 
     /** Both backends on 500 particles with a free likelihood: same evidence, same final particles. */
     private void checkSameAnswer() {
         ModelSource cheap = new BusyModelSource(dimension, 0);
-        SmcSampler sampler = new SmcSampler(settings(500));
+        SmcSampler sampler = new SmcSampler(fixedSettings(500));
         SamplerResult a = sampler.run(cheap, spark, IterationListener.NONE);
         SamplerResult b = sampler.run(cheap, naive, IterationListener.NONE);
         if (Double.compare(a.evidence().logEvidence(), b.evidence().logEvidence()) != 0
@@ -112,7 +87,7 @@ public class NaiveCollectComparisonBenchmark extends SparkForkedBenchmark {
         long start = System.nanoTime();
         SamplerResult result = new SmcSampler(settings).run(source, backend, IterationListener.NONE);
         phases.add(result, (System.nanoTime() - start) * 1e-9);
-        long expected = evaluations(particles, temperatures, steps);
+        long expected = evaluations();
         if (result.evaluations().evaluations() != expected) {
             throw new IllegalStateException("expected " + expected + " evaluations, made "
                     + result.evaluations().evaluations());

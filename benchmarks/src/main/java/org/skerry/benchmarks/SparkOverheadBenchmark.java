@@ -23,7 +23,6 @@ import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.SamplerResult;
 import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.sampler.SmcSampler;
-import org.skerry.engine.temper.FixedSchedule;
 import org.skerry.spark.SparkBackend;
 
 /**
@@ -41,25 +40,6 @@ import org.skerry.spark.SparkBackend;
 @Measurement(iterations = 4)
 public class SparkOverheadBenchmark extends SparkForkedBenchmark {
 
-    @Param("4000")
-    public int particles;
-
-    @Param("1000")
-    public long costMicros;
-
-    @Param("2")
-    public int threads;
-
-    @Param("4")
-    public int temperatures;
-
-    @Param("2")
-    public int steps;
-
-    /** Spark partitions per population; 0 lets the backend choose (three per core). */
-    @Param("0")
-    public int partitions;
-
     private ModelSource source;
     private SparkBackend spark;
     private ThreadPoolBackend threadBackend;
@@ -74,8 +54,7 @@ public class SparkOverheadBenchmark extends SparkForkedBenchmark {
         spark = LocalSpark.start("local[" + threads + "]", partitions, Map.of());
         threadBackend = new ThreadPoolBackend(threads, 0);
         barePool = Executors.newFixedThreadPool(threads);
-        settings = SamplerSettings.builder().particles(particles).seed(11)
-                .temperatureRule(FixedSchedule.power(temperatures, 3.0)).fixedSteps(steps).build();
+        settings = fixedSettings(particles);
     }
 
     @TearDown(Level.Trial)
@@ -97,7 +76,7 @@ public class SparkOverheadBenchmark extends SparkForkedBenchmark {
         long start = System.nanoTime();
         SamplerResult result = new SmcSampler(settings).run(source, backend, IterationListener.NONE);
         phases.add(result, (System.nanoTime() - start) * 1e-9);
-        long expected = evaluations(particles, temperatures, steps);
+        long expected = evaluations();
         if (result.evaluations().evaluations() != expected) {
             throw new IllegalStateException("expected " + expected + " evaluations, made "
                     + result.evaluations().evaluations());
@@ -118,6 +97,6 @@ public class SparkOverheadBenchmark extends SparkForkedBenchmark {
     /** The floor: the same number of likelihood calls split evenly over the same threads. */
     @Benchmark
     public long bareLikelihoodLoop() throws Exception {
-        return BusyModel.bareLoop(barePool, threads, evaluations(particles, temperatures, steps), costMicros);
+        return BusyModel.bareLoop(barePool, threads, evaluations(), costMicros);
     }
 }
