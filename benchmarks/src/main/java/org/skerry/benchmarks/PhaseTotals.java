@@ -28,7 +28,7 @@ final class PhaseTotals {
             evaluate += t.evaluate();
             temperature += t.temperature();
             reweight += t.reweight();
-            resample += t.resample();
+            resample += t.resample() + t.redistribute();
             fit += t.fit();
             move += t.move();
         }

@@ -204,9 +204,10 @@ final class SparkPopulation implements Population {
         for (Object report : commit(expanded)) {
             distinct += (Long) report;
         }
+        long redistributeStart = System.nanoTime();
         Redistribution redistribution = Redistribution.plan(ResamplingPlanner.expandedLayout(plans));
         redistribute(redistribution);
-        return new ResamplingReport(distinct, redistribution.movedCount());
+        return new ResamplingReport(distinct, redistribution.movedCount(), (System.nanoTime() - redistributeStart) * 1e-9);
     }
 
     /** Moves only the runs the plan names; each partition keeps the part of its run it will hold. */

@@ -7,15 +7,25 @@ package org.skerry.engine.sampler;
  * @param evaluate    initial draws and their likelihood evaluations (iteration 0 only)
  * @param temperature gathering weights and choosing the next temperature
  * @param reweight    updating the weights
- * @param resample    resampling and rebalancing
+ * @param resample    resampling: offspring counts and expansion of the survivors
+ * @param redistribute moving surplus copies between blocks to rebalance them
  * @param fit         moment sums and proposal fit
  * @param move        Metropolis–Hastings steps (where the likelihood calls happen)
+ * @param checkpoint  writing the checkpoint, when one was written
  */
-public record PhaseTimes(double evaluate, double temperature, double reweight, double resample, double fit,
-        double move) {
+public record PhaseTimes(double evaluate, double temperature, double reweight, double resample,
+        double redistribute, double fit, double move, double checkpoint) {
+
+    /** No time in any phase. */
+    public static final PhaseTimes ZERO = new PhaseTimes(0, 0, 0, 0, 0, 0, 0, 0);
 
     /** Sum of all phases. */
     public double total() {
-        return evaluate + temperature + reweight + resample + fit + move;
+        return evaluate + temperature + reweight + resample + redistribute + fit + move + checkpoint;
+    }
+
+    /** The same times with the checkpoint phase set to {@code seconds}. */
+    public PhaseTimes withCheckpoint(double seconds) {
+        return new PhaseTimes(evaluate, temperature, reweight, resample, redistribute, fit, move, seconds);
     }
 }

@@ -111,7 +111,7 @@ public final class SmcSampler {
         IterationRecord initial = new IterationRecord(0, 0.0, LogWeights.effectiveSampleSize(inputs.logWeight(), n),
                 false, n, 0, Double.NaN, 0, scale, logEvidence, logEvidence, total.evaluations(),
                 total.zeroLikelihood(), total.invalid(), total.firstInvalidIndex(), total.firstInvalidReason(),
-                new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0));
+                new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0));
         records.add(initial);
         listener.iterationFinished(initial);
 
@@ -159,6 +159,7 @@ public final class SmcSampler {
             phase = System.nanoTime();
             long ancestors = LogWeights.countAlive(newLogWeight, n);
             long moved = 0;
+            double redistributeSeconds = 0;
             boolean resample;
             boolean global;
             if (islands == null) {
@@ -184,9 +185,10 @@ public final class SmcSampler {
                 }
                 ancestors = report.distinctAncestors();
                 moved = report.particlesMoved();
+                redistributeSeconds = report.redistributeSeconds();
                 resamplings++;
             }
-            double resampleSeconds = seconds(phase);
+            double resampleSeconds = seconds(phase) - redistributeSeconds;
 
             phase = System.nanoTime();
             MomentSums moments = population.moments(logTotal);
@@ -216,7 +218,8 @@ public final class SmcSampler {
                     moves.acceptanceRate(), steps, usedScale, increment, logEvidence, evaluations.evaluations(),
                     evaluations.zeroLikelihood(), evaluations.invalid(), evaluations.firstInvalidIndex(),
                     evaluations.firstInvalidReason(),
-                    new PhaseTimes(0, temperatureSeconds, reweightSeconds, resampleSeconds, fitSeconds, moveSeconds));
+                    new PhaseTimes(0, temperatureSeconds, reweightSeconds, resampleSeconds, redistributeSeconds,
+                            fitSeconds, moveSeconds, 0));
             records.add(record);
             listener.iterationFinished(record);
         }

@@ -29,7 +29,8 @@ public final class IterationsCsv {
         "iteration", "temperature", "ess", "resampled", "distinct_ancestors", "particles_moved",
         "acceptance", "mh_steps", "scale", "log_evidence_increment", "log_evidence", "evaluations",
         "zero_likelihood", "invalid", "first_invalid_particle", "first_invalid_reason", "seconds_evaluate",
-        "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_fit", "seconds_move",
+        "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_redistribute", "seconds_fit",
+        "seconds_move", "seconds_checkpoint",
     };
 
     private IterationsCsv() {
@@ -58,7 +59,8 @@ public final class IterationsCsv {
                         r.mhSteps(), DoubleText.format(r.scale()), DoubleText.format(r.logEvidenceIncrement()),
                         DoubleText.format(r.logEvidence()), r.evaluations(), r.zeroLikelihood(), r.invalidEvaluations(),
                         invalid ? r.firstInvalidIndex() : null, invalid ? r.firstInvalidReason() : null,
-                        seconds(t, 0), seconds(t, 1), seconds(t, 2), seconds(t, 3), seconds(t, 4), seconds(t, 5));
+                        seconds(t, 0), seconds(t, 1), seconds(t, 2), seconds(t, 3), seconds(t, 4), seconds(t, 5),
+                        seconds(t, 6), seconds(t, 7));
             }
             printer.flush();
         });
@@ -69,7 +71,8 @@ public final class IterationsCsv {
         if (t == null) {
             return null;
         }
-        double[] all = {t.evaluate(), t.temperature(), t.reweight(), t.resample(), t.fit(), t.move()};
+        double[] all = {t.evaluate(), t.temperature(), t.reweight(), t.resample(), t.redistribute(), t.fit(),
+            t.move(), t.checkpoint()};
         return DoubleText.format(all[phase]);
     }
 }

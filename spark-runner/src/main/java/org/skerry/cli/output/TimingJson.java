@@ -13,7 +13,8 @@ import org.skerry.engine.sampler.PhaseTimes;
  * {@code summary.json} because none of it is determined by the seed.
  *
  * <p>Keys, in this order: {@code wallSeconds}; {@code phaseSeconds}, an object holding
- * {@code evaluate, temperature, reweight, resample, fit, move}, each summed over all iterations;
+ * {@code evaluate, temperature, reweight, resample, redistribute, fit, move, checkpoint}, each summed
+ * over all iterations;
  * {@code programVersion}, {@code javaVersion}, {@code javaVendor}, {@code host}, {@code backend}
  * (null where unknown); {@code startedAt}, ISO-8601 in UTC ({@code 2025-03-01T09:30:00.250Z}).
  */
@@ -46,7 +47,7 @@ public final class TimingJson {
         if (iterations == null) {
             throw new IllegalArgumentException("iterations must not be null");
         }
-        double[] sums = new double[6];
+        double[] sums = new double[8];
         for (IterationRecord record : iterations) {
             PhaseTimes t = record.seconds();
             if (t != null) {
@@ -54,8 +55,10 @@ public final class TimingJson {
                 sums[1] += t.temperature();
                 sums[2] += t.reweight();
                 sums[3] += t.resample();
-                sums[4] += t.fit();
-                sums[5] += t.move();
+                sums[4] += t.redistribute();
+                sums[5] += t.fit();
+                sums[6] += t.move();
+                sums[7] += t.checkpoint();
             }
         }
         Path file = folder.resolve(FILE_NAME);
@@ -68,8 +71,10 @@ public final class TimingJson {
             JsonOutput.number(json, "temperature", sums[1]);
             JsonOutput.number(json, "reweight", sums[2]);
             JsonOutput.number(json, "resample", sums[3]);
-            JsonOutput.number(json, "fit", sums[4]);
-            JsonOutput.number(json, "move", sums[5]);
+            JsonOutput.number(json, "redistribute", sums[4]);
+            JsonOutput.number(json, "fit", sums[5]);
+            JsonOutput.number(json, "move", sums[6]);
+            JsonOutput.number(json, "checkpoint", sums[7]);
             json.writeEndObject();
             JsonOutput.text(json, "programVersion", environment.programVersion());
             JsonOutput.text(json, "javaVersion", environment.javaVersion());

@@ -29,7 +29,8 @@ class IterationsCsvTest {
             assertEquals(List.of("iteration", "temperature", "ess", "resampled", "distinct_ancestors", "particles_moved",
                     "acceptance", "mh_steps", "scale", "log_evidence_increment", "log_evidence", "evaluations",
                     "zero_likelihood", "invalid", "first_invalid_particle", "first_invalid_reason", "seconds_evaluate",
-                    "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_fit", "seconds_move"),
+                    "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_redistribute", "seconds_fit",
+                    "seconds_move", "seconds_checkpoint"),
                     parser.getHeaderNames());
             return parser.getRecords();
         }
@@ -66,8 +67,10 @@ class IterationsCsvTest {
         assertSameDouble(t.temperature(), row.get("seconds_temperature"));
         assertSameDouble(t.reweight(), row.get("seconds_reweight"));
         assertSameDouble(t.resample(), row.get("seconds_resample"));
+        assertSameDouble(t.redistribute(), row.get("seconds_redistribute"));
         assertSameDouble(t.fit(), row.get("seconds_fit"));
         assertSameDouble(t.move(), row.get("seconds_move"));
+        assertSameDouble(t.checkpoint(), row.get("seconds_checkpoint"));
     }
 
     @Test
@@ -88,7 +91,7 @@ class IterationsCsvTest {
         SamplerResult result = EngineRuns.fragile(11);
         IterationRecord first = result.iterations().get(0);
         IterationRecord awkward = new IterationRecord(7, 0.5, 12.5, true, 3, 2, 0.25, 4, 0.75, -1e-300, -3.0,
-                10, 1, 2, 9, "line one,\r\nline \"two\"", new PhaseTimes(0, 1e-9, 2, 3, 4, 5));
+                10, 1, 2, 9, "line one,\r\nline \"two\"", new PhaseTimes(0, 1e-9, 2, 3, 0, 4, 5, 0));
         List<IterationRecord> records = Arrays.asList(first, awkward);
         List<CSVRecord> rows = read(IterationsCsv.write(folder, records));
         assertEquals(2, rows.size());

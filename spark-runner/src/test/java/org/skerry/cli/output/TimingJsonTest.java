@@ -29,9 +29,9 @@ class TimingJsonTest {
     @DisplayName("phase seconds are summed over iterations; environment fields and start time read back")
     void readsBack() throws IOException {
         List<IterationRecord> records = List.of(
-                record(0, new PhaseTimes(0.5, 0, 0, 0, 0, 0)),
-                record(1, new PhaseTimes(0, 0.125, 0.25, 0.375, 0.0625, 1.5)),
-                record(2, new PhaseTimes(0, 0.1, 0.2, 0.3, 0.4, 0.7)),
+                record(0, new PhaseTimes(0.5, 0, 0, 0, 0, 0, 0, 0)),
+                record(1, new PhaseTimes(0, 0.125, 0.25, 0.375, 0, 0.0625, 1.5, 0)),
+                record(2, new PhaseTimes(0, 0.1, 0.2, 0.3, 0, 0.4, 0.7, 0)),
                 record(3, null));
         Instant start = Instant.parse("2025-03-01T09:30:00.250Z");
         RunEnvironment environment = new RunEnvironment("0.1.0", "17.0.9", "Vendor \"X\"", null, "threads(4)", start);
@@ -41,7 +41,8 @@ class TimingJsonTest {
         assertEquals(12.75, json.get("wallSeconds"));
         @SuppressWarnings("unchecked")
         Map<String, Object> phases = (Map<String, Object>) json.get("phaseSeconds");
-        assertEquals(List.of("evaluate", "temperature", "reweight", "resample", "fit", "move"), new ArrayList<>(phases.keySet()));
+        assertEquals(List.of("evaluate", "temperature", "reweight", "resample", "redistribute", "fit", "move",
+                "checkpoint"), new ArrayList<>(phases.keySet()));
         assertEquals(0.5, phases.get("evaluate"));
         // Sums of a few terms: compared with the exactly rounded decimal sum, to within rounding.
         assertEquals(new BigDecimal("0.225").doubleValue(), (Double) phases.get("temperature"), 1e-15);

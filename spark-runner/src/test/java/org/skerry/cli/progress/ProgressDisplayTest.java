@@ -53,7 +53,7 @@ class ProgressDisplayTest {
 
     private static IterationRecord record(int iteration, double phi, double ess, double acceptance, long evaluations) {
         return new IterationRecord(iteration, phi, ess, false, 1000, 0, acceptance, 3, 1.0, 0, 0, evaluations, 0, 0, -1,
-                null, new PhaseTimes(0, 0, 0, 0, 0, 0));
+                null, new PhaseTimes(0, 0, 0, 0, 0, 0, 0, 0));
     }
 
     private final ByteArrayOutputStream bytes = new ByteArrayOutputStream();

@@ -71,10 +71,12 @@ final class BlockResampling {
             ancestors[b] = ParticleExpansion.distinctAncestors(offspring[b], size[b]);
             return ParticleExpansion.expand(blocks.get(b), offspring[b], plans[b].firstNewIndex());
         });
+        long redistributeStart = System.nanoTime();
         Redistribution redistribution = Redistribution.plan(ResamplingPlanner.expandedLayout(plans));
         ParticleBlock[] balanced = redistribution.apply(expanded.toArray(new ParticleBlock[0]));
+        double redistributeSeconds = (System.nanoTime() - redistributeStart) * 1e-9;
         long distinct = Arrays.stream(ancestors).sum();
         return new Result(new ArrayList<>(Arrays.asList(balanced)),
-                new ResamplingReport(distinct, redistribution.movedCount()));
+                new ResamplingReport(distinct, redistribution.movedCount(), redistributeSeconds));
     }
 }
