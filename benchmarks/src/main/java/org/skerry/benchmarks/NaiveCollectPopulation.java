@@ -222,6 +222,18 @@ final class NaiveCollectPopulation implements Population {
                 copy(all.eve(), 0, size));
     }
 
+    /** The baseline measures a run without checkpoints; it has none to write. */
+    @Override
+    public List<org.skerry.engine.population.StoredBlock> writeBlocks(org.skerry.engine.population.BlockStore store) {
+        throw new UnsupportedOperationException("the naive baseline does not write checkpoints");
+    }
+
+    @Override
+    public List<String> readBlocks(org.skerry.engine.population.BlockStore store,
+            List<org.skerry.engine.population.StoredBlock> blocks) {
+        throw new UnsupportedOperationException("the naive baseline does not read checkpoints");
+    }
+
     @Override
     public PopulationSnapshot snapshot() {
         return new PopulationSnapshot(List.of(all.copy()));

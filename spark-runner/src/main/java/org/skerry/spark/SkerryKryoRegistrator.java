@@ -9,6 +9,7 @@ import org.skerry.engine.particle.ParticleBlock;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.population.MomentSums;
 import org.skerry.engine.population.MoveTally;
+import org.skerry.engine.population.StoredBlock;
 import org.skerry.engine.resample.BlockResamplingPlan;
 import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.resample.ResidualTotals;
@@ -41,5 +42,6 @@ public final class SkerryKryoRegistrator implements KryoRegistrator {
         kryo.register(int[].class);
         kryo.register(Object[].class);
         kryo.register(ParticleBlock[].class);
+        kryo.register(StoredBlock.class);
     }
 }

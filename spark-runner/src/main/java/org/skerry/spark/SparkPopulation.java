@@ -13,6 +13,7 @@ import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.move.Proposal;
 import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.BlockStore;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.population.FinalParticles;
 import org.skerry.engine.population.MomentSums;
@@ -20,7 +21,9 @@ import org.skerry.engine.population.MoveTally;
 import org.skerry.engine.population.Population;
 import org.skerry.engine.population.PopulationSnapshot;
 import org.skerry.engine.population.ResamplingReport;
+import org.skerry.engine.population.StoredBlock;
 import org.skerry.engine.population.TemperingInputs;
+import org.skerry.engine.population.block.BlockReading;
 import org.skerry.engine.population.block.InitialDraw;
 import org.skerry.engine.population.block.IslandResampling;
 import org.skerry.engine.population.block.LikelihoodEvaluator;
@@ -52,7 +55,7 @@ final class SparkPopulation implements Population {
     private final ModelSource source;
     private final int size;
     private final long seed;
-    private final int partitions;
+    private int partitions;
     private final int dimension;
     private JavaRDD<PartitionState> states;
 
@@ -324,6 +327,67 @@ final class SparkPopulation implements Population {
             index[at] = block.index()[i];
             eve[at] = block.eve()[i];
         }
+    }
+
+    /**
+     * Executors write their own blocks in parallel; then the population is rebuilt from those
+     * files, which cuts its lineage: a lost partition is read back from the checkpoint instead of
+     * being recomputed from the initial draw.
+     */
+    @Override
+    public List<StoredBlock> writeBlocks(BlockStore store) {
+        List<StoredBlock> stored = states.mapPartitionsWithIndex((p, iterator) ->
+                List.of(store.write(p, iterator.next().block)).iterator(), true).collect();
+        List<String> problems = replaceFromFiles(store, stored);
+        if (!problems.isEmpty()) {
+            throw new java.io.UncheckedIOException(new java.io.IOException("the checkpoint just written to "
+                    + store.location() + " does not read back: " + String.join("; ", problems)));
+        }
+        return stored;
+    }
+
+    @Override
+    public List<String> readBlocks(BlockStore store, List<StoredBlock> stored) {
+        long particles = 0;
+        for (StoredBlock block : stored) {
+            particles += block.particles();
+        }
+        if (particles != size) {
+            return List.of("the checkpoint's blocks hold " + particles + " particles; the run has " + size);
+        }
+        return replaceFromFiles(store, stored);
+    }
+
+    /** Makes the blocks in {@code stored} the population, unless some do not read back (returned). */
+    private List<String> replaceFromFiles(BlockStore store, List<StoredBlock> stored) {
+        long[] first = new long[stored.size()];
+        long running = 0;
+        for (int b = 0; b < stored.size(); b++) {
+            first[b] = running;
+            running += stored.get(b).particles();
+        }
+        int d = dimension;
+        JavaRDD<PartitionState> next = context.parallelize(stored, stored.size()).mapPartitionsWithIndex((p, iterator) -> {
+            BlockReading.Outcome outcome = BlockReading.read(store, iterator.next(), first[p], d);
+            return List.of(new PartitionState(outcome.block(), outcome.problem())).iterator();
+        }, true);
+        next.persist(StorageLevel.MEMORY_ONLY());
+        List<String> problems = new ArrayList<>();
+        for (Object report : next.map(state -> state.report).collect()) {
+            if (report != null) {
+                problems.add((String) report);
+            }
+        }
+        if (!problems.isEmpty()) {
+            next.unpersist(false);
+            return problems;
+        }
+        if (states != null) {
+            states.unpersist(false);
+        }
+        states = next;
+        partitions = stored.size();
+        return problems;
     }
 
     @Override

@@ -1,5 +1,6 @@
 package org.skerry.engine.population;
 
+import java.util.List;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.move.Proposal;
 import org.skerry.engine.resample.ResamplingScheme;
@@ -58,6 +59,26 @@ public interface Population extends AutoCloseable {
 
     /** All particles in canonical order. Used once, at the end of a run. */
     FinalParticles export();
+
+    /**
+     * Writes every block through {@code store}, in parallel where the blocks live, and from then on
+     * treats those files as the population's origin: a distributed backend that loses a block
+     * reads it back instead of recomputing the run from its start.
+     *
+     * @return one entry per block, in block order
+     * @throws java.io.UncheckedIOException when a block cannot be written
+     */
+    List<StoredBlock> writeBlocks(BlockStore store);
+
+    /**
+     * Replaces the population with the blocks of a checkpoint, in the checkpoint's layout (block
+     * count and sizes), whatever the backend's own default layout.
+     *
+     * @return what is wrong with the checkpoint (one line per damaged or missing block, naming
+     *         its file), empty when every block read back; when not empty the population is
+     *         unchanged
+     */
+    List<String> readBlocks(BlockStore store, List<StoredBlock> blocks);
 
     /** A copy of the population's state, from which {@link #restore} can continue bit for bit. */
     PopulationSnapshot snapshot();

@@ -32,6 +32,30 @@ final class IslandLedger {
         }
     }
 
+    /** A ledger continuing from saved island sizes, evidences and independence. */
+    static IslandLedger restored(int[] islandSizes, double[] islandLogEvidence, boolean independent) {
+        IslandLedger ledger = new IslandLedger(islandSizes, null, false);
+        System.arraycopy(islandLogEvidence, 0, ledger.logEvidence, 0, ledger.logEvidence.length);
+        ledger.independent = independent;
+        return ledger;
+    }
+
+    int[] sizes() {
+        int[] sizes = new int[islands()];
+        for (int i = 0; i < sizes.length; i++) {
+            sizes[i] = size(i);
+        }
+        return sizes;
+    }
+
+    double[] logEvidences() {
+        return logEvidence.clone();
+    }
+
+    boolean independent() {
+        return independent;
+    }
+
     int islands() {
         return logEvidence.length;
     }

@@ -64,11 +64,39 @@ public final class SmcSampler {
      * each executor.
      */
     public SamplerResult run(ModelSource source, PopulationBackend backend, IterationListener listener) {
+        return run(source, backend, listener, Checkpointer.NONE, StopCondition.NEVER);
+    }
+
+    /**
+     * Runs to φ = 1, checkpointing as {@code checkpointer} says and stopping early (after a final
+     * checkpoint, with {@link RunStoppedException}) when {@code stop} gives a reason.
+     */
+    public SamplerResult run(ModelSource source, PopulationBackend backend, IterationListener listener,
+            Checkpointer checkpointer, StopCondition stop) {
         Model model = source.create();
         checkModel(model);
         try (Population population = backend.create(source, settings.particles(), settings.seed(),
                 settings.islands())) {
-            return run(model, population, listener);
+            Walk walk = new Walk(model, population, listener, checkpointer, stop);
+            walk.start();
+            return walk.toEnd();
+        }
+    }
+
+    /**
+     * Continues a run from a checkpoint: {@code from} fills a new population with the saved blocks
+     * and returns the saved driver state; the result is bit for bit the one the undisturbed run
+     * would have given (timings aside).
+     */
+    public SamplerResult resume(ModelSource source, PopulationBackend backend, IterationListener listener,
+            Checkpointer checkpointer, StopCondition stop, Resumption from) {
+        Model model = source.create();
+        checkModel(model);
+        try (Population population = backend.create(source, settings.particles(), settings.seed(),
+                settings.islands())) {
+            Walk walk = new Walk(model, population, listener, checkpointer, stop);
+            walk.restore(from.restore(population));
+            return walk.toEnd();
         }
     }
 
@@ -88,51 +116,148 @@ public final class SmcSampler {
         }
     }
 
-    private SamplerResult run(Model model, Population population, IterationListener listener) {
-        int n = settings.particles();
-        double logN = StrictMath.log(n);
-        List<IterationRecord> records = new ArrayList<>();
+    /** One run's walk from prior to posterior: the loop's state between iterations. */
+    private final class Walk {
 
-        long start = System.nanoTime();
-        EvaluationTally total = population.initialise(settings.startProposal());
-        double evaluateSeconds = seconds(start);
-        TemperingInputs inputs = population.temperingInputs();
-        double logTotal = LogWeights.logSum(inputs.logWeight(), n);
-        if (logTotal == Double.NEGATIVE_INFINITY) {
-            throw new SamplingFailedException(0, "every particle's weight is zero after the initial draw ("
-                    + n + " particles; " + total + ")");
+        private final Model model;
+        private final Population population;
+        private final IterationListener listener;
+        private final Checkpointer checkpointer;
+        private final StopCondition stop;
+        private final int n = settings.particles();
+        private final double logN = StrictMath.log(n);
+        private final List<IterationRecord> records = new ArrayList<>();
+
+        private TemperingInputs inputs;
+        private int iteration;
+        private double temperature;
+        private double scale;
+        private double logEvidence;
+        private double logTotal;
+        private int resamplings;
+        private EvaluationTally total;
+        private IslandLedger islands;
+        private int checkpointed = -1;
+
+        Walk(Model model, Population population, IterationListener listener, Checkpointer checkpointer,
+                StopCondition stop) {
+            this.model = model;
+            this.population = population;
+            this.listener = listener;
+            this.checkpointer = checkpointer;
+            this.stop = stop;
         }
-        double logEvidence = settings.startProposal() == null ? 0.0 : logTotal - logN;
-        IslandLedger islands = settings.islands() > 0
-                ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.startProposal() != null) : null;
-        double temperature = 0.0;
-        double scale = settings.initialScale();
-        int resamplings = 0;
-        IterationRecord initial = new IterationRecord(0, 0.0, LogWeights.effectiveSampleSize(inputs.logWeight(), n),
-                false, n, 0, Double.NaN, 0, scale, logEvidence, logEvidence, total.evaluations(),
-                total.zeroLikelihood(), total.invalid(), total.firstInvalidIndex(), total.firstInvalidReason(),
-                new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0));
-        records.add(initial);
-        listener.iterationFinished(initial);
 
-        TemperatureRule rule = settings.temperatureRule();
-        int iteration = 0;
-        while (temperature < 1.0) {
+        /** The initial draw: iteration 0. */
+        void start() {
+            long start = System.nanoTime();
+            total = population.initialise(settings.startProposal());
+            double evaluateSeconds = seconds(start);
+            inputs = population.temperingInputs();
+            logTotal = LogWeights.logSum(inputs.logWeight(), n);
+            if (logTotal == Double.NEGATIVE_INFINITY) {
+                throw new SamplingFailedException(0, "every particle's weight is zero after the initial draw ("
+                        + n + " particles; " + total + ")");
+            }
+            logEvidence = settings.startProposal() == null ? 0.0 : logTotal - logN;
+            islands = settings.islands() > 0
+                    ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.startProposal() != null) : null;
+            temperature = 0.0;
+            scale = settings.initialScale();
+            resamplings = 0;
+            iteration = 0;
+            finishIteration(new IterationRecord(0, 0.0, LogWeights.effectiveSampleSize(inputs.logWeight(), n),
+                    false, n, 0, Double.NaN, 0, scale, logEvidence, logEvidence, total.evaluations(),
+                    total.zeroLikelihood(), total.invalid(), total.firstInvalidIndex(), total.firstInvalidReason(),
+                    new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0)));
+        }
+
+        /** Continues from a saved state, the population already holding the saved blocks. */
+        void restore(SamplerState state) {
+            if (state.islandSizes() != null && settings.islands() != state.islandSizes().length) {
+                throw new IllegalArgumentException("the checkpoint has " + state.islandSizes().length
+                        + " islands; the settings ask for " + settings.islands());
+            }
+            iteration = state.iteration();
+            temperature = state.temperature();
+            scale = state.scale();
+            logEvidence = state.logEvidence();
+            logTotal = state.logTotal();
+            resamplings = state.resamplings();
+            total = state.evaluations();
+            records.addAll(state.records());
+            islands = state.islandSizes() == null ? null
+                    : IslandLedger.restored(state.islandSizes(), state.islandLogEvidence(), state.islandsIndependent());
+            checkpointed = iteration;
+            inputs = null;
+        }
+
+        SamplerResult toEnd() {
+            while (temperature < 1.0) {
+                String reason = stop.reasonToStop(state(), predictedSeconds());
+                if (reason != null) {
+                    if (checkpointer.enabled() && checkpointed != iteration) {
+                        checkpointer.write(state(), population);
+                    }
+                    throw new RunStoppedException(iteration, reason);
+                }
+                step();
+            }
+            return result();
+        }
+
+        private SamplerState state() {
+            return new SamplerState(iteration, temperature, scale, logEvidence, logTotal, resamplings, total, records,
+                    islands == null ? null : islands.sizes(), islands == null ? null : islands.logEvidences(),
+                    islands == null || islands.independent());
+        }
+
+        /** The longest of the last three iterations: a cautious guess at the next one's wall time. */
+        private double predictedSeconds() {
+            double longest = 0;
+            for (int k = Math.max(1, records.size() - 3); k < records.size(); k++) {
+                longest = Math.max(longest, records.get(k).seconds().total());
+            }
+            return longest;
+        }
+
+        /** Records an iteration, checkpoints when due (and at the end), then tells the listener. */
+        private void finishIteration(IterationRecord record) {
+            records.add(record);
+            if (checkpointer.due(iteration) || (temperature >= 1.0 && checkpointer.enabled())) {
+                long phase = System.nanoTime();
+                checkpointer.write(state(), population);
+                checkpointed = iteration;
+                record = new IterationRecord(record.iteration(), record.temperature(), record.ess(), record.resampled(),
+                        record.distinctAncestors(), record.particlesMoved(), record.acceptanceRate(), record.mhSteps(),
+                        record.scale(), record.logEvidenceIncrement(), record.logEvidence(), record.evaluations(),
+                        record.zeroLikelihood(), record.invalidEvaluations(), record.firstInvalidIndex(),
+                        record.firstInvalidReason(), record.seconds().withCheckpoint(seconds(phase)));
+                records.set(records.size() - 1, record);
+            }
+            listener.iterationFinished(record);
+        }
+
+        private void step() {
             iteration++;
             if (iteration > settings.maxIterations()) {
                 throw new SamplingFailedException(iteration, "tempering reached only φ = " + temperature
                         + " after " + settings.maxIterations() + " iterations (maxIterations)");
             }
             long phase = System.nanoTime();
-            inputs = iteration == 1 ? inputs : population.temperingInputs();
+            inputs = inputs != null ? inputs : population.temperingInputs();
+            TemperatureRule rule = settings.temperatureRule();
             double next = rule.next(temperature, inputs, logTotal);
             if (!(next > temperature && next <= 1.0)) {
                 throw new IllegalStateException("temperature rule " + rule + " returned " + next + " after " + temperature);
             }
+            double[] logWeight = inputs.logWeight();
+            double[] logLikelihood = inputs.logLikelihood();
+            inputs = null;
             double[] newLogWeight = new double[n];
             double delta = next - temperature;
             for (int i = 0; i < n; i++) {
-                newLogWeight[i] = inputs.logWeight()[i] + TemperedTarget.logIncrement(inputs.logLikelihood()[i], delta);
+                newLogWeight[i] = logWeight[i] + TemperedTarget.logIncrement(logLikelihood[i], delta);
             }
             double newLogTotal = LogWeights.logSum(newLogWeight, n);
             double ess = LogWeights.effectiveSampleSize(newLogWeight, n);
@@ -147,7 +272,7 @@ public final class SmcSampler {
             double increment = newLogTotal - logTotal;
             logEvidence += increment;
             if (islands != null) {
-                islands.advance(inputs.logWeight(), newLogWeight);
+                islands.advance(logWeight, newLogWeight);
             }
 
             phase = System.nanoTime();
@@ -214,27 +339,27 @@ public final class SmcSampler {
             EvaluationTally evaluations = moves.evaluations();
             total = total.followedBy(evaluations);
 
-            IterationRecord record = new IterationRecord(iteration, temperature, ess, resample, ancestors, moved,
+            finishIteration(new IterationRecord(iteration, temperature, ess, resample, ancestors, moved,
                     moves.acceptanceRate(), steps, usedScale, increment, logEvidence, evaluations.evaluations(),
                     evaluations.zeroLikelihood(), evaluations.invalid(), evaluations.firstInvalidIndex(),
                     evaluations.firstInvalidReason(),
                     new PhaseTimes(0, temperatureSeconds, reweightSeconds, resampleSeconds, redistributeSeconds,
-                            fitSeconds, moveSeconds, 0));
-            records.add(record);
-            listener.iterationFinished(record);
+                            fitSeconds, moveSeconds, 0)));
         }
 
-        FinalParticles particles = population.export();
-        double finalLogTotal = LogWeights.logSum(particles.logWeight(), n);
-        double[] weights = new double[n];
-        LogWeights.normalise(particles.logWeight(), n, finalLogTotal, weights);
-        List<ParameterSummary> summaries = PosteriorSummaries.summarise(particles, weights, model.parameters());
-        EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights, resamplings,
-                settings.minimumDistinctEves());
-        if (islands != null) {
-            evidence = evidence.withIslands(islands.islands(), islands.standardError());
+        private SamplerResult result() {
+            FinalParticles particles = population.export();
+            double finalLogTotal = LogWeights.logSum(particles.logWeight(), n);
+            double[] weights = new double[n];
+            LogWeights.normalise(particles.logWeight(), n, finalLogTotal, weights);
+            List<ParameterSummary> summaries = PosteriorSummaries.summarise(particles, weights, model.parameters());
+            EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights, resamplings,
+                    settings.minimumDistinctEves());
+            if (islands != null) {
+                evidence = evidence.withIslands(islands.islands(), islands.standardError());
+            }
+            return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights);
         }
-        return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights);
     }
 
     private static double seconds(long startNanos) {

@@ -49,12 +49,12 @@ class SameSeedSameAnswerTest {
         }
     }
 
-    private static Model model() {
+    static Model model() {
         double[][] data = SyntheticData.normalRows(21, 12, new double[] {0.5, -0.5}, 1.0);
         return new NoisyModel(NormalMeanModel.of(data, 1.0, 0.0, 2.0));
     }
 
-    private static List<String> fingerprint(SamplerResult result) {
+    static List<String> fingerprint(SamplerResult result) {
         List<String> lines = new ArrayList<>();
         lines.add(Double.toHexString(result.evidence().logEvidence()) + " " + Double.toHexString(result.evidence().relativeVariance()));
         for (ParameterSummary p : result.parameters()) {

@@ -1,11 +1,14 @@
 package org.skerry.engine.population.threads;
 
+import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.util.ArrayList;
 import java.util.List;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.move.Proposal;
 import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.BlockStore;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.population.FinalParticles;
 import org.skerry.engine.population.MomentSums;
@@ -13,7 +16,9 @@ import org.skerry.engine.population.MoveTally;
 import org.skerry.engine.population.Population;
 import org.skerry.engine.population.PopulationSnapshot;
 import org.skerry.engine.population.ResamplingReport;
+import org.skerry.engine.population.StoredBlock;
 import org.skerry.engine.population.TemperingInputs;
+import org.skerry.engine.population.block.BlockReading;
 import org.skerry.engine.population.block.InitialDraw;
 import org.skerry.engine.population.block.IslandResampling;
 import org.skerry.engine.population.block.LikelihoodEvaluator;
@@ -163,6 +168,53 @@ final class ThreadPopulation implements Population {
             }
         }
         return new FinalParticles(d, size, values, logWeight, logLikelihood, index, eve);
+    }
+
+    @Override
+    public List<StoredBlock> writeBlocks(BlockStore store) {
+        List<Integer> numbers = new ArrayList<>(blocks.size());
+        for (int b = 0; b < blocks.size(); b++) {
+            numbers.add(b);
+        }
+        List<ParticleBlock> current = blocks;
+        return backend.map(numbers, b -> {
+            try {
+                return store.write(b, current.get(b));
+            } catch (IOException e) {
+                throw new UncheckedIOException("cannot write block " + b + " to " + store.location() + ": " + e, e);
+            }
+        });
+    }
+
+    @Override
+    public List<String> readBlocks(BlockStore store, List<StoredBlock> stored) {
+        long[] first = new long[stored.size()];
+        long running = 0;
+        List<Integer> numbers = new ArrayList<>(stored.size());
+        for (int b = 0; b < stored.size(); b++) {
+            first[b] = running;
+            running += stored.get(b).particles();
+            numbers.add(b);
+        }
+        List<String> problems = new ArrayList<>();
+        if (running != size) {
+            problems.add("the checkpoint's blocks hold " + running + " particles; the run has " + size);
+            return problems;
+        }
+        int d = model.dimension();
+        List<BlockReading.Outcome> outcomes = backend.map(numbers,
+                b -> BlockReading.read(store, stored.get(b), first[b], d));
+        List<ParticleBlock> read = new ArrayList<>(outcomes.size());
+        for (BlockReading.Outcome outcome : outcomes) {
+            if (outcome.problem() != null) {
+                problems.add(outcome.problem());
+            }
+            read.add(outcome.block());
+        }
+        if (problems.isEmpty()) {
+            blocks = read;
+        }
+        return problems;
     }
 
     @Override
