@@ -7,20 +7,43 @@ import java.nio.file.Path;
 import java.time.Instant;
 import java.time.ZoneOffset;
 import java.time.format.DateTimeFormatter;
+import java.util.List;
+import java.util.Map;
+import java.util.SortedMap;
+import java.util.TreeMap;
 import java.util.stream.Stream;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.skerry.cli.output.RunConfFile;
+import org.skerry.cli.output.SummaryJson;
 import org.skerry.cli.progress.ProgressDisplay;
+import org.skerry.cli.runfile.AnswerSettings;
 import org.skerry.cli.runfile.ModelBuilder;
+import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.stop.StopRules;
+import org.skerry.cli.stop.TerminationSignal;
+import org.skerry.engine.sampler.Checkpointer;
 import org.skerry.engine.sampler.IterationListener;
+import org.skerry.engine.sampler.RunStoppedException;
 import org.skerry.engine.sampler.SamplerResult;
+import org.skerry.engine.sampler.SamplerState;
 import org.skerry.engine.sampler.SmcSampler;
+import org.skerry.spark.SparkBackend;
+import org.skerry.spark.checkpoint.CheckpointFileSystem;
+import org.skerry.spark.checkpoint.CheckpointFolder;
+import org.skerry.spark.checkpoint.CheckpointResumption;
+import org.skerry.spark.checkpoint.CheckpointVisibility;
+import org.skerry.spark.checkpoint.CheckpointWriteException;
+import org.skerry.spark.checkpoint.FileCheckpointer;
+import org.skerry.spark.checkpoint.SettingsChangedException;
 
 /**
  * Runs one analysis on the driver: builds the model, prepares the run folder (refusing one that
  * already holds files), saves the resolved settings first, runs the sampler with a progress
- * display, then writes the results — each file written whole or not at all, {@code summary.json}
- * last, so its presence marks a finished run.
+ * display, checkpoints and the stop rules (signal, wall time), then writes the results — each
+ * file written whole or not at all, {@code summary.json} last, so its presence marks a finished
+ * run. {@link #resume} continues such a run from its newest valid checkpoint.
  */
 public final class Analysis {
 
@@ -43,18 +66,144 @@ public final class Analysis {
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder : spec.outputFolder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
         prepare(runFolder);
-        RunOutputs.writeSettings(runFolder, spec.file().render());
+        RunOutputs.writeSettings(runFolder, forRunFolder(spec).render());
+        return execute(spec, built, runFolder, started, progressOut, false);
+    }
 
+    /**
+     * Continues the run in {@code runFolder} from its newest valid checkpoint, with its saved
+     * {@code run.conf} and {@code overrides} (which must not change the answer).
+     */
+    public static Outcome resume(Path runFolder, List<String> overrides, PrintWriter progressOut) {
+        Path conf = runFolder.resolve(RunConfFile.FILE_NAME);
+        if (!Files.isDirectory(runFolder)) {
+            throw new RunFileException("run folder " + runFolder + " does not exist");
+        }
+        if (!Files.isRegularFile(conf)) {
+            throw new RunFileException(runFolder + " is not a run folder: it has no " + RunConfFile.FILE_NAME);
+        }
+        RunSpec spec = RunSpec.from(RunFile.load(conf, overrides));
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        return execute(spec, built, runFolder, Instant.now(), progressOut, true);
+    }
+
+    /** Whether the run in {@code runFolder} has finished (its summary is written last). */
+    public static boolean finished(Path runFolder) {
+        return Files.isRegularFile(runFolder.resolve(SummaryJson.FILE_NAME));
+    }
+
+    /** The settings as saved in run.conf: paths made absolute, so the run folder works from anywhere. */
+    private static RunFile forRunFolder(RunSpec spec) {
+        RunFile file = spec.file();
+        if (spec.dataFile() != null) {
+            file = file.withValue("data.file", spec.dataFile().toString());
+        }
+        String checkpoints = spec.checkpointPath();
+        if (checkpoints != null && new org.apache.hadoop.fs.Path(checkpoints).toUri().getScheme() == null) {
+            file = file.withValue("checkpoint.path", Path.of(checkpoints).toAbsolutePath().normalize().toString());
+        }
+        return file;
+    }
+
+    /** The checkpoint root: checkpoint.path, or the run folder's checkpoints/. */
+    static CheckpointFileSystem checkpointFiles(RunSpec spec, Path runFolder) {
+        String root = spec.checkpointPath();
+        if (root == null) {
+            root = runFolder.resolve("checkpoints").toAbsolutePath().normalize().toUri().toString();
+        } else if (new org.apache.hadoop.fs.Path(root).toUri().getScheme() == null) {
+            root = Path.of(root).toAbsolutePath().normalize().toUri().toString();
+        }
+        Map<String, String> hadoop = new TreeMap<>();
+        spec.sparkSettings().forEach((key, value) -> {
+            if (key.startsWith("spark.hadoop.")) {
+                hadoop.put(key.substring("spark.hadoop.".length()), value);
+            }
+        });
+        return new CheckpointFileSystem(root, hadoop);
+    }
+
+    private static Outcome execute(RunSpec spec, ModelBuilder.Built built, Path runFolder, Instant started,
+            PrintWriter progressOut, boolean resume) {
         long start = System.nanoTime();
+        CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
+        SortedMap<String, String> answer = AnswerSettings.of(spec);
         SamplerResult result;
-        try (Backends.Opened opened = Backends.open(spec, runFolder);
+        try (TerminationSignal signal = TerminationSignal.install(spec.stopGraceSeconds(), progressOut,
+                        ExitCodes.STOPPED_RESUMABLE, System::exit);
+                Backends.Opened opened = Backends.open(spec, runFolder);
                 ProgressDisplay progress = progress(spec, progressOut)) {
+            if (spec.checkpointEnabled()) {
+                checkVisible(opened, checkpoints);
+            }
             IterationListener listener = progress == null ? IterationListener.NONE : progress;
-            result = new SmcSampler(spec.sampler()).run(built.source(), opened.backend, listener);
+            Checkpointer checkpointer = spec.checkpointEnabled()
+                    ? new FileCheckpointer(checkpoints, spec.checkpointEveryIterations(), spec.checkpointEveryMinutes(),
+                            answer, state -> RunOutputs.writeIterations(runFolder, state.records()))
+                    : Checkpointer.NONE;
+            StopRules stop = new StopRules(signal, spec.maxWallTime(), start);
+            SmcSampler sampler = new SmcSampler(spec.sampler());
+            try {
+                if (resume) {
+                    CheckpointResumption from = new CheckpointResumption(checkpoints, answer);
+                    result = sampler.resume(built.source(), opened.backend, listener, checkpointer, stop, state -> {
+                        SamplerState restored = from.restore(state);
+                        for (String skipped : from.skipped()) {
+                            say(progressOut, "skipped checkpoint " + skipped);
+                        }
+                        say(progressOut, "resuming " + runFolder + " after iteration " + restored.iteration()
+                                + " (temperature " + restored.temperature() + ")");
+                        return restored;
+                    });
+                } else {
+                    result = sampler.run(built.source(), opened.backend, listener, checkpointer, stop);
+                }
+            } catch (RunStoppedException e) {
+                throw new RunEnded(ExitCodes.STOPPED_RESUMABLE, e.getMessage() + "; its checkpoint is in "
+                        + checkpoints.files().root() + ". Continue with: skerry resume " + runFolder, e);
+            } catch (CheckpointWriteException e) {
+                throw new RunEnded(ExitCodes.RUN_FAILURE, e.getMessage() + ". Fix the cause, then continue with: "
+                        + "skerry resume " + runFolder, e);
+            } catch (SettingsChangedException e) {
+                throw new RunFileException(e.getMessage(), e);
+            } catch (IllegalStateException e) {
+                if (resume && e.getMessage() != null && e.getMessage().contains("checkpoint")) {
+                    throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
+                }
+                throw e;
+            } finally {
+                signal.runEnded();
+            }
             double wall = (System.nanoTime() - start) * 1e-9;
             RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
                     built.model().parameters().names(), result, wall, started, opened.backend.description()));
             return new Outcome(runFolder, spec, result, wall);
+        }
+    }
+
+    /** On a cluster, executors must see the checkpoint folder; local mode shares the driver's disk. */
+    private static void checkVisible(Backends.Opened opened, CheckpointFolder checkpoints) {
+        if (!(opened.backend instanceof SparkBackend)) {
+            return;
+        }
+        JavaSparkContext context = ((SparkBackend) opened.backend).context();
+        String master = context.master();
+        if (master.startsWith("local[") || master.equals("local")) {
+            return;
+        }
+        try {
+            CheckpointVisibility.check(context, checkpoints);
+        } catch (IllegalArgumentException e) {
+            throw new RunFileException(e.getMessage(), e);
+        } catch (java.io.IOException e) {
+            throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot write to the checkpoint folder "
+                    + checkpoints.files().root() + ": " + e.getMessage(), e);
+        }
+    }
+
+    private static void say(PrintWriter out, String message) {
+        synchronized (out) {
+            out.println("skerry: " + message);
+            out.flush();
         }
     }
 

@@ -36,18 +36,31 @@ final class RunCommand implements Callable<Integer> {
             description = "run on this Spark master (e.g. spark://127.0.0.1:7077); same as --set backend.master=URL")
     String master;
 
+    @Option(names = "--max-wall-time", paramLabel = "DURATION",
+            description = "stop at a checkpoint (exit 75, resumable) rather than start an iteration that would end "
+                    + "after this much wall time, e.g. 11h30m or 90m; same as --set limits.max-wall-time=DURATION")
+    String maxWallTime;
+
     @Override
     public Integer call() {
         List<String> all = new ArrayList<>(overrides);
-        if (master != null) {
-            all.add("backend.kind=spark");
-            all.add("backend.master=\"" + master + "\"");
-        }
+        addCommonOverrides(all, master, maxWallTime);
         RunSpec run = RunSpec.from(RunFile.load(file, all));
         Analysis.Outcome outcome = Analysis.run(run, out, spec.commandLine().getErr());
         PrintWriter stdout = spec.commandLine().getOut();
         ResultTable.print(outcome, stdout);
         stdout.flush();
         return ExitCodes.SUCCESS;
+    }
+
+    /** The overrides that {@code --master} and {@code --max-wall-time} stand for. */
+    static void addCommonOverrides(List<String> overrides, String master, String maxWallTime) {
+        if (master != null) {
+            overrides.add("backend.kind=spark");
+            overrides.add("backend.master=\"" + master + "\"");
+        }
+        if (maxWallTime != null) {
+            overrides.add("limits.max-wall-time=\"" + maxWallTime + "\"");
+        }
     }
 }

@@ -36,6 +36,15 @@ final class RunOutputs {
         }
     }
 
+    /** Rewrites {@code iterations.csv} with the iterations so far (after each checkpoint). */
+    static void writeIterations(Path folder, List<org.skerry.engine.sampler.IterationRecord> records) {
+        try {
+            IterationsCsv.write(folder, records);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write " + folder.resolve(IterationsCsv.FILE_NAME), e);
+        }
+    }
+
     static void writeResults(Path folder, Run run) {
         try {
             SamplerResult result = run.result();

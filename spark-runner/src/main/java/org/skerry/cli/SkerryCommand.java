@@ -13,7 +13,7 @@ import picocli.CommandLine.Command;
  */
 @Command(name = "skerry", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = "Bayesian calibration of costly models by sequential Monte Carlo: posterior, evidence, diagnostics.",
-        subcommands = {RunCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
+        subcommands = {RunCommand.class, ResumeCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
             DemoDataCommand.class, CommandLine.HelpCommand.class},
         exitCodeOnInvalidInput = ExitCodes.BAD_INPUT, exitCodeOnExecutionException = ExitCodes.RUN_FAILURE)
 public final class SkerryCommand implements Runnable {
@@ -37,6 +37,11 @@ public final class SkerryCommand implements Runnable {
                 errors.println("skerry: bad input: " + exception.getMessage());
                 errors.flush();
                 return ExitCodes.BAD_INPUT;
+            }
+            if (exception instanceof RunEnded) {
+                errors.println("skerry: " + exception.getMessage());
+                errors.flush();
+                return ((RunEnded) exception).exitCode();
             }
             if (exception instanceof SamplingFailedException) {
                 errors.println("skerry: the run failed at " + exception.getMessage());

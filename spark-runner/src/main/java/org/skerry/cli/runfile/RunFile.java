@@ -203,6 +203,11 @@ public final class RunFile {
         return config;
     }
 
+    /** The same run file with one resolved setting replaced (e.g. a path made absolute for run.conf). */
+    public RunFile withValue(String key, Object value) {
+        return new RunFile(path, config.withValue(key, com.typesafe.config.ConfigValueFactory.fromAnyRef(value)));
+    }
+
     /** The resolved settings as HOCON text, for the run folder's {@code run.conf}. */
     public String render() {
         return config.root().render(ConfigRenderOptions.defaults().setOriginComments(false).setComments(false)

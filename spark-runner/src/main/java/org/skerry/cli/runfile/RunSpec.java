@@ -43,6 +43,13 @@ public final class RunSpec {
     private final int blockSize;
     private final Path outputFolder;
     private final Progress progress;
+    private final boolean checkpointEnabled;
+    private final String checkpointPath;
+    private final int checkpointEveryIterations;
+    private final double checkpointEveryMinutes;
+    private final int checkpointKeep;
+    private final java.time.Duration maxWallTime;
+    private final int stopGraceSeconds;
 
     private RunSpec(RunFile file, TypedReader r) {
         this.file = file;
@@ -107,6 +114,37 @@ public final class RunSpec {
         this.outputFolder = Path.of(folder);
         this.progress = Progress.valueOf(r.getChoice("output.progress", List.of("auto", "live", "log", "off"))
                 .toUpperCase(java.util.Locale.ROOT));
+        this.checkpointEnabled = r.getBoolean("checkpoint.enabled");
+        String path = r.getString("checkpoint.path");
+        if (path != null && path.isBlank()) {
+            throw r.error("checkpoint.path", "must name a folder or URI, or be null for the run folder's checkpoints/");
+        }
+        if (path != null) {
+            try {
+                new org.apache.hadoop.fs.Path(path);
+            } catch (IllegalArgumentException e) {
+                throw r.error("checkpoint.path", "is not a path or URI: " + e.getMessage());
+            }
+        }
+        this.checkpointPath = path;
+        this.checkpointEveryIterations = r.getInt("checkpoint.every-iterations", 1, 1_000_000);
+        this.checkpointEveryMinutes = r.getDouble("checkpoint.every-minutes", 0, true, 100_000, true);
+        this.checkpointKeep = r.getInt("checkpoint.keep", 1, 1000);
+        this.maxWallTime = r.isSet("limits.max-wall-time") ? duration(r, "limits.max-wall-time") : null;
+        this.stopGraceSeconds = r.getInt("limits.stop-grace-seconds", 1, 86_400);
+    }
+
+    private static java.time.Duration duration(TypedReader r, String key) {
+        java.time.Duration value;
+        try {
+            value = r.config().getDuration(key);
+        } catch (ConfigException e) {
+            throw r.error(key, "expected a duration such as \"11h30m\", \"90m\" or \"3600s\"");
+        }
+        if (value.isNegative() || value.isZero()) {
+            throw r.error(key, "must be a positive duration, was " + value);
+        }
+        return value;
     }
 
     private static Config objectAt(TypedReader r, String key) {
@@ -250,6 +288,38 @@ public final class RunSpec {
 
     public Path outputFolder() {
         return outputFolder;
+    }
+
+    /** Whether checkpoints are written. */
+    public boolean checkpointEnabled() {
+        return checkpointEnabled;
+    }
+
+    /** The checkpoint root as given (a path or URI), or null for the run folder's {@code checkpoints/}. */
+    public String checkpointPath() {
+        return checkpointPath;
+    }
+
+    public int checkpointEveryIterations() {
+        return checkpointEveryIterations;
+    }
+
+    /** Minutes between checkpoints, or 0 to count iterations instead. */
+    public double checkpointEveryMinutes() {
+        return checkpointEveryMinutes;
+    }
+
+    public int checkpointKeep() {
+        return checkpointKeep;
+    }
+
+    /** The wall-time limit of one invocation, or null. */
+    public java.time.Duration maxWallTime() {
+        return maxWallTime;
+    }
+
+    public int stopGraceSeconds() {
+        return stopGraceSeconds;
     }
 
     public Progress progress() {

@@ -1,0 +1,56 @@
+package org.skerry.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Model.CommandSpec;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Spec;
+
+/** {@code skerry resume RUN_FOLDER}: continue a stopped or crashed run from its newest valid checkpoint. */
+@Command(name = "resume", mixinStandardHelpOptions = true, versionProvider = Version.class,
+        description = {"Continue a stopped or crashed run from its newest valid checkpoint, with the settings "
+                + "saved in its run.conf. The results are the ones the undisturbed run would have given.",
+            "Exit codes: 0 finished, 1 run failure, 2 bad input (including changed settings that alter the answer), "
+                + "75 stopped again at a checkpoint (resume once more)."})
+final class ResumeCommand implements Callable<Integer> {
+
+    @Spec
+    CommandSpec spec;
+
+    @Parameters(index = "0", paramLabel = "RUN_FOLDER", description = "the run folder of the run to continue")
+    Path folder;
+
+    @Option(names = "--set", paramLabel = "KEY=VALUE",
+            description = "override a setting that does not change the answer (backend, output, checkpoint, limits), "
+                    + "e.g. --set backend.master=spark://host:7077")
+    List<String> overrides = new ArrayList<>();
+
+    @Option(names = "--master", paramLabel = "URL", description = "continue on this Spark master")
+    String master;
+
+    @Option(names = "--max-wall-time", paramLabel = "DURATION",
+            description = "stop at a checkpoint (exit 75) rather than start an iteration that would end after this "
+                    + "much wall time, e.g. 11h30m or 90m; same as --set limits.max-wall-time=DURATION")
+    String maxWallTime;
+
+    @Override
+    public Integer call() {
+        PrintWriter stdout = spec.commandLine().getOut();
+        if (Analysis.finished(folder)) {
+            stdout.println("the run in " + folder + " has finished; its results are in summary.json (nothing to resume)");
+            stdout.flush();
+            return ExitCodes.SUCCESS;
+        }
+        List<String> all = new ArrayList<>(overrides);
+        RunCommand.addCommonOverrides(all, master, maxWallTime);
+        Analysis.Outcome outcome = Analysis.resume(folder, all, spec.commandLine().getErr());
+        ResultTable.print(outcome, stdout);
+        stdout.flush();
+        return ExitCodes.SUCCESS;
+    }
+}

@@ -1,0 +1,69 @@
+package org.skerry.cli.runfile;
+
+import com.typesafe.config.ConfigValue;
+import java.io.IOException;
+import java.io.InputStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.security.MessageDigest;
+import java.security.NoSuchAlgorithmException;
+import java.util.HexFormat;
+import java.util.List;
+import java.util.Map;
+import java.util.SortedMap;
+import java.util.TreeMap;
+
+/**
+ * The settings of a run that decide its answer, flattened to {@code key → value} text: every
+ * resolved key except those that only say how or where the run goes (run name, output,
+ * progress, backend and executors, checkpoints, limits). The data file enters by the SHA-256 of
+ * its content rather than its path, so a moved data file is the same data and an edited one is
+ * not. A checkpoint saves this map and a resume compares it.
+ */
+public final class AnswerSettings {
+
+    /** Prefixes of keys that never change the answer (see the design's "same seed, same answer"). */
+    static final List<String> NEUTRAL = List.of("name", "output.", "backend.", "checkpoint.", "limits.");
+
+    private AnswerSettings() {
+    }
+
+    public static SortedMap<String, String> of(RunSpec spec) {
+        SortedMap<String, String> settings = new TreeMap<>();
+        for (Map.Entry<String, ConfigValue> entry : spec.file().config().entrySet()) {
+            String key = entry.getKey();
+            if (isNeutral(key)) {
+                continue;
+            }
+            settings.put(key, entry.getValue().render(com.typesafe.config.ConfigRenderOptions.concise()));
+        }
+        if (spec.dataFile() != null) {
+            settings.put("data.file", "sha256:" + sha256(spec.dataFile()));
+        }
+        return settings;
+    }
+
+    static boolean isNeutral(String key) {
+        for (String prefix : NEUTRAL) {
+            if (prefix.endsWith(".") ? key.startsWith(prefix) : key.equals(prefix)) {
+                return true;
+            }
+        }
+        return false;
+    }
+
+    private static String sha256(Path file) {
+        try (InputStream in = Files.newInputStream(file)) {
+            MessageDigest digest = MessageDigest.getInstance("SHA-256");
+            byte[] buffer = new byte[1 << 16];
+            for (int n; (n = in.read(buffer)) > 0;) {
+                digest.update(buffer, 0, n);
+            }
+            return HexFormat.of().formatHex(digest.digest());
+        } catch (IOException e) {
+            throw new RunFileException("cannot read the data file " + file + ": " + e.getMessage(), e);
+        } catch (NoSuchAlgorithmException e) {
+            throw new IllegalStateException("every Java runtime has SHA-256", e);
+        }
+    }
+}
