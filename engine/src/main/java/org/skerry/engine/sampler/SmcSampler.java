@@ -193,15 +193,19 @@ public final class SmcSampler {
         }
 
         SamplerResult toEnd() {
+            boolean progressed = false;
             while (temperature < 1.0) {
                 String reason = stop.reasonToStop(state(), predictedSeconds());
-                if (reason != null) {
+                // A resumed run makes at least one iteration before a wall-time stop, so that a job
+                // requeued again and again always gets further.
+                if (reason != null && (progressed || stop.urgent())) {
                     if (checkpointer.enabled() && checkpointed != iteration) {
                         checkpointer.write(state(), population);
                     }
                     throw new RunStoppedException(iteration, reason);
                 }
                 step();
+                progressed = true;
             }
             return result();
         }

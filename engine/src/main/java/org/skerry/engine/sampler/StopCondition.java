@@ -16,4 +16,12 @@ public interface StopCondition {
      * @return why to stop, or null to go on
      */
     String reasonToStop(SamplerState state, double predictedSeconds);
+
+    /**
+     * Whether the reason just given must be obeyed even before this invocation has completed an
+     * iteration (a termination signal); a wall-time limit is not, so every invocation progresses.
+     */
+    default boolean urgent() {
+        return true;
+    }
 }

@@ -24,6 +24,11 @@ public final class StopRules implements StopCondition {
     }
 
     @Override
+    public boolean urgent() {
+        return signal.received();
+    }
+
+    @Override
     public String reasonToStop(SamplerState state, double predictedSeconds) {
         signal.iterationStarting(predictedSeconds);
         if (signal.received()) {
