@@ -23,17 +23,7 @@ class DemoEndToEndTest {
     Path folder;
 
     private static Process start(Path log, String... args) throws IOException {
-        List<String> command = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString()));
-        // The module options Spark needs (surefire's argLine gives them to this JVM; the launcher to the program).
-        for (String option : java.lang.management.ManagementFactory.getRuntimeMXBean().getInputArguments()) {
-            if (option.startsWith("--add-") || option.startsWith("-XX:+IgnoreUnrecognized") || option.startsWith("-Dio.netty")
-                    || option.startsWith("-Djdk.reflect") || option.startsWith("--enable-native")) {
-                command.add(option);
-            }
-        }
-        command.addAll(List.of("-cp", System.getProperty("java.class.path"), "org.skerry.cli.SkerryCommand"));
-        command.addAll(List.of(args));
-        return new ProcessBuilder(command).redirectErrorStream(true).redirectOutput(log.toFile()).start();
+        return ProgramProcess.start(log, args);
     }
 
     @Test
