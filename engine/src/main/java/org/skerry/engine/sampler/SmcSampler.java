@@ -66,7 +66,8 @@ public final class SmcSampler {
     public SamplerResult run(ModelSource source, PopulationBackend backend, IterationListener listener) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source, settings.particles(), settings.seed(),
+        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluationRetries()),
+                settings.particles(), settings.seed(),
                 settings.islands())) {
             return run(model, population, listener);
         }
@@ -96,6 +97,7 @@ public final class SmcSampler {
         long start = System.nanoTime();
         EvaluationTally total = population.initialise(settings.startProposal());
         double evaluateSeconds = seconds(start);
+        InvalidEvaluationsException.check(settings, 0, total, model.parameters());
         TemperingInputs inputs = population.temperingInputs();
         double logTotal = LogWeights.logSum(inputs.logWeight(), n);
         if (logTotal == Double.NEGATIVE_INFINITY) {
@@ -111,7 +113,8 @@ public final class SmcSampler {
         IterationRecord initial = new IterationRecord(0, 0.0, LogWeights.effectiveSampleSize(inputs.logWeight(), n),
                 false, n, 0, Double.NaN, 0, scale, logEvidence, logEvidence, total.evaluations(),
                 total.zeroLikelihood(), total.invalid(), total.firstInvalidIndex(), total.firstInvalidReason(),
-                new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0));
+                new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0),
+                total.retried(), total.failedAfterRetries(), IterationRecord.valuesOf(total));
         records.add(initial);
         listener.iterationFinished(initial);
 
@@ -212,6 +215,7 @@ public final class SmcSampler {
                 scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), settings.targetAcceptance());
             }
             EvaluationTally evaluations = moves.evaluations();
+            InvalidEvaluationsException.check(settings, iteration, evaluations, model.parameters());
             total = total.followedBy(evaluations);
 
             IterationRecord record = new IterationRecord(iteration, temperature, ess, resample, ancestors, moved,
@@ -219,7 +223,8 @@ public final class SmcSampler {
                     evaluations.zeroLikelihood(), evaluations.invalid(), evaluations.firstInvalidIndex(),
                     evaluations.firstInvalidReason(),
                     new PhaseTimes(0, temperatureSeconds, reweightSeconds, resampleSeconds, redistributeSeconds,
-                            fitSeconds, moveSeconds, 0));
+                            fitSeconds, moveSeconds, 0),
+                    evaluations.retried(), evaluations.failedAfterRetries(), IterationRecord.valuesOf(evaluations));
             records.add(record);
             listener.iterationFinished(record);
         }
