@@ -48,7 +48,7 @@ public final class Analysis {
         long start = System.nanoTime();
         SamplerResult result;
         try (Backends.Opened opened = Backends.open(spec, runFolder);
-                ProgressDisplay progress = progress(spec, progressOut)) {
+                ProgressDisplay progress = progress(spec, progressOut, built.model().parameters().names())) {
             IterationListener listener = progress == null ? IterationListener.NONE : progress;
             result = new SmcSampler(spec.sampler()).run(built.source(), opened.backend, listener);
             double wall = (System.nanoTime() - start) * 1e-9;
@@ -58,17 +58,17 @@ public final class Analysis {
         }
     }
 
-    private static ProgressDisplay progress(RunSpec spec, PrintWriter out) {
+    private static ProgressDisplay progress(RunSpec spec, PrintWriter out, java.util.List<String> names) {
         boolean terminal = System.console() != null;
         switch (spec.progress()) {
             case OFF:
                 return null;
             case LIVE:
-                return new ProgressDisplay(out, true);
+                return new ProgressDisplay(out, true, names);
             case LOG:
-                return new ProgressDisplay(out, false);
+                return new ProgressDisplay(out, false, names);
             default:
-                return new ProgressDisplay(out, terminal);
+                return new ProgressDisplay(out, terminal, names);
         }
     }
 

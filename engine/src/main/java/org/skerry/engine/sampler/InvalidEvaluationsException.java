@@ -26,9 +26,10 @@ public final class InvalidEvaluationsException extends SamplingFailedException {
     private final String firstInvalidReason;
     private final Map<String, Double> firstInvalidParameters;
 
-    private InvalidEvaluationsException(int iteration, String message, EvaluationTally tally, double limit,
+    private InvalidEvaluationsException(int iteration, EvaluationTally tally, double limit,
             Map<String, Double> parameters) {
-        super(iteration, message);
+        super(iteration, explain(tally.invalid(), tally.evaluations(), limit, "maxInvalidFraction",
+                tally.firstInvalidIndex(), parameters, tally.firstInvalidReason()));
         this.invalid = tally.invalid();
         this.evaluations = tally.evaluations();
         this.limit = limit;
@@ -48,18 +49,30 @@ public final class InvalidEvaluationsException extends SamplingFailedException {
         }
         Map<String, Double> parameters = new LinkedHashMap<>();
         double[] values = tally.firstInvalidParameters();
-        StringBuilder at = new StringBuilder();
         for (int k = 0; values != null && k < values.length; k++) {
-            String name = k < space.dimension() ? space.name(k) : "x" + k;
-            parameters.put(name, values[k]);
-            at.append(k == 0 ? "" : ", ").append(name).append('=').append(values[k]);
+            parameters.put(k < space.dimension() ? space.name(k) : "x" + k, values[k]);
         }
-        String message = String.format(Locale.ROOT,
-                "%d of %d likelihood evaluations were invalid (%.1f %%), more than the limit of %s "
-                        + "(maxInvalidFraction); the first, particle %d at %s: %s",
-                tally.invalid(), tally.evaluations(), 100 * tally.invalidFraction(), limit,
-                tally.firstInvalidIndex(), at, tally.firstInvalidReason());
-        throw new InvalidEvaluationsException(iteration, message, tally, limit, parameters);
+        throw new InvalidEvaluationsException(iteration, tally, limit, parameters);
+    }
+
+    /**
+     * The message without its iteration, naming the limit as {@code limitSetting} (a program
+     * names its own key for it).
+     */
+    public String explain(String limitSetting) {
+        return explain(invalid, evaluations, limit, limitSetting, firstInvalidIndex, firstInvalidParameters,
+                firstInvalidReason);
+    }
+
+    private static String explain(long invalid, long evaluations, double limit, String limitSetting, long first,
+            Map<String, Double> parameters, String reason) {
+        StringBuilder at = new StringBuilder();
+        parameters.forEach((name, value) -> at.append(at.length() == 0 ? "" : ", ").append(name).append('=')
+                .append(value));
+        return String.format(Locale.ROOT,
+                "%d of %d likelihood evaluations were invalid (%.1f %%), more than the limit of %s (%s); "
+                        + "the first, particle %d at %s: %s",
+                invalid, evaluations, 100.0 * invalid / evaluations, limit, limitSetting, first, at, reason);
     }
 
     /** Invalid evaluations in the iteration. */
