@@ -45,16 +45,8 @@ class FailingModelsTest {
     /** How a {@link Fails} model fails outside its working region. */
     enum Failure { THROWS_ABOVE, NAN_BELOW }
 
-    /** The normal-mean model that throws above {@code cut} or returns NaN below it. */
-    static final class Fails implements Model {
-        final Failure failure;
-        final double cut;
-
-        Fails(Failure failure, double cut) {
-            this.failure = failure;
-            this.cut = cut;
-        }
-
+    /** A model on the parameters and prior of the normal-mean model. */
+    abstract static class OnNormalPrior implements Model {
         @Override
         public ParameterSpace parameters() {
             return NORMAL.parameters();
@@ -63,6 +55,17 @@ class FailingModelsTest {
         @Override
         public Prior prior() {
             return NORMAL.prior();
+        }
+    }
+
+    /** The normal-mean model that throws above {@code cut} or returns NaN below it. */
+    static final class Fails extends OnNormalPrior {
+        final Failure failure;
+        final double cut;
+
+        Fails(Failure failure, double cut) {
+            this.failure = failure;
+            this.cut = cut;
         }
 
         boolean fails(double theta) {
@@ -196,18 +199,8 @@ class FailingModelsTest {
     }
 
     /** Near the cut the likelihood piles the particles up against it, so moves fail more as φ grows. */
-    private static final class Crowding implements Model {
+    private static final class Crowding extends OnNormalPrior {
         private final Fails inner = new Fails(Failure.THROWS_ABOVE, 2.6);
-
-        @Override
-        public ParameterSpace parameters() {
-            return inner.parameters();
-        }
-
-        @Override
-        public Prior prior() {
-            return inner.prior();
-        }
 
         @Override
         public double logLikelihood(double[] x, LikelihoodContext context) {
@@ -255,17 +248,7 @@ class FailingModelsTest {
     }
 
     /** A stochastic simulator: the normal-mean likelihood plus noise drawn from its stream. */
-    static class Noisy implements Model {
-        @Override
-        public ParameterSpace parameters() {
-            return NORMAL.parameters();
-        }
-
-        @Override
-        public Prior prior() {
-            return NORMAL.prior();
-        }
-
+    static class Noisy extends OnNormalPrior {
         @Override
         public double logLikelihood(double[] x, LikelihoodContext context) {
             double noise = context.random().nextNormal();

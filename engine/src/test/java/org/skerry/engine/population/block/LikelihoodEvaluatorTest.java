@@ -24,16 +24,8 @@ import org.skerry.engine.random.StreamPurpose;
 /** Retries with a restarted random stream, and the batched path's fall-back to single calls. */
 class LikelihoodEvaluatorTest {
 
-    /** Records the first simulator number each call sees; fails the first {@code failures} calls. */
-    private static class Recording implements Model {
-        final List<Double> seen = new ArrayList<>();
-        int failures;
-        int calls;
-
-        Recording(int failures) {
-            this.failures = failures;
-        }
-
+    /** A one-parameter model with a standard normal prior. */
+    private abstract static class OneParameter implements Model {
         @Override
         public ParameterSpace parameters() {
             return ParameterSpace.real("x", 1);
@@ -42,6 +34,17 @@ class LikelihoodEvaluatorTest {
         @Override
         public Prior prior() {
             return IndependentPrior.of(Normal.of(0, 1));
+        }
+    }
+
+    /** Records the first simulator number each call sees; fails the first {@code failures} calls. */
+    private static class Recording extends OneParameter {
+        final List<Double> seen = new ArrayList<>();
+        int failures;
+        int calls;
+
+        Recording(int failures) {
+            this.failures = failures;
         }
 
         @Override
@@ -102,18 +105,8 @@ class LikelihoodEvaluatorTest {
     }
 
     /** A batched model that returns NaN for x < 0 in a batch and throws for a batch holding x > 10. */
-    private static final class Batched implements BatchedModel {
+    private static final class Batched extends OneParameter implements BatchedModel {
         int singleCalls;
-
-        @Override
-        public ParameterSpace parameters() {
-            return ParameterSpace.real("x", 1);
-        }
-
-        @Override
-        public Prior prior() {
-            return IndependentPrior.of(Normal.of(0, 1));
-        }
 
         @Override
         public double logLikelihood(double[] x, LikelihoodContext context) {
