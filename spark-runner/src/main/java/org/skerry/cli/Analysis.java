@@ -131,7 +131,7 @@ public final class Analysis {
         try (TerminationSignal signal = TerminationSignal.install(spec.stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, System::exit);
                 Backends.Opened opened = Backends.open(spec, runFolder);
-                ProgressDisplay progress = progress(spec, progressOut)) {
+                ProgressDisplay progress = progress(spec, progressOut, built.model().parameters().names())) {
             if (spec.checkpointEnabled()) {
                 checkVisible(opened, checkpoints);
             }
@@ -207,17 +207,17 @@ public final class Analysis {
         }
     }
 
-    private static ProgressDisplay progress(RunSpec spec, PrintWriter out) {
+    private static ProgressDisplay progress(RunSpec spec, PrintWriter out, List<String> names) {
         boolean terminal = System.console() != null;
         switch (spec.progress()) {
             case OFF:
                 return null;
             case LIVE:
-                return new ProgressDisplay(out, true);
+                return new ProgressDisplay(out, true, names);
             case LOG:
-                return new ProgressDisplay(out, false);
+                return new ProgressDisplay(out, false, names);
             default:
-                return new ProgressDisplay(out, terminal);
+                return new ProgressDisplay(out, terminal, names);
         }
     }
 

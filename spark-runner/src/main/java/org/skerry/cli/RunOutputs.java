@@ -49,7 +49,7 @@ final class RunOutputs {
         try {
             SamplerResult result = run.result();
             ParticlesCsv.write(folder, run.parameterNames(), result.particles(), result.normalisedWeights());
-            IterationsCsv.write(folder, result.iterations());
+            IterationsCsv.write(folder, result.iterations(), run.parameterNames());
             TimingJson.write(folder, RunEnvironment.current(Version.text(), run.backend(), run.startedAt()),
                     run.wallSeconds(), result.iterations());
             SummaryJson.write(folder, run.model(), run.seed(), result);

@@ -2,6 +2,8 @@ package org.skerry.cli;
 
 import java.io.PrintWriter;
 import org.skerry.cli.runfile.RunFileException;
+import org.skerry.cli.runfile.RunSpec;
+import org.skerry.engine.sampler.InvalidEvaluationsException;
 import org.skerry.engine.sampler.SamplingFailedException;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
@@ -42,6 +44,17 @@ public final class SkerryCommand implements Runnable {
                 errors.println("skerry: " + exception.getMessage());
                 errors.flush();
                 return ((RunEnded) exception).exitCode();
+            }
+            if (exception instanceof InvalidEvaluationsException) {
+                InvalidEvaluationsException invalid = (InvalidEvaluationsException) exception;
+                errors.println("skerry: the run failed at iteration " + invalid.iteration() + ": "
+                        + invalid.explain(RunSpec.MAX_INVALID_FRACTION_KEY));
+                errors.println("skerry: raise " + RunSpec.MAX_INVALID_FRACTION_KEY + " (up to 1) only if the model is "
+                        + "known to fail there (the posterior is then conditional on where it works); set "
+                        + RunSpec.RETRIES_KEY + " for a model that fails now and then; return -Infinity where the "
+                        + "parameters are impossible. The run folder keeps what was written.");
+                errors.flush();
+                return ExitCodes.RUN_FAILURE;
             }
             if (exception instanceof SamplingFailedException) {
                 errors.println("skerry: the run failed at " + exception.getMessage());

@@ -116,8 +116,8 @@ final class SparkPopulation implements Population {
             for (int i = 0; i < count; i++) {
                 block.index()[i] = run[0] + i;
             }
-            EvaluationTally tally = InitialDraw.draw(block, proposal, new LikelihoodEvaluator(model, streamSeed),
-                    streamSeed);
+            EvaluationTally tally = InitialDraw.draw(block, proposal,
+                    new LikelihoodEvaluator(model, streamSeed, modelSource.evaluationRetries()), streamSeed);
             return new PartitionState(block, tally);
         });
         EvaluationTally total = EvaluationTally.NONE;
@@ -283,7 +283,8 @@ final class SparkPopulation implements Population {
         List<Object> reports = commit(states.map(state -> {
             ParticleBlock block = state.block.copy();
             MoveTally tally = MetropolisHastingsMover.move(block, proposal, temperature, iteration, firstStep, steps,
-                    new LikelihoodEvaluator(ModelCache.get(modelSource), streamSeed), streamSeed);
+                    new LikelihoodEvaluator(ModelCache.get(modelSource), streamSeed,
+                            modelSource.evaluationRetries()), streamSeed);
             return new PartitionState(block, tally);
         }));
         MoveTally total = MoveTally.NONE;

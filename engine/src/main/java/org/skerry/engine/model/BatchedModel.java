@@ -4,7 +4,9 @@ package org.skerry.engine.model;
  * A deterministic model that can evaluate many parameter vectors in one call (a vectorised
  * solver, one call into native code per batch). The sampler calls it once per block instead of
  * once per particle; values must equal {@link Model#logLikelihood} for each vector. If the batch
- * call throws, the sampler falls back to single calls to find the failing particles.
+ * call throws, the sampler falls back to single calls to find the failing particles; if it returns
+ * NaN or {@code +Infinity} for some vectors, only those are called again singly. Those single
+ * calls are what the retry setting repeats and what is reported.
  */
 public interface BatchedModel extends Model {
 

@@ -8,7 +8,9 @@ package org.skerry.engine.model;
  * many threads at once, so implementations must be thread-safe and must not keep the array they
  * are handed. Return {@code Double.NEGATIVE_INFINITY} for a parameter vector the physics rules
  * out: that is a valid zero likelihood. A NaN, {@code +Infinity} or a thrown exception counts as
- * an invalid evaluation: the sampler gives the particle zero weight, counts it and reports it.
+ * an invalid evaluation: the sampler gives the particle zero weight, counts it and reports it,
+ * after repeating the call as often as {@code SamplerSettings.evaluationRetries()} allows (with the
+ * same array, which the model must not change, and the same random stream).
  *
  * <p>A stochastic simulator must draw all its randomness from {@link LikelihoodContext#random()}:
  * that stream is keyed like every other stream of the run, so a repeated or retried call returns

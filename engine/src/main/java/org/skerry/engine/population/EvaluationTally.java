@@ -6,8 +6,9 @@ import java.util.Arrays;
 /**
  * Counts from a batch of likelihood evaluations: how many were made, how many returned a valid
  * zero ({@code -Infinity}) and how many were invalid (NaN, {@code +Infinity} or an exception),
- * with the report of the invalid evaluation of lowest particle index. Merging keeps the lowest
- * index, so the report does not depend on which block finished first.
+ * with the report of the invalid evaluation of lowest particle index, and how many evaluations
+ * needed a retry ({@code retried}) and of those how many still failed on the last retry. Merging
+ * keeps the lowest index, so the report does not depend on which block finished first.
  *
  * <p>Immutable; crosses from executors to the driver once per block and phase.
  */
@@ -24,9 +25,24 @@ public final class EvaluationTally implements Serializable {
     private final long firstInvalidIndex;
     private final String firstInvalidReason;
     private final double[] firstInvalidParameters;
+    private final long retried;
+    private final long failedAfterRetries;
 
+    /** A tally of evaluations made without retries. */
     public EvaluationTally(long evaluations, long zeroLikelihood, long invalid, long firstInvalidIndex,
             String firstInvalidReason, double[] firstInvalidParameters) {
+        this(evaluations, zeroLikelihood, invalid, firstInvalidIndex, firstInvalidReason, firstInvalidParameters, 0, 0);
+    }
+
+    /**
+     * @param retried            evaluations whose first call was invalid and that were retried
+     * @param failedAfterRetries of those, evaluations still invalid after the last retry (also
+     *                           counted in {@code invalid})
+     */
+    public EvaluationTally(long evaluations, long zeroLikelihood, long invalid, long firstInvalidIndex,
+            String firstInvalidReason, double[] firstInvalidParameters, long retried, long failedAfterRetries) {
+        this.retried = retried;
+        this.failedAfterRetries = failedAfterRetries;
         this.evaluations = evaluations;
         this.zeroLikelihood = zeroLikelihood;
         this.invalid = invalid;
@@ -42,7 +58,7 @@ public final class EvaluationTally implements Serializable {
         EvaluationTally report = keepThis ? this : other;
         return new EvaluationTally(evaluations + other.evaluations, zeroLikelihood + other.zeroLikelihood,
                 invalid + other.invalid, report.firstInvalidIndex, report.firstInvalidReason,
-                report.firstInvalidParameters);
+                report.firstInvalidParameters, retried + other.retried, failedAfterRetries + other.failedAfterRetries);
     }
 
     /**
@@ -53,7 +69,7 @@ public final class EvaluationTally implements Serializable {
         EvaluationTally report = firstInvalidIndex >= 0 ? this : later;
         return new EvaluationTally(evaluations + later.evaluations, zeroLikelihood + later.zeroLikelihood,
                 invalid + later.invalid, report.firstInvalidIndex, report.firstInvalidReason,
-                report.firstInvalidParameters);
+                report.firstInvalidParameters, retried + later.retried, failedAfterRetries + later.failedAfterRetries);
     }
 
     public long evaluations() {
@@ -68,6 +84,21 @@ public final class EvaluationTally implements Serializable {
     /** Evaluations that returned NaN or {@code +Infinity} or threw. */
     public long invalid() {
         return invalid;
+    }
+
+    /** Evaluations whose first call was invalid and that were retried (0 without retries). */
+    public long retried() {
+        return retried;
+    }
+
+    /** Retried evaluations that were still invalid after the last retry (counted in {@link #invalid()} too). */
+    public long failedAfterRetries() {
+        return failedAfterRetries;
+    }
+
+    /** Invalid evaluations as a fraction of all evaluations (0 when there were none). */
+    public double invalidFraction() {
+        return evaluations == 0 ? 0.0 : (double) invalid / evaluations;
     }
 
     /** Global index of the lowest-indexed particle with an invalid evaluation, or −1. */
@@ -88,6 +119,9 @@ public final class EvaluationTally implements Serializable {
     @Override
     public String toString() {
         String text = evaluations + " evaluations, " + zeroLikelihood + " zero likelihood, " + invalid + " invalid";
+        if (retried > 0) {
+            text += ", " + retried + " retried (" + failedAfterRetries + " still invalid)";
+        }
         if (firstInvalidIndex >= 0) {
             text += " (first: particle " + firstInvalidIndex + " at " + Arrays.toString(firstInvalidParameters)
                     + ": " + firstInvalidReason + ")";

@@ -1,5 +1,9 @@
 package org.skerry.engine.sampler;
 
+import java.util.ArrayList;
+import java.util.List;
+import org.skerry.engine.population.EvaluationTally;
+
 /**
  * What one iteration of the sampler did, for the per-iteration table and progress display.
  * Iteration 0 is the initial draw. Immutable.
@@ -21,9 +25,41 @@ package org.skerry.engine.sampler;
  * @param firstInvalidIndex    lowest particle index with an invalid evaluation, or −1
  * @param firstInvalidReason   its reason, or null
  * @param seconds              wall time per phase
+ * @param retriedEvaluations   evaluations whose first call was invalid and that were retried
+ * @param failedAfterRetries   of those, evaluations still invalid after the last retry
+ * @param firstInvalidParameters the parameter values of the particle {@code firstInvalidIndex}
+ *                             names, in parameter order; empty when there is none
  */
 public record IterationRecord(int iteration, double temperature, double ess, boolean resampled,
         long distinctAncestors, long particlesMoved, double acceptanceRate, int mhSteps, double scale,
         double logEvidenceIncrement, double logEvidence, long evaluations, long zeroLikelihood,
-        long invalidEvaluations, long firstInvalidIndex, String firstInvalidReason, PhaseTimes seconds) {
+        long invalidEvaluations, long firstInvalidIndex, String firstInvalidReason, PhaseTimes seconds,
+        long retriedEvaluations, long failedAfterRetries, List<Double> firstInvalidParameters) {
+
+    public IterationRecord {
+        firstInvalidParameters = firstInvalidParameters == null ? List.of() : List.copyOf(firstInvalidParameters);
+    }
+
+    /** A record of an iteration without retries and without the first invalid particle's values. */
+    public IterationRecord(int iteration, double temperature, double ess, boolean resampled,
+            long distinctAncestors, long particlesMoved, double acceptanceRate, int mhSteps, double scale,
+            double logEvidenceIncrement, double logEvidence, long evaluations, long zeroLikelihood,
+            long invalidEvaluations, long firstInvalidIndex, String firstInvalidReason, PhaseTimes seconds) {
+        this(iteration, temperature, ess, resampled, distinctAncestors, particlesMoved, acceptanceRate, mhSteps, scale,
+                logEvidenceIncrement, logEvidence, evaluations, zeroLikelihood, invalidEvaluations, firstInvalidIndex,
+                firstInvalidReason, seconds, 0, 0, List.of());
+    }
+
+    /** The parameter values of {@code tally}'s first invalid evaluation, for the last component. */
+    static List<Double> valuesOf(EvaluationTally tally) {
+        double[] values = tally.firstInvalidParameters();
+        if (values == null) {
+            return List.of();
+        }
+        List<Double> list = new ArrayList<>(values.length);
+        for (double v : values) {
+            list.add(v);
+        }
+        return list;
+    }
 }

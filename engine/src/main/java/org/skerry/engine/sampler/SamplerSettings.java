@@ -31,6 +31,8 @@ public final class SamplerSettings {
     private final int islands;
     private final int islandInteractionEvery;
     private final double islandInteractionThreshold;
+    private final int evaluationRetries;
+    private final double maxInvalidFraction;
 
     private SamplerSettings(Builder b) {
         this.particles = b.particles;
@@ -51,6 +53,8 @@ public final class SamplerSettings {
         this.islands = b.islands;
         this.islandInteractionEvery = b.islandInteractionEvery;
         this.islandInteractionThreshold = b.islandInteractionThreshold;
+        this.evaluationRetries = b.evaluationRetries;
+        this.maxInvalidFraction = b.maxInvalidFraction;
         if (islands > particles) {
             throw new IllegalArgumentException("islands (" + islands + ") must not exceed particles (" + particles + ")");
         }
@@ -81,6 +85,8 @@ public final class SamplerSettings {
         b.islands = islands;
         b.islandInteractionEvery = islandInteractionEvery;
         b.islandInteractionThreshold = islandInteractionThreshold;
+        b.evaluationRetries = evaluationRetries;
+        b.maxInvalidFraction = maxInvalidFraction;
         return b;
     }
 
@@ -170,6 +176,22 @@ public final class SamplerSettings {
         return islandInteractionThreshold;
     }
 
+    /**
+     * How many times an invalid likelihood call (NaN, {@code +Infinity}, an exception) is repeated,
+     * with the same random stream, before it counts as invalid; default 0.
+     */
+    public int evaluationRetries() {
+        return evaluationRetries;
+    }
+
+    /**
+     * The run stops when more than this fraction of one iteration's likelihood evaluations are
+     * invalid; in [0, 1], default 0.1 (1 never stops).
+     */
+    public double maxInvalidFraction() {
+        return maxInvalidFraction;
+    }
+
     /** Builder for {@link SamplerSettings}; each setter validates its argument. */
     public static final class Builder {
         private int particles = 1000;
@@ -190,8 +212,28 @@ public final class SamplerSettings {
         private int islands;
         private int islandInteractionEvery;
         private double islandInteractionThreshold;
+        private int evaluationRetries;
+        private double maxInvalidFraction = 0.1;
 
         private Builder() {
+        }
+
+        /** Retries of an invalid likelihood call, in [0, 100]. */
+        public Builder evaluationRetries(int value) {
+            if (value < 0 || value > 100) {
+                throw new IllegalArgumentException("evaluationRetries must be in [0, 100], was " + value);
+            }
+            evaluationRetries = value;
+            return this;
+        }
+
+        /** Largest fraction of invalid evaluations an iteration may have, in [0, 1]. */
+        public Builder maxInvalidFraction(double value) {
+            if (!(value >= 0 && value <= 1)) {
+                throw new IllegalArgumentException("maxInvalidFraction must be in [0, 1], was " + value);
+            }
+            maxInvalidFraction = value;
+            return this;
         }
 
         /** K islands, each resampling on its own (0: global resampling). */

@@ -1,10 +1,11 @@
 package org.skerry.engine.sampler;
 
 /**
- * A run that cannot continue: every particle's weight is zero, or tempering cannot reach 1
- * within the iteration limit. The message names the iteration and the counts that explain it.
+ * A run that cannot continue: every particle's weight is zero, tempering cannot reach 1
+ * within the iteration limit, or too many likelihood evaluations were invalid
+ * ({@link InvalidEvaluationsException}). The message names the iteration and the counts that explain it.
  */
-public final class SamplingFailedException extends RuntimeException {
+public class SamplingFailedException extends RuntimeException {
 
     private static final long serialVersionUID = 1L;
 

@@ -75,8 +75,8 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source, settings.particles(), settings.seed(),
-                settings.islands())) {
+        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluationRetries()),
+                settings.particles(), settings.seed(), settings.islands())) {
             Walk walk = new Walk(model, population, listener, checkpointer, stop);
             walk.start();
             return walk.toEnd();
@@ -92,8 +92,8 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop, Resumption from) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source, settings.particles(), settings.seed(),
-                settings.islands())) {
+        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluationRetries()),
+                settings.particles(), settings.seed(), settings.islands())) {
             Walk walk = new Walk(model, population, listener, checkpointer, stop);
             walk.restore(from.restore(population));
             return walk.toEnd();
@@ -153,6 +153,7 @@ public final class SmcSampler {
             long start = System.nanoTime();
             total = population.initialise(settings.startProposal());
             double evaluateSeconds = seconds(start);
+            InvalidEvaluationsException.check(settings, 0, total, model.parameters());
             inputs = population.temperingInputs();
             logTotal = LogWeights.logSum(inputs.logWeight(), n);
             if (logTotal == Double.NEGATIVE_INFINITY) {
@@ -169,7 +170,8 @@ public final class SmcSampler {
             finishIteration(new IterationRecord(0, 0.0, LogWeights.effectiveSampleSize(inputs.logWeight(), n),
                     false, n, 0, Double.NaN, 0, scale, logEvidence, logEvidence, total.evaluations(),
                     total.zeroLikelihood(), total.invalid(), total.firstInvalidIndex(), total.firstInvalidReason(),
-                    new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0)));
+                    new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0),
+                    total.retried(), total.failedAfterRetries(), IterationRecord.valuesOf(total)));
         }
 
         /** Continues from a saved state, the population already holding the saved blocks. */
@@ -236,7 +238,8 @@ public final class SmcSampler {
                         record.distinctAncestors(), record.particlesMoved(), record.acceptanceRate(), record.mhSteps(),
                         record.scale(), record.logEvidenceIncrement(), record.logEvidence(), record.evaluations(),
                         record.zeroLikelihood(), record.invalidEvaluations(), record.firstInvalidIndex(),
-                        record.firstInvalidReason(), record.seconds().withCheckpoint(seconds(phase)));
+                        record.firstInvalidReason(), record.seconds().withCheckpoint(seconds(phase)),
+                        record.retriedEvaluations(), record.failedAfterRetries(), record.firstInvalidParameters());
                 records.set(records.size() - 1, record);
             }
             listener.iterationFinished(record);
@@ -341,6 +344,7 @@ public final class SmcSampler {
                 scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), settings.targetAcceptance());
             }
             EvaluationTally evaluations = moves.evaluations();
+            InvalidEvaluationsException.check(settings, iteration, evaluations, model.parameters());
             total = total.followedBy(evaluations);
 
             finishIteration(new IterationRecord(iteration, temperature, ess, resample, ancestors, moved,
@@ -348,7 +352,8 @@ public final class SmcSampler {
                     evaluations.zeroLikelihood(), evaluations.invalid(), evaluations.firstInvalidIndex(),
                     evaluations.firstInvalidReason(),
                     new PhaseTimes(0, temperatureSeconds, reweightSeconds, resampleSeconds, redistributeSeconds,
-                            fitSeconds, moveSeconds, 0)));
+                            fitSeconds, moveSeconds, 0),
+                    evaluations.retried(), evaluations.failedAfterRetries(), IterationRecord.valuesOf(evaluations)));
         }
 
         private SamplerResult result() {

@@ -27,6 +27,24 @@ class ClosedFormsTest {
     }
 
     @Test
+    @DisplayName("truncated normal: mass, mean and sd equal numerical integrals of Commons Math's normal density")
+    void truncatedNormal() {
+        NormalDistribution n = new NormalDistribution(null, 1.3, 0.4);
+        double[][] intervals = {{Double.NEGATIVE_INFINITY, 1.5}, {1.1, Double.POSITIVE_INFINITY}, {0.9, 1.6}};
+        for (double[] ab : intervals) {
+            TruncatedNormalExact exact = new TruncatedNormalExact(1.3, 0.4, ab[0], ab[1]);
+            double low = Math.max(ab[0], 1.3 - 15 * 0.4);
+            double high = Math.min(ab[1], 1.3 + 15 * 0.4);
+            double mass = Quadrature.integrate(n::density, low, high, 1e-12);
+            double mean = Quadrature.integrate(x -> x * n.density(x), low, high, 1e-12) / mass;
+            double variance = Quadrature.integrate(x -> (x - mean) * (x - mean) * n.density(x), low, high, 1e-12) / mass;
+            assertEquals(mass, exact.mass(), 1e-9);
+            assertEquals(mean, exact.mean(), 1e-9);
+            assertEquals(Math.sqrt(variance), exact.sd(), 1e-9);
+        }
+    }
+
+    @Test
     @DisplayName("normal mean, 1-D: evidence and posterior moments equal numerical integrals (BDA3 §2.5, PRML eq. 2.115)")
     void normalMeanOneDimension() {
         double sigma = 1.5;

@@ -60,7 +60,8 @@ class InvalidEvaluationTest {
     @Test
     @DisplayName("invalid evaluations are counted, the lowest index reported, and no result is NaN")
     void countedAndReported() {
-        SamplerSettings settings = SamplerSettings.builder().particles(500).seed(3).build();
+        // About 21 % of the prior fails: above the default stop limit of 10 %, so the limit is lifted.
+        SamplerSettings settings = SamplerSettings.builder().particles(500).seed(3).maxInvalidFraction(1.0).build();
         SamplerResult result = run(new FragileModel(), settings);
         IterationRecord initial = result.iterations().get(0);
         // Recompute the initial draws independently to find the expected counts and lowest index.
@@ -98,7 +99,7 @@ class InvalidEvaluationTest {
     }
 
     @Test
-    @DisplayName("every weight zero: the run stops naming the iteration and the invalid count")
+    @DisplayName("every weight zero (invalid-fraction limit lifted): the run stops naming the iteration and the invalid count")
     void everyWeightZero() {
         Model hopeless = new FragileModel() {
             @Override
@@ -107,7 +108,7 @@ class InvalidEvaluationTest {
             }
         };
         SamplingFailedException e = assertThrows(SamplingFailedException.class,
-                () -> run(hopeless, SamplerSettings.builder().particles(100).seed(1).build()));
+                () -> run(hopeless, SamplerSettings.builder().particles(100).seed(1).maxInvalidFraction(1.0).build()));
         assertEquals(1, e.iteration());
         assertTrue(e.getMessage().contains("iteration 1") && e.getMessage().contains("100 invalid"), e.getMessage());
     }

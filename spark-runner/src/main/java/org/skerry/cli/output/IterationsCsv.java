@@ -14,9 +14,14 @@ import org.skerry.engine.sampler.PhaseTimes;
  * <p>Columns: {@code iteration, temperature, ess, resampled, distinct_ancestors, particles_moved,
  * acceptance, mh_steps, scale, log_evidence_increment, log_evidence, evaluations,
  * zero_likelihood, invalid, first_invalid_particle, first_invalid_reason, seconds_evaluate,
- * seconds_temperature, seconds_reweight, seconds_resample, seconds_fit, seconds_move}. Doubles
+ * seconds_temperature, seconds_reweight, seconds_resample, seconds_redistribute, seconds_fit,
+ * seconds_move, seconds_checkpoint, retried, failed_after_retries, first_invalid_parameters}:
+ * {@code retried} counts evaluations whose first call was invalid and that were retried,
+ * {@code failed_after_retries} those of them still invalid after the last retry, and
+ * {@code first_invalid_parameters} holds the values of the particle {@code first_invalid_particle}
+ * names as {@code name=value;name=value} (see {@link ParameterValues}). Doubles
  * are written by {@link DoubleText} ({@code NaN} for the acceptance of iteration 0, which makes no
- * moves); {@code resampled} is {@code true} or {@code false}; the two {@code first_invalid}
+ * moves); {@code resampled} is {@code true} or {@code false}; the three {@code first_invalid}
  * fields, and the seconds of a record without phase times, are empty when there is nothing to
  * report.
  */
@@ -30,18 +35,30 @@ public final class IterationsCsv {
         "acceptance", "mh_steps", "scale", "log_evidence_increment", "log_evidence", "evaluations",
         "zero_likelihood", "invalid", "first_invalid_particle", "first_invalid_reason", "seconds_evaluate",
         "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_redistribute", "seconds_fit",
-        "seconds_move", "seconds_checkpoint",
+        "seconds_move", "seconds_checkpoint", "retried", "failed_after_retries", "first_invalid_parameters",
     };
 
     private IterationsCsv() {
     }
 
     /**
-     * Writes {@code iterations.csv} in {@code folder}, atomically.
+     * Writes {@code iterations.csv} in {@code folder}, atomically, naming failing particles'
+     * parameters by position ({@code x0, x1 …}).
      *
      * @return the file written
      */
     public static Path write(Path folder, List<IterationRecord> records) throws IOException {
+        return write(folder, records, null);
+    }
+
+    /**
+     * Writes {@code iterations.csv} in {@code folder}, atomically.
+     *
+     * @param parameterNames the model's parameter names, for {@code first_invalid_parameters}
+     * @return the file written
+     */
+    public static Path write(Path folder, List<IterationRecord> records, List<String> parameterNames)
+            throws IOException {
         if (folder == null) {
             throw new IllegalArgumentException("folder must not be null");
         }
@@ -60,7 +77,8 @@ public final class IterationsCsv {
                         DoubleText.format(r.logEvidence()), r.evaluations(), r.zeroLikelihood(), r.invalidEvaluations(),
                         invalid ? r.firstInvalidIndex() : null, invalid ? r.firstInvalidReason() : null,
                         seconds(t, 0), seconds(t, 1), seconds(t, 2), seconds(t, 3), seconds(t, 4), seconds(t, 5),
-                        seconds(t, 6), seconds(t, 7));
+                        seconds(t, 6), seconds(t, 7), r.retriedEvaluations(), r.failedAfterRetries(),
+                        invalid ? ParameterValues.text(parameterNames, r.firstInvalidParameters(), ";") : null);
             }
             printer.flush();
         });

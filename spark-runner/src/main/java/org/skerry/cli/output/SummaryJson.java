@@ -7,6 +7,7 @@ import java.util.ArrayList;
 import java.util.List;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.sampler.EvidenceEstimate;
+import org.skerry.engine.sampler.IterationRecord;
 import org.skerry.engine.sampler.ParameterSummary;
 import org.skerry.engine.sampler.SamplerResult;
 
@@ -24,9 +25,12 @@ import org.skerry.engine.sampler.SamplerResult;
  * weight), {@code parameters} (an object with one entry per parameter, in parameter order, each
  * holding {@code mean, sd, q025, q050, q250, q500, q750, q950, q975}), {@code iterations}
  * (tempering iterations after the initial draw), {@code likelihoodEvaluations},
- * {@code zeroLikelihoodEvaluations}, {@code invalidEvaluations}, {@code firstInvalid}
- * ({@code {particle, reason, parameters: {name: value}}}, or null when every evaluation was
- * valid), {@code particles}, {@code seed} and {@code model}. A number that is not finite (an
+ * {@code zeroLikelihoodEvaluations}, {@code invalidEvaluations}, {@code retriedEvaluations}
+ * (evaluations whose first call was invalid and that were retried), {@code failedAfterRetries}
+ * (those still invalid after the last retry), {@code firstInvalid} (the earliest invalid
+ * evaluation, of lowest particle index in its iteration: {@code {iteration, particle, reason,
+ * parameters: {name: value}}}, {@code iteration} null when the result has no iteration records;
+ * or null when every evaluation was valid), {@code particles}, {@code seed} and {@code model}. A number that is not finite (an
  * error that cannot be estimated, say) is written as null.
  */
 public final class SummaryJson {
@@ -97,10 +101,18 @@ public final class SummaryJson {
             json.writeNumberField("likelihoodEvaluations", tally.evaluations());
             json.writeNumberField("zeroLikelihoodEvaluations", tally.zeroLikelihood());
             json.writeNumberField("invalidEvaluations", tally.invalid());
+            json.writeNumberField("retriedEvaluations", tally.retried());
+            json.writeNumberField("failedAfterRetries", tally.failedAfterRetries());
             if (tally.firstInvalidIndex() < 0) {
                 json.writeNullField("firstInvalid");
             } else {
                 json.writeObjectFieldStart("firstInvalid");
+                Integer iteration = firstInvalidIteration(result.iterations());
+                if (iteration == null) {
+                    json.writeNullField("iteration");
+                } else {
+                    json.writeNumberField("iteration", iteration);
+                }
                 json.writeNumberField("particle", tally.firstInvalidIndex());
                 JsonOutput.text(json, "reason", tally.firstInvalidReason());
                 if (invalidAt == null) {
@@ -121,5 +133,15 @@ public final class SummaryJson {
             JsonOutput.close(json);
         });
         return file;
+    }
+
+    /** The first iteration with an invalid evaluation: the one the run's first-invalid report is from. */
+    private static Integer firstInvalidIteration(List<IterationRecord> records) {
+        for (IterationRecord r : records) {
+            if (r.firstInvalidIndex() >= 0) {
+                return r.iteration();
+            }
+        }
+        return null;
     }
 }

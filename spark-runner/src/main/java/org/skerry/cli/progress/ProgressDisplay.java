@@ -8,7 +8,9 @@ import java.time.Duration;
 import java.time.Instant;
 import java.time.format.DateTimeFormatter;
 import java.time.temporal.ChronoUnit;
+import java.util.List;
 import java.util.Locale;
+import org.skerry.cli.output.ParameterValues;
 import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.IterationRecord;
 
@@ -26,7 +28,11 @@ import org.skerry.engine.sampler.IterationRecord;
  * cost is different), so there is no estimate until the second. It is shown with a {@code ~}.
  *
  * <p>φ is shown rounded down to 4 decimals, so {@code 1.0000} appears only when the run is done.
- * Elapsed time starts when the display is made. Thread-safe; never closes the stream.
+ * <p>After an iteration with invalid likelihood evaluations it writes one warning line (in both
+ * forms) with their count and the lowest-indexed failing particle: its parameter values and the
+ * reason.
+ *
+ * <p>Elapsed time starts when the display is made. Thread-safe; never closes the stream.
  */
 public final class ProgressDisplay implements IterationListener, AutoCloseable {
 
@@ -36,6 +42,7 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
     private final boolean interactive;
     private final Clock clock;
     private final Instant start;
+    private final List<String> parameterNames;
 
     private long evaluations;
     private Instant paceStart;
@@ -48,12 +55,25 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
         this(out, interactive, Clock.systemUTC());
     }
 
+    /** A display timed by the system clock that names failing particles' parameters. */
+    public ProgressDisplay(PrintWriter out, boolean interactive, List<String> parameterNames) {
+        this(out, interactive, Clock.systemUTC(), parameterNames);
+    }
+
     /**
      * @param out         where to write
      * @param interactive rewrite one line (a terminal) rather than print one line per iteration
      * @param clock       the source of elapsed time and time stamps
      */
     public ProgressDisplay(PrintWriter out, boolean interactive, Clock clock) {
+        this(out, interactive, clock, null);
+    }
+
+    /**
+     * @param parameterNames the model's parameter names, for warnings about failing particles, or
+     *                       null to name values by position
+     */
+    public ProgressDisplay(PrintWriter out, boolean interactive, Clock clock, List<String> parameterNames) {
         if (out == null) {
             throw new IllegalArgumentException("out must not be null");
         }
@@ -64,6 +84,7 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
         this.interactive = interactive;
         this.clock = clock;
         this.start = clock.instant();
+        this.parameterNames = parameterNames == null ? null : List.copyOf(parameterNames);
     }
 
     @Override
@@ -92,6 +113,12 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
         } else {
             out.println(STAMP.format(now.truncatedTo(ChronoUnit.SECONDS)) + " " + fields);
         }
+        if (record.invalidEvaluations() > 0) {
+            if (lineOpen) {
+                endLine();
+            }
+            out.println(STAMP.format(now.truncatedTo(ChronoUnit.SECONDS)) + " " + warning(record));
+        }
         out.flush();
     }
 
@@ -108,6 +135,21 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
         out.println();
         lineOpen = false;
         shownLength = 0;
+    }
+
+    private String warning(IterationRecord record) {
+        String text = String.format(Locale.ROOT, "warning: iter %d: %d of %d likelihood evaluations invalid (%.1f%%)",
+                record.iteration(), record.invalidEvaluations(), record.evaluations(),
+                100.0 * record.invalidEvaluations() / Math.max(1, record.evaluations()));
+        if (record.retriedEvaluations() > 0) {
+            text += "; " + record.retriedEvaluations() + " retried, " + record.failedAfterRetries() + " still invalid";
+        }
+        if (record.firstInvalidIndex() >= 0) {
+            text += "; first: particle " + record.firstInvalidIndex() + " at "
+                    + ParameterValues.text(parameterNames, record.firstInvalidParameters(), ", ") + ": "
+                    + record.firstInvalidReason();
+        }
+        return text;
     }
 
     private String estimate(IterationRecord record, Instant now) {

@@ -21,6 +21,12 @@ import org.skerry.engine.temper.FixedSchedule;
  */
 public final class RunSpec {
 
+    /** The run-file key of the largest fraction of invalid evaluations an iteration may have. */
+    public static final String MAX_INVALID_FRACTION_KEY = "sampler.max-invalid-fraction";
+
+    /** The run-file key of the number of retries of an invalid likelihood call. */
+    public static final String RETRIES_KEY = "model.retries";
+
     /** How progress is shown. */
     public enum Progress { AUTO, LIVE, LOG, OFF }
 
@@ -161,6 +167,8 @@ public final class RunSpec {
         b.seed(r.getLong("sampler.seed"));
         b.maxIterations(r.getInt("sampler.max-iterations", 1, 1_000_000));
         b.minimumDistinctEves(r.getInt("sampler.minimum-distinct-ancestors", 1, Integer.MAX_VALUE));
+        b.evaluationRetries(r.getInt(RETRIES_KEY, 0, 100));
+        b.maxInvalidFraction(r.getDouble(MAX_INVALID_FRACTION_KEY, 0, true, 1, true));
         String scheme = r.getChoice("sampler.resampling.scheme",
                 List.of("multinomial", "stratified", "systematic", "residual"));
         b.resamplingScheme(ResamplingScheme.valueOf(scheme.toUpperCase(java.util.Locale.ROOT)));

@@ -141,6 +141,12 @@ public final class DriverStateCodec {
         for (double phase : phases) {
             writeDouble(out, phase);
         }
+        out.writeLong(r.retriedEvaluations());
+        out.writeLong(r.failedAfterRetries());
+        out.writeInt(r.firstInvalidParameters().size());
+        for (double value : r.firstInvalidParameters()) {
+            writeDouble(out, value);
+        }
     }
 
     private static IterationRecord readRecord(DataInputStream in) throws IOException {
@@ -162,8 +168,19 @@ public final class DriverStateCodec {
         String reason = readText(in);
         PhaseTimes times = new PhaseTimes(readDouble(in), readDouble(in), readDouble(in), readDouble(in),
                 readDouble(in), readDouble(in), readDouble(in), readDouble(in));
+        long retried = in.readLong();
+        long failedAfterRetries = in.readLong();
+        int count = in.readInt();
+        if (count < 0 || count > 1_000_000) {
+            throw new IOException("iteration record with " + count + " parameter values");
+        }
+        List<Double> parameters = new ArrayList<>(count);
+        for (int i = 0; i < count; i++) {
+            parameters.add(readDouble(in));
+        }
         return new IterationRecord(iteration, temperature, ess, resampled, ancestors, moved, acceptance, steps, scale,
-                increment, logEvidence, evaluations, zero, invalid, firstInvalid, reason, times);
+                increment, logEvidence, evaluations, zero, invalid, firstInvalid, reason, times, retried,
+                failedAfterRetries, parameters);
     }
 
     private static void writeTally(DataOutputStream out, EvaluationTally t) throws IOException {
@@ -179,6 +196,8 @@ public final class DriverStateCodec {
                 writeDouble(out, p);
             }
         }
+        out.writeLong(t.retried());
+        out.writeLong(t.failedAfterRetries());
     }
 
     private static EvaluationTally readTally(DataInputStream in) throws IOException {
@@ -192,7 +211,7 @@ public final class DriverStateCodec {
         for (int i = 0; i < length; i++) {
             parameters[i] = readDouble(in);
         }
-        return new EvaluationTally(evaluations, zero, invalid, first, reason, parameters);
+        return new EvaluationTally(evaluations, zero, invalid, first, reason, parameters, in.readLong(), in.readLong());
     }
 
     private static void writeDouble(DataOutputStream out, double value) throws IOException {

@@ -52,11 +52,15 @@ final class EngineRuns {
                 return -0.5 * (x[0] - 1) * (x[0] - 1);
             }
         };
-        return run(model, seed, 2);
+        // About a tenth of the prior fails, near the default stop limit of 10 %: lift it.
+        return run(model, SamplerSettings.builder().particles(400).seed(seed).maxInvalidFraction(0.5).build(), 2);
     }
 
     private static SamplerResult run(Model model, long seed, int threads) {
-        SamplerSettings settings = SamplerSettings.builder().particles(400).seed(seed).build();
+        return run(model, SamplerSettings.builder().particles(400).seed(seed).build(), threads);
+    }
+
+    private static SamplerResult run(Model model, SamplerSettings settings, int threads) {
         try (ThreadPoolBackend backend = new ThreadPoolBackend(threads, 0)) {
             return new SmcSampler(settings).run(model, backend);
         }

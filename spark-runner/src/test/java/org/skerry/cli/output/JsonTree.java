@@ -14,13 +14,13 @@ import java.util.Map;
  * Reads a JSON file with Jackson's own parser into maps (in key order), lists, Double (numbers
  * with a fraction or exponent, parsed by Jackson), Long, Boolean, String and null.
  */
-final class JsonTree {
+public final class JsonTree {
 
     private JsonTree() {
     }
 
     @SuppressWarnings("unchecked")
-    static Map<String, Object> read(Path file) throws IOException {
+    public static Map<String, Object> read(Path file) throws IOException {
         try (JsonParser parser = new JsonFactory().createParser(file.toFile())) {
             Object value = value(parser, parser.nextToken());
             if (parser.nextToken() != null) {

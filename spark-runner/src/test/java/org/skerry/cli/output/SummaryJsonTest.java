@@ -41,7 +41,8 @@ class SummaryJsonTest {
 
         assertEquals(List.of("logEvidence", "logEvidenceError", "logEvidenceErrorReliable", "logEvidenceErrorWarning",
                 "distinctAncestorsAtEnd", "islands", "islandLogEvidenceError", "parameters", "iterations", "likelihoodEvaluations",
-                "zeroLikelihoodEvaluations", "invalidEvaluations", "firstInvalid", "particles", "seed", "model"),
+                "zeroLikelihoodEvaluations", "invalidEvaluations", "retriedEvaluations", "failedAfterRetries", "firstInvalid",
+                "particles", "seed", "model"),
                 new ArrayList<>(json.keySet()));
         EvidenceEstimate evidence = result.evidence();
         assertSameDouble(evidence.logEvidence(), json.get("logEvidence"), "logEvidence");
@@ -73,6 +74,8 @@ class SummaryJsonTest {
         assertEquals(result.evaluations().evaluations(), json.get("likelihoodEvaluations"));
         assertEquals(0L, json.get("zeroLikelihoodEvaluations"));
         assertEquals(0L, json.get("invalidEvaluations"));
+        assertEquals(0L, json.get("retriedEvaluations"));
+        assertEquals(0L, json.get("failedAfterRetries"));
         assertTrue(json.containsKey("firstInvalid"));
         assertNull(json.get("firstInvalid"));
         assertEquals(400L, json.get("particles"));
@@ -92,7 +95,10 @@ class SummaryJsonTest {
         @SuppressWarnings("unchecked")
         Map<String, Object> first = (Map<String, Object>) json.get("firstInvalid");
         assertNotNull(first);
-        assertEquals(List.of("particle", "reason", "parameters"), new ArrayList<>(first.keySet()));
+        assertEquals(List.of("iteration", "particle", "reason", "parameters"), new ArrayList<>(first.keySet()));
+        long firstIteration = result.iterations().stream().filter(r -> r.invalidEvaluations() > 0).findFirst()
+                .orElseThrow().iteration();
+        assertEquals(firstIteration, first.get("iteration"));
         assertEquals(tally.firstInvalidIndex(), first.get("particle"));
         assertEquals(tally.firstInvalidReason(), first.get("reason"));
         assertTrue(((String) first.get("reason")).contains(EngineRuns.REASON));

@@ -148,4 +148,45 @@ class ProgressDisplayTest {
         assertTrue(lines[1].contains("phi 0.9999 "), lines[1]);
         assertEquals("12:00:00", ProgressDisplay.clockTime(43_200));
     }
+
+    private static IterationRecord failing(int iteration, double phi, long invalid, long retried, long stillInvalid) {
+        return new IterationRecord(iteration, phi, 900, false, 1000, 0, 0.3, 3, 1.0, 0, 0, 2000, 0, invalid, 17,
+                "java.lang.IllegalStateException: solver diverged", new PhaseTimes(0, 0, 0, 0, 0, 0, 0, 0), retried,
+                stillInvalid, List.of(2.75, 0.1 + 0.2));
+    }
+
+    @Test
+    @DisplayName("one warning line per iteration with invalid evaluations: count, retries, first particle's values and reason")
+    void warnings() {
+        ProgressDisplay display = new ProgressDisplay(out, false, clock, List.of("theta", "sigma"));
+        clock.advance(2);
+        display.iterationFinished(failing(0, 0.0, 30, 0, 0));
+        clock.advance(2);
+        display.iterationFinished(record(1, 0.01, 512, 0.234, 2000));
+        clock.advance(2);
+        display.iterationFinished(failing(2, 1.0, 5, 9, 5));
+        String[] lines = text().split(NL);
+        assertEquals(5, lines.length, text());
+        assertEquals("2025-03-01T09:30:02Z warning: iter 0: 30 of 2000 likelihood evaluations invalid (1.5%); "
+                + "first: particle 17 at theta=2.75, sigma=0.30000000000000004: "
+                + "java.lang.IllegalStateException: solver diverged", lines[1]);
+        assertTrue(lines[2].contains(" iter 1 "), lines[2]);
+        assertTrue(lines[4].contains("warning: iter 2: 5 of 2000 likelihood evaluations invalid (0.3%); 9 retried, "
+                + "5 still invalid; first: particle 17"), lines[4]);
+    }
+
+    @Test
+    @DisplayName("interactive: a warning ends the live line and stands on its own line")
+    void warningsInteractive() {
+        ProgressDisplay display = new ProgressDisplay(out, true, clock, null);
+        clock.advance(2);
+        display.iterationFinished(failing(1, 0.5, 30, 0, 0));
+        clock.advance(2);
+        display.iterationFinished(record(2, 1.0, 700, 0.25, 100));
+        String[] lines = text().split(NL);
+        assertEquals(3, lines.length, text());
+        assertTrue(lines[0].startsWith("\riter 1 "), lines[0]);
+        assertTrue(lines[1].contains("warning: iter 1: 30 of 2000") && lines[1].contains("at x0=2.75, x1="), lines[1]);
+        assertTrue(lines[2].startsWith("\riter 2 "), lines[2]);
+    }
 }

@@ -12,6 +12,12 @@ import org.skerry.engine.random.StreamPurpose;
  * {@code +Infinity} and exceptions into {@code -Infinity} and counting them, so an invalid
  * evaluation never reaches a sum. Hands stochastic simulators their keyed random stream.
  *
+ * <p>With {@code retries > 0} an invalid call is repeated up to that many times before it counts
+ * as invalid, for models that fail for reasons of their own (a solver that gives up on a busy node,
+ * a simulator service that drops a request). Every retry sees the same random stream from its
+ * start, so a stochastic simulator that failed because of the numbers it drew fails again the
+ * same way, and a retry never changes the answer of a model that did not fail.
+ *
  * <p>One instance per worker thread (it reuses its context and stream); not thread-safe.
  */
 public final class LikelihoodEvaluator implements LikelihoodContext {
@@ -19,6 +25,7 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
     private final Model model;
     private final long seed;
     private final RandomStream simulatorStream;
+    private final int retries;
     private long particleIndex;
     private int iteration;
     private int step;
@@ -30,10 +37,22 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
     private long firstInvalidIndex = -1;
     private String firstInvalidReason;
     private double[] firstInvalidParameters;
+    private long retried;
+    private long failedAfterRetries;
 
+    /** An evaluator that never retries. */
     public LikelihoodEvaluator(Model model, long seed) {
+        this(model, seed, 0);
+    }
+
+    /** An evaluator that repeats an invalid call up to {@code retries} times. */
+    public LikelihoodEvaluator(Model model, long seed, int retries) {
+        if (retries < 0) {
+            throw new IllegalArgumentException("retries must be >= 0, was " + retries);
+        }
         this.model = model;
         this.seed = seed;
+        this.retries = retries;
         this.simulatorStream = new RandomStream(seed, StreamPurpose.SIMULATOR, 0, 0, 0);
     }
 
@@ -49,22 +68,31 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
         this.particleIndex = particleIndex;
         this.iteration = iteration;
         this.step = step;
-        this.streamReady = false;
         evaluations++;
-        double value;
-        String reason;
-        try {
-            value = model.logLikelihood(parameters, this);
-            if (value == Double.NEGATIVE_INFINITY) {
-                zeroLikelihood++;
-                return value;
+        String reason = null;
+        for (int attempt = 0; attempt <= retries; attempt++) {
+            // Each attempt restarts the simulator stream, so a retry sees the numbers the first call saw.
+            this.streamReady = false;
+            try {
+                double value = model.logLikelihood(parameters, this);
+                if (!Double.isNaN(value) && value != Double.POSITIVE_INFINITY) {
+                    if (attempt > 0) {
+                        retried++;
+                    }
+                    if (value == Double.NEGATIVE_INFINITY) {
+                        zeroLikelihood++;
+                    }
+                    return value;
+                }
+                reason = Double.isNaN(value) ? "log-likelihood was NaN" : "log-likelihood was +Infinity";
+            } catch (RuntimeException | StackOverflowError e) {
+                reason = e.getClass().getName() + (e.getMessage() == null ? "" : ": " + e.getMessage());
             }
-            if (!Double.isNaN(value) && value != Double.POSITIVE_INFINITY) {
-                return value;
-            }
-            reason = Double.isNaN(value) ? "log-likelihood was NaN" : "log-likelihood was +Infinity";
-        } catch (RuntimeException | StackOverflowError e) {
-            reason = e.getClass().getName() + (e.getMessage() == null ? "" : ": " + e.getMessage());
+        }
+        if (retries > 0) {
+            retried++;
+            failedAfterRetries++;
+            reason += " (and again on " + retries + (retries == 1 ? " retry)" : " retries)");
         }
         recordInvalid(parameters, particleIndex, reason);
         return Double.NEGATIVE_INFINITY;
@@ -72,32 +100,31 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
 
     /**
      * Evaluates a block of parameter vectors with the model's batched form when it has one, else
-     * one by one; {@code indices} gives each vector's global particle index.
+     * one by one; {@code indices} gives each vector's global particle index. When a batch call
+     * returns invalid values, only those vectors are evaluated again one by one (with retries, and
+     * reported); when it throws, every vector is. A batched model is deterministic, so its valid
+     * values equal the single calls' and the counts do not depend on how particles are grouped.
      */
     public void evaluateAll(double[] parameters, int count, long[] indices, int iteration, int step,
             double[] out, double[] scratch) {
+        int d = model.dimension();
+        boolean batched = false;
         if (model instanceof BatchedModel && count > 0) {
             try {
                 ((BatchedModel) model).logLikelihoods(parameters, count, out);
-                boolean allValid = true;
-                for (int i = 0; i < count; i++) {
-                    allValid &= !Double.isNaN(out[i]) && out[i] != Double.POSITIVE_INFINITY;
-                }
-                if (allValid) {
-                    evaluations += count;
-                    for (int i = 0; i < count; i++) {
-                        if (out[i] == Double.NEGATIVE_INFINITY) {
-                            zeroLikelihood++;
-                        }
-                    }
-                    return;
-                }
+                batched = true;
             } catch (RuntimeException e) {
                 // fall through: single calls find and report the failing particles
             }
         }
-        int d = model.dimension();
         for (int i = 0; i < count; i++) {
+            if (batched && !Double.isNaN(out[i]) && out[i] != Double.POSITIVE_INFINITY) {
+                evaluations++;
+                if (out[i] == Double.NEGATIVE_INFINITY) {
+                    zeroLikelihood++;
+                }
+                continue;
+            }
             System.arraycopy(parameters, i * d, scratch, 0, d);
             out[i] = evaluate(scratch, indices[i], iteration, step);
         }
@@ -115,7 +142,9 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
     /** Counts since construction or the last call, then resets them. */
     public EvaluationTally drainTally() {
         EvaluationTally tally = new EvaluationTally(evaluations, zeroLikelihood, invalid, firstInvalidIndex,
-                firstInvalidReason, firstInvalidParameters);
+                firstInvalidReason, firstInvalidParameters, retried, failedAfterRetries);
+        retried = 0;
+        failedAfterRetries = 0;
         evaluations = 0;
         zeroLikelihood = 0;
         invalid = 0;

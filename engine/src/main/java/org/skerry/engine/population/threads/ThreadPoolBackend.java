@@ -67,7 +67,7 @@ public final class ThreadPoolBackend implements PopulationBackend {
         }
         int size = blockSize > 0 ? blockSize : Math.max(1, (particles + 4 * threads - 1) / (4 * threads));
         int blocks = islands > 0 ? islands : (particles + size - 1) / size;
-        return new ThreadPopulation(this, source.create(), particles, seed, blocks);
+        return new ThreadPopulation(this, source.create(), particles, seed, blocks, source.evaluationRetries());
     }
 
     /** Applies {@code task} to every item on the pool and returns the results in item order. */

@@ -38,10 +38,12 @@ final class ThreadPopulation implements Population {
     private final Model model;
     private final int size;
     private final long seed;
+    private final int retries;
     private List<ParticleBlock> blocks;
 
-    ThreadPopulation(ThreadPoolBackend backend, Model model, int size, long seed, int blockCount) {
+    ThreadPopulation(ThreadPoolBackend backend, Model model, int size, long seed, int blockCount, int retries) {
         this.backend = backend;
+        this.retries = retries;
         this.model = model;
         this.size = size;
         this.seed = seed;
@@ -73,7 +75,7 @@ final class ThreadPopulation implements Population {
     @Override
     public EvaluationTally initialise(Prior proposal) {
         List<EvaluationTally> tallies = backend.map(blocks,
-                block -> InitialDraw.draw(block, proposal, new LikelihoodEvaluator(model, seed), seed));
+                block -> InitialDraw.draw(block, proposal, new LikelihoodEvaluator(model, seed, retries), seed));
         EvaluationTally total = EvaluationTally.NONE;
         for (EvaluationTally tally : tallies) {
             total = total.plus(tally);
@@ -140,7 +142,7 @@ final class ThreadPopulation implements Population {
     @Override
     public MoveTally move(Proposal proposal, double temperature, int iteration, int firstStep, int steps) {
         List<MoveTally> tallies = backend.map(blocks, block -> MetropolisHastingsMover.move(block, proposal,
-                temperature, iteration, firstStep, steps, new LikelihoodEvaluator(model, seed), seed));
+                temperature, iteration, firstStep, steps, new LikelihoodEvaluator(model, seed, retries), seed));
         MoveTally total = MoveTally.NONE;
         for (MoveTally tally : tallies) {
             total = total.plus(tally);
