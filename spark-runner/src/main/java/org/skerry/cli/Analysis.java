@@ -84,7 +84,23 @@ public final class Analysis {
         }
         RunSpec spec = RunSpec.from(RunFile.load(conf, overrides));
         ModelBuilder.Built built = ModelBuilder.build(spec);
+        if (!hasCheckpoints(spec, runFolder)) {
+            // Stopped before its first checkpoint: nothing is lost by starting again, and the seed
+            // makes it the same run.
+            say(progressOut, "no checkpoint in " + runFolder + " yet: running it from the start");
+            return execute(spec, built, runFolder, Instant.now(), progressOut, false);
+        }
         return execute(spec, built, runFolder, Instant.now(), progressOut, true);
+    }
+
+    private static boolean hasCheckpoints(RunSpec spec, Path runFolder) {
+        CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
+        try {
+            return !checkpoints.list().isEmpty();
+        } catch (java.io.IOException e) {
+            throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot list the checkpoints in " + checkpoints.files().root()
+                    + ": " + e.getMessage(), e);
+        }
     }
 
     /** Whether the run in {@code runFolder} has finished (its summary is written last). */

@@ -52,7 +52,8 @@ public final class SkerryCommand implements Runnable {
                 errors.println("skerry: raise " + RunSpec.MAX_INVALID_FRACTION_KEY + " (up to 1) only if the model is "
                         + "known to fail there (the posterior is then conditional on where it works); set "
                         + RunSpec.RETRIES_KEY + " for a model that fails now and then; return -Infinity where the "
-                        + "parameters are impossible. The run folder keeps what was written.");
+                        + "parameters are impossible. The run folder keeps what was written, checkpoints included: "
+                        + "skerry resume RUN_FOLDER --set " + RunSpec.MAX_INVALID_FRACTION_KEY + "=… continues it.");
                 errors.flush();
                 return ExitCodes.RUN_FAILURE;
             }

@@ -16,14 +16,19 @@ import java.util.TreeMap;
 /**
  * The settings of a run that decide its answer, flattened to {@code key → value} text: every
  * resolved key except those that only say how or where the run goes (run name, output,
- * progress, backend and executors, checkpoints, limits). The data file enters by the SHA-256 of
+ * progress, backend and executors, checkpoints, limits, the invalid-evaluation limit). The data file enters by the SHA-256 of
  * its content rather than its path, so a moved data file is the same data and an edited one is
  * not. A checkpoint saves this map and a resume compares it.
  */
 public final class AnswerSettings {
 
-    /** Prefixes of keys that never change the answer (see the design's "same seed, same answer"). */
-    static final List<String> NEUTRAL = List.of("name", "output.", "backend.", "checkpoint.", "limits.");
+    /**
+     * Keys (or prefixes, ending in a dot) that never change the answer (see the design's "same
+     * seed, same answer"). The invalid-evaluation limit only decides whether a run stops, so a run
+     * stopped by it can be resumed with a higher limit.
+     */
+    static final List<String> NEUTRAL = List.of("name", "output.", "backend.", "checkpoint.", "limits.",
+            "sampler.max-invalid-fraction");
 
     private AnswerSettings() {
     }

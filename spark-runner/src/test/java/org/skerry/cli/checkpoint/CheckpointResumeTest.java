@@ -195,7 +195,7 @@ class CheckpointResumeTest {
     }
 
     @Test
-    @DisplayName("nothing to resume: a finished run exits 0 with a note, a folder without checkpoints or run.conf is an error")
+    @DisplayName("a finished run exits 0 with a note, a folder without run.conf is an error, a run stopped before its first checkpoint runs from the start")
     void nothingToResume() throws IOException {
         Result finished = skerry("resume", undisturbed.toString());
         assertEquals(0, finished.exitCode(), finished.err());
@@ -208,9 +208,18 @@ class CheckpointResumeTest {
 
         Path bare = Files.createDirectories(dir.resolve("no-checkpoints"));
         Files.copy(undisturbed.resolve("run.conf"), bare.resolve("run.conf"));
-        Result none = skerry("resume", bare.toString());
+        Result fresh = skerry("resume", bare.toString());
+        assertEquals(0, fresh.exitCode(), fresh.err());
+        assertTrue(fresh.err().contains("running it from the start"), fresh.err());
+        assertSameResults(undisturbed, bare);
+
+        Path unusable = crashedAfter(1, "all-damaged");
+        Files.delete(unusable.resolve("checkpoints/iteration-000000/manifest.txt"));
+        Files.delete(unusable.resolve("checkpoints/iteration-000001/driver-state.bin"));
+        Result none = skerry("resume", unusable.toString());
         assertEquals(ExitCodes.RUN_FAILURE, none.exitCode(), none.err());
-        assertTrue(none.err().contains("no checkpoint in"), none.err());
+        assertTrue(none.err().contains("no usable checkpoint in"), none.err());
+        assertTrue(none.err().contains("iteration-000001") && none.err().contains("iteration-000000"), none.err());
     }
 
     @Test

@@ -12,12 +12,19 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import java.util.concurrent.TimeUnit;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.DisplayName;
+import org.junit.jupiter.api.MethodOrderer;
+import org.junit.jupiter.api.Order;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.TestMethodOrder;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.cli.SkerryCommand;
 import org.skerry.engine.reference.NormalMeanExact;
@@ -26,8 +33,10 @@ import org.skerry.engine.reference.SyntheticData;
 /**
  * skerry on a real standalone cluster: a master and two workers in separate JVMs on loopback
  * addresses, started and stopped by the test. Runs the conjugate model and the demo at small N
- * through the command and compares their files with local mode, byte for byte.
+ * through the command and compares their files with local mode, byte for byte; last, loses a
+ * worker (and its executor) in the middle of a run, which must still end byte-identical.
  */
+@TestMethodOrder(MethodOrderer.OrderAnnotation.class)
 class StandaloneClusterRunTest {
 
     @TempDir
@@ -84,6 +93,7 @@ class StandaloneClusterRunTest {
     }
 
     @Test
+    @Order(1)
     @DisplayName("conjugate model on the cluster: bit-identical to local mode, evidence near the closed form (PRML eq. 2.115)")
     void conjugateOnCluster() throws IOException {
         double[][] rows = SyntheticData.normalRows(61, 20, new double[] {0.4}, 1.0);
@@ -111,6 +121,7 @@ class StandaloneClusterRunTest {
     }
 
     @Test
+    @Order(2)
     @DisplayName("the demo at small N on the cluster: bit-identical to local mode")
     void demoOnCluster() throws IOException {
         Path runFile = Path.of("..", "conf", "demo", "buoy-07-sigmoidal.conf").toAbsolutePath().normalize();
@@ -118,5 +129,36 @@ class StandaloneClusterRunTest {
         run(onCluster(runFile, dir.resolve("demo-cluster"), small).toArray(new String[0]));
         run(local(runFile, dir.resolve("demo-local"), small).toArray(new String[0]));
         assertSameFiles(dir.resolve("demo-cluster"), dir.resolve("demo-local"));
+    }
+
+    @Test
+    @Order(3)
+    @DisplayName("a worker killed after checkpoint 2: the run completes, byte-identical to local mode (runs last: the cluster keeps one worker)")
+    void lostWorker() throws Exception {
+        Path runFile = Path.of("..", "conf", "demo", "buoy-07-sigmoidal.conf").toAbsolutePath().normalize();
+        String[] more = {"--set", "sampler.particles=150"};
+        Path out = dir.resolve("lost-worker");
+        StringWriter err = new StringWriter();
+        ExecutorService driver = Executors.newSingleThreadExecutor();
+        try {
+            Future<Integer> code = driver.submit(() -> SkerryCommand.execute(
+                    onCluster(runFile, out, more).toArray(new String[0]), new PrintWriter(new StringWriter()),
+                    new PrintWriter(err, true)));
+            Path manifest = out.resolve("checkpoints/iteration-000002/manifest.txt");
+            long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(240);
+            while (!Files.exists(manifest)) {
+                assertTrue(!code.isDone(), "the run ended before checkpoint 2: " + err);
+                assertTrue(System.nanoTime() < deadline, "no checkpoint 2 within 240 s: " + err);
+                Thread.sleep(20);
+            }
+            assertTrue(!cluster.executorsOf(2).isEmpty(), "worker 2 runs an executor of this run");
+            cluster.killWorker(2);
+            assertTrue(!Files.exists(out.resolve("summary.json")), "the worker was lost before the run ended");
+            assertEquals(0, (int) code.get(300, TimeUnit.SECONDS), err.toString());
+        } finally {
+            driver.shutdownNow();
+        }
+        run(local(runFile, dir.resolve("lost-worker-local"), more).toArray(new String[0]));
+        assertSameFiles(out, dir.resolve("lost-worker-local"));
     }
 }
