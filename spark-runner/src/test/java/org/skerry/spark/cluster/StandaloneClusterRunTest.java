@@ -27,6 +27,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestMethodOrder;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.cli.SkerryCommand;
+import org.skerry.cli.checkpoint.NodeLocalFileSystem;
 import org.skerry.engine.reference.NormalMeanExact;
 import org.skerry.engine.reference.SyntheticData;
 
@@ -133,6 +134,24 @@ class StandaloneClusterRunTest {
 
     @Test
     @Order(3)
+    @DisplayName("a checkpoint path the executors do not see (one node's local disk) is refused before the run, naming it")
+    void checkpointPathNotShared() throws IOException {
+        Path out = dir.resolve("not-shared");
+        String root = "nodelocal://" + dir.resolve("node-checkpoints");
+        StringWriter err = new StringWriter();
+        int code = SkerryCommand.execute(onCluster(dir.resolve("conjugate.conf"), out,
+                "--set", "checkpoint.path=\"" + root + "\"",
+                "--set", "backend.spark.\"spark.hadoop.fs.nodelocal.impl\"=" + NodeLocalFileSystem.class.getName(),
+                "--set", "backend.spark.\"spark.executor.extraJavaOptions\"=\"-Dskerry.test.node=elsewhere\"")
+                .toArray(new String[0]), new PrintWriter(new StringWriter()), new PrintWriter(err, true));
+        assertEquals(2, code, err.toString());
+        assertTrue(err.toString().contains("checkpoint.path = " + root + " is not visible from executors on"),
+                err.toString());
+        assertTrue(!Files.exists(out.resolve("iterations.csv")), "nothing was run");
+    }
+
+    @Test
+    @Order(4)
     @DisplayName("a worker killed after checkpoint 2: the run completes, byte-identical to local mode (runs last: the cluster keeps one worker)")
     void lostWorker() throws Exception {
         Path runFile = Path.of("..", "conf", "demo", "buoy-07-sigmoidal.conf").toAbsolutePath().normalize();
