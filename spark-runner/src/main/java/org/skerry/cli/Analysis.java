@@ -179,6 +179,8 @@ public final class Analysis {
             } catch (CheckpointWriteException e) {
                 throw new RunEnded(ExitCodes.RUN_FAILURE, e.getMessage() + ". Fix the cause, then continue with: "
                         + "skerry resume " + runFolder, e);
+            } catch (java.io.UncheckedIOException e) {
+                throw outputFailed(e, checkpoints, runFolder);
             } catch (SettingsChangedException e) {
                 throw new RunFileException(e.getMessage(), e);
             } catch (IllegalStateException e) {
@@ -190,10 +192,22 @@ public final class Analysis {
                 signal.runEnded();
             }
             double wall = (System.nanoTime() - start) * 1e-9;
-            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
-                    built.model().parameters().names(), result, wall, started, opened.backend.description()));
+            try {
+                RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
+                        built.model().parameters().names(), result, wall, started, opened.backend.description()));
+            } catch (java.io.UncheckedIOException e) {
+                throw outputFailed(e, checkpoints, runFolder);
+            }
             return new Outcome(runFolder, spec, result, wall);
         }
+    }
+
+    /** A run-folder file could not be written (full or read-only disk): say so, and what is kept. */
+    private static RunEnded outputFailed(java.io.UncheckedIOException e, CheckpointFolder checkpoints, Path runFolder) {
+        int lastGood = checkpoints.newestComplete();
+        return new RunEnded(ExitCodes.RUN_FAILURE, e.getMessage() + ": " + CheckpointWriteException.rootMessage(e)
+                + (lastGood >= 0 ? "; the checkpoint of iteration " + lastGood + " is intact. Fix the cause, then "
+                        + "continue with: skerry resume " + runFolder : ""), e);
     }
 
     /** On a cluster, executors must see the checkpoint folder; local mode shares the driver's disk. */

@@ -121,6 +121,20 @@ public final class CheckpointFolder {
         }
     }
 
+    /** The newest complete checkpoint's iteration, or −1 (also when the folder cannot be listed). */
+    public int newestComplete() {
+        try {
+            for (Found found : list()) {
+                if (found.problem() == null) {
+                    return found.iteration();
+                }
+            }
+        } catch (IOException | RuntimeException e) {
+            // a file system that just failed may fail again; callers then say there is none
+        }
+        return -1;
+    }
+
     /** Every checkpoint folder, newest first, each with its manifest or the reason it has none. */
     public List<Found> list() throws IOException {
         FileSystem fs = files.fileSystem();

@@ -31,7 +31,7 @@ public final class CheckpointWriteException extends RuntimeException {
     }
 
     /** The innermost cause's message: the file system's own words ("No space left on device"). */
-    static String rootMessage(Throwable error) {
+    public static String rootMessage(Throwable error) {
         Throwable root = error;
         while (root.getCause() != null && root.getCause() != root) {
             root = root.getCause();

@@ -53,23 +53,10 @@ public final class FileCheckpointer implements Checkpointer {
         try {
             folder.write(state, population, answerSettings);
         } catch (Exception e) {
-            throw new CheckpointWriteException(state.iteration(), folder.files().root(), newestComplete(), e);
+            throw new CheckpointWriteException(state.iteration(), folder.files().root(), folder.newestComplete(), e);
         }
         lastWriteNanos = System.nanoTime();
         afterWrite.accept(state);
     }
 
-    /** The newest complete checkpoint on disk, or −1 (also when the folder cannot be listed). */
-    private int newestComplete() {
-        try {
-            for (CheckpointFolder.Found found : folder.list()) {
-                if (found.problem() == null) {
-                    return found.iteration();
-                }
-            }
-        } catch (Exception e) {
-            // the file system that just failed may fail again; the message then says no checkpoint
-        }
-        return -1;
-    }
 }

@@ -4,12 +4,16 @@ import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.DisplayName;
@@ -19,12 +23,12 @@ import org.skerry.cli.ExitCodes;
 import org.skerry.cli.ProgramProcess;
 
 /**
- * The driver process killed or told to stop mid-run, then resumed: the final files are byte for
- * byte those of an undisturbed run. Each fault is triggered by an observable event — the
+ * The driver process killed or told to stop mid-run, or its run folder turned read-only, then
+ * resumed: the final files are byte for byte those of an undisturbed run. Each fault is triggered by an observable event — the
  * checkpoint of iteration 2 appearing — never by a timer. The runs use the demo's ODE model at
  * small N, whose iterations take long enough that the fault lands before the run ends (checked).
  */
-class ProcessFaultTest {
+class RunFaultTest {
 
     private static final Path DEMO_RUN = Path.of("..", "conf", "demo", "buoy-07-sigmoidal.conf").toAbsolutePath()
             .normalize();
@@ -101,19 +105,62 @@ class ProcessFaultTest {
         resumeAndCompare(out);
     }
 
+    /** chattr +i / -i: makes a folder immutable even for root (ext4, xfs …); false where unsupported. */
+    private static boolean immutable(Path folder, boolean on) throws IOException, InterruptedException {
+        Process chattr;
+        try {
+            chattr = new ProcessBuilder("chattr", on ? "+i" : "-i", folder.toString()).redirectErrorStream(true).start();
+        } catch (IOException e) {
+            return false;
+        }
+        return chattr.waitFor(10, TimeUnit.SECONDS) && chattr.exitValue() == 0;
+    }
+
     @Test
-    @DisplayName("SIGTERM with a grace period shorter than an iteration: the iteration is abandoned, exit 75 at once → resume → byte-identical")
-    void abandoned() throws Exception {
-        Path out = dir.resolve("abandoned");
-        Path log = dir.resolve("abandoned.log");
-        // Threads backend and a 1 s grace period: the next iteration (≈ 1–2 s of ODE solves) cannot fit.
-        Process process = startAndAwaitCheckpoint(out, log, 2, "--set", "backend.kind=threads",
-                "--set", "backend.threads=1", "--set", "limits.stop-grace-seconds=1");
-        process.destroy();
-        assertTrue(process.waitFor(30, TimeUnit.SECONDS));
-        String text = Files.readString(log);
-        assertEquals(ExitCodes.STOPPED_RESUMABLE, process.exitValue(), text);
-        assertTrue(text.contains("abandoning"), text);
+    @DisplayName("run folder turns read-only after checkpoint 2: a clear error, exit 1, the last checkpoint intact → resume → byte-identical")
+    void readOnlyRunFolder() throws Exception {
+        Path probe = Files.createDirectories(dir.resolve("probe"));
+        boolean supported = immutable(probe, true);
+        if (supported) {
+            boolean blocked = false;
+            try {
+                Files.createFile(probe.resolve("x"));
+            } catch (IOException e) {
+                blocked = true;
+            }
+            immutable(probe, false);
+            supported = blocked;
+        }
+        assumeTrue(supported, "chattr +i is not available here: cannot simulate a read-only folder as root");
+
+        Path out = dir.resolve("read-only");
+        ExecutorService driver = Executors.newSingleThreadExecutor();
+        try {
+            Future<CheckpointResumeTest.Result> running = driver.submit(() -> CheckpointResumeTest.skerry(
+                    args(out, "--set", "backend.kind=threads", "--set", "backend.threads=1")));
+            Path manifest = out.resolve("checkpoints/iteration-000002/manifest.txt");
+            long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
+            while (!Files.exists(manifest)) {
+                assertTrue(!running.isDone(), "the run ended before checkpoint 2");
+                assertTrue(System.nanoTime() < deadline, "no checkpoint 2 within 120 s");
+                Thread.sleep(20);
+            }
+            assertTrue(immutable(out, true) && immutable(out.resolve("checkpoints"), true));
+            CheckpointResumeTest.Result result;
+            try {
+                result = running.get(120, TimeUnit.SECONDS);
+            } finally {
+                immutable(out.resolve("checkpoints"), false);
+                immutable(out, false);
+            }
+            assertEquals(ExitCodes.RUN_FAILURE, result.exitCode(), result.err());
+            assertTrue(result.err().contains("Operation not permitted") || result.err().contains("Permission denied")
+                    || result.err().contains("cannot create"), result.err());
+            assertTrue(result.err().matches("(?s).*the checkpoint of iteration [2-9] is intact.*"), result.err());
+            assertTrue(result.err().contains("skerry resume " + out), result.err());
+        } finally {
+            driver.shutdownNow();
+        }
         resumeAndCompare(out);
     }
 }
