@@ -39,6 +39,14 @@ public final class Analysis {
      * @param progressOut where progress goes (standard error for the command)
      */
     public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut) {
+        return run(spec, folder, progressOut, IterationListener.NONE);
+    }
+
+    /**
+     * As {@link #run(RunSpec, Path, PrintWriter)}, also telling {@code observer} about each
+     * iteration on the thread that runs the sampler (the scaling study measures the driver there).
+     */
+    public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut, IterationListener observer) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder : spec.outputFolder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
@@ -49,7 +57,11 @@ public final class Analysis {
         SamplerResult result;
         try (Backends.Opened opened = Backends.open(spec, runFolder);
                 ProgressDisplay progress = progress(spec, progressOut)) {
-            IterationListener listener = progress == null ? IterationListener.NONE : progress;
+            IterationListener shown = progress == null ? IterationListener.NONE : progress;
+            IterationListener listener = observer == IterationListener.NONE ? shown : record -> {
+                shown.iterationFinished(record);
+                observer.iterationFinished(record);
+            };
             result = new SmcSampler(spec.sampler()).run(built.source(), opened.backend, listener);
             double wall = (System.nanoTime() - start) * 1e-9;
             RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),

@@ -2,6 +2,7 @@ package org.skerry.cli;
 
 import java.io.PrintWriter;
 import org.skerry.cli.runfile.RunFileException;
+import org.skerry.cli.scaling.ScaleCommand;
 import org.skerry.engine.sampler.SamplingFailedException;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
@@ -13,7 +14,7 @@ import picocli.CommandLine.Command;
  */
 @Command(name = "skerry", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = "Bayesian calibration of costly models by sequential Monte Carlo: posterior, evidence, diagnostics.",
-        subcommands = {RunCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
+        subcommands = {RunCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class, ScaleCommand.class,
             DemoDataCommand.class, CommandLine.HelpCommand.class},
         exitCodeOnInvalidInput = ExitCodes.BAD_INPUT, exitCodeOnExecutionException = ExitCodes.RUN_FAILURE)
 public final class SkerryCommand implements Runnable {
