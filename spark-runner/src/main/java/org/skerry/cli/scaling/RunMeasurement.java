@@ -80,12 +80,8 @@ public record RunMeasurement(int iterations, int particles, long partitions, lon
         }
         try {
             Config c = ConfigFactory.parseFile(file.toFile());
-            Config p = c.getConfig("phaseSeconds");
-            PhaseTimes phases = new PhaseTimes(p.getDouble("evaluate"), p.getDouble("temperature"),
-                    p.getDouble("reweight"), p.getDouble("resample"), p.getDouble("redistribute"), p.getDouble("fit"),
-                    p.getDouble("move"), p.getDouble("checkpoint"));
             return new RunMeasurement(c.getInt("iterations"), c.getInt("particles"), c.getLong("partitions"),
-                    c.getLong("evaluations"), c.getDouble("wallSeconds"), phases, c.getLong("particlesMoved"),
+                    c.getLong("evaluations"), c.getDouble("wallSeconds"), phases(c), c.getLong("particlesMoved"),
                     c.getLong("driverBytesReceived"), c.getLong("exportBytesReceived"), c.getDouble("driverCpuSeconds"),
                     c.getDouble("loadAverage"), c.getString("backend"));
         } catch (ConfigException e) {
@@ -94,20 +90,20 @@ public record RunMeasurement(int iterations, int particles, long partitions, lon
         }
     }
 
+    /** The {@code phaseSeconds} object of this file or of a run's {@code timing.json}. */
+    static PhaseTimes phases(Config file) {
+        Config p = file.getConfig("phaseSeconds");
+        return new PhaseTimes(p.getDouble("evaluate"), p.getDouble("temperature"), p.getDouble("reweight"),
+                p.getDouble("resample"), p.getDouble("redistribute"), p.getDouble("fit"), p.getDouble("move"),
+                p.hasPath("checkpoint") ? p.getDouble("checkpoint") : 0);
+    }
+
     /** Sums the phase times of a run's iterations. */
     static PhaseTimes sum(Iterable<IterationRecord> records) {
-        double[] s = new double[8];
+        PhaseTimes total = PhaseTimes.ZERO;
         for (IterationRecord record : records) {
-            PhaseTimes t = record.seconds();
-            s[0] += t.evaluate();
-            s[1] += t.temperature();
-            s[2] += t.reweight();
-            s[3] += t.resample();
-            s[4] += t.redistribute();
-            s[5] += t.fit();
-            s[6] += t.move();
-            s[7] += t.checkpoint();
+            total = total.plus(record.seconds());
         }
-        return new PhaseTimes(s[0], s[1], s[2], s[3], s[4], s[5], s[6], s[7]);
+        return total;
     }
 }

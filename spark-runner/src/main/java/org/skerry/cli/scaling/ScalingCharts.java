@@ -87,21 +87,29 @@ final class ScalingCharts {
         return out;
     }
 
-    private static JFreeChart speedup(ScalingTable table) {
-        boolean weak = table.study().scaling() == StudyFile.Scaling.WEAK;
-        YIntervalSeriesCollection measured = new YIntervalSeriesCollection();
-        XYSeries ideal = new XYSeries("ideal (linear)");
-        byGroup(table, true).forEach((group, stats) -> {
+    /**
+     * One series per group (median with the range as whiskers) and the ideal: k/k₀ for speed-up,
+     * 1 for efficiency.
+     */
+    private static void fill(ScalingTable table, boolean speedup, YIntervalSeriesCollection measured, XYSeries ideal) {
+        byGroup(table, speedup).forEach((group, stats) -> {
             YIntervalSeries series = new YIntervalSeries(group);
             stats.forEach((cores, s) -> series.add(cores, s[0], s[1], s[2]));
             measured.addSeries(series);
             int first = stats.firstKey();
             stats.keySet().forEach(cores -> {
                 if (ideal.indexOf(cores) < 0) {
-                    ideal.add((double) cores, (double) cores / first);
+                    ideal.add((double) cores, speedup ? (double) cores / first : 1.0);
                 }
             });
         });
+    }
+
+    private static JFreeChart speedup(ScalingTable table) {
+        boolean weak = table.study().scaling() == StudyFile.Scaling.WEAK;
+        YIntervalSeriesCollection measured = new YIntervalSeriesCollection();
+        XYSeries ideal = new XYSeries("ideal (linear)");
+        fill(table, true, measured, ideal);
         String title = table.study().name() + ": " + (weak ? "scaled speed-up (weak scaling)" : "speed-up (strong scaling)");
         JFreeChart chart = ChartFactory.createXYLineChart(title, "cores", weak
                 ? "scaled speed-up  k/k\u2080 \u00b7 T(k\u2080)/T(k)  (ratio)" : "speed-up  T(k\u2080)/T(k)  (ratio)",
@@ -119,16 +127,7 @@ final class ScalingCharts {
     private static JFreeChart efficiency(ScalingTable table) {
         YIntervalSeriesCollection measured = new YIntervalSeriesCollection();
         XYSeries ideal = new XYSeries("ideal (1.0)");
-        byGroup(table, false).forEach((group, stats) -> {
-            YIntervalSeries series = new YIntervalSeries(group);
-            stats.forEach((cores, s) -> series.add(cores, s[0], s[1], s[2]));
-            measured.addSeries(series);
-            stats.keySet().forEach(cores -> {
-                if (ideal.indexOf(cores) < 0) {
-                    ideal.add((double) cores, 1.0);
-                }
-            });
-        });
+        fill(table, false, measured, ideal);
         JFreeChart chart = ChartFactory.createXYLineChart(table.study().name() + ": parallel efficiency ("
                 + table.study().scaling().name().toLowerCase(java.util.Locale.ROOT) + " scaling)", "cores",
                 "parallel efficiency  (fraction of ideal)", measured, PlotOrientation.VERTICAL, true, false, false);

@@ -24,7 +24,6 @@ import org.skerry.cli.output.TimingJson;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.IterationRecord;
-import org.skerry.engine.sampler.PhaseTimes;
 
 /**
  * Runs a study's grid, one run at a time in this JVM: repeat r of every point before repeat r + 1
@@ -127,12 +126,9 @@ final class StudyRunner {
         try {
             Config timing = ConfigFactory.parseFile(folder.resolve(TimingJson.FILE_NAME).toFile());
             Config summary = ConfigFactory.parseFile(folder.resolve(SummaryJson.FILE_NAME).toFile());
-            Config p = timing.getConfig("phaseSeconds");
-            PhaseTimes phases = new PhaseTimes(p.getDouble("evaluate"), p.getDouble("temperature"),
-                    p.getDouble("reweight"), p.getDouble("resample"), p.getDouble("redistribute"), p.getDouble("fit"),
-                    p.getDouble("move"), p.hasPath("checkpoint") ? p.getDouble("checkpoint") : 0);
             return new RunMeasurement(summary.getInt("iterations"), point.spec().sampler().particles(), -1,
-                    summary.getLong("likelihoodEvaluations"), timing.getDouble("wallSeconds"), phases, -1, -1, -1, -1,
+                    summary.getLong("likelihoodEvaluations"), timing.getDouble("wallSeconds"),
+                    RunMeasurement.phases(timing), -1, -1, -1, -1,
                     -1, timing.getString("backend"));
         } catch (ConfigException e) {
             throw new RunFileException("run folder " + folder + " has summary.json but its timing cannot be read ("
