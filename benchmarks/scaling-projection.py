@@ -4,7 +4,7 @@ measured by `skerry scale` on this machine (benchmarks/results/scaling-driver-co
 
 Usage: python3 benchmarks/scaling-projection.py [results folder]   (default benchmarks/results)
 
-Model of one tempering iteration on k cores, P = 3k partitions (the default), N particles,
+Model of one tempering iteration on k cores, P = 3k partitions (the default; also P = k), N particles,
 R MH steps per particle, likelihood cost c (seconds per evaluation):
 
   T(k) = N R c / k * (1 + imbalance)         likelihood calls, spread over the cores
@@ -77,16 +77,20 @@ def main():
     print("measured: delta = %.3g s/particle (driver), e = %.3g s/particle (executor, one core), "
           "beta = %.3g s/partition, alpha = %.3g s per iteration" % (delta, e, beta, alpha))
 
-    def iteration(k, n, c):
-        p = 3 * k
+    def iteration(k, n, c, per_core):
+        p = per_core * k
         imbalance = math.ceil(n / p) / (n / p) - 1
         return (n * steps * c / k * (1 + imbalance) + e * n / k + delta * n + alpha + beta * p
                 + jobs * latency + 16 * n / bandwidth)
 
-    for title, size in (("strong scaling, N = 100 000 particles", lambda k: 100_000),
-                        ("weak scaling, N = 1 000 particles per core", lambda k: 1000 * k)):
+    for per_core, title, size in (
+            (3, "strong scaling, N = 100 000 particles", lambda k: 100_000),
+            (3, "weak scaling, N = 1 000 particles per core", lambda k: 1000 * k),
+            (1, "strong scaling, N = 100 000 particles", lambda k: 100_000),
+            (1, "weak scaling, N = 1 000 particles per core", lambda k: 1000 * k)):
         print()
-        print("PROJECTION (not measured): parallel efficiency, " + title + ", R = %d MH steps" % steps)
+        print("PROJECTION (not measured): parallel efficiency, " + title + ", R = %d MH steps, "
+              "%d partition(s) per core" % (steps, per_core))
         print("| likelihood cost | 64 cores | 256 cores | 1024 cores |")
         print("|---|---|---|---|")
         for label, c in (("1 ms", 1e-3), ("10 ms", 1e-2), ("1 s", 1.0)):
@@ -94,9 +98,9 @@ def main():
             for k in (64, 256, 1024):
                 n = size(k)
                 if size(1) == size(k):
-                    eff = iteration(1, n, c) / (k * iteration(k, n, c))
+                    eff = iteration(1, n, c, per_core) / (k * iteration(k, n, c, per_core))
                 else:
-                    eff = iteration(1, size(1), c) / iteration(k, n, c)
+                    eff = iteration(1, size(1), c, per_core) / iteration(k, n, c, per_core)
                 cells.append("%.3f" % eff)
             print("| %s | %s |" % (label, " | ".join(cells)))
 

@@ -60,7 +60,8 @@ final class ScalingSummary {
         boolean synthetic = study.points().stream().anyMatch(p -> "costly-normal".equals(p.spec().modelName()));
         if (synthetic) {
             md.append("; busy-work calibration ").append(String.format(Locale.ROOT, "%.1f", BusyWork.unitsPerMicrosecond()))
-                    .append(" units per microsecond");
+                    .append(" work units per microsecond in this JVM (`SKERRY_JAVA_OPTS=-D").append(BusyWork.PROPERTY)
+                    .append("=...` fixes it, to compare with studies run in another JVM)");
         }
         md.append(".\n\n");
         md.append("Every point × repeat is an ordinary run folder under `runs/`; `scaling.csv` has one row per run. ")

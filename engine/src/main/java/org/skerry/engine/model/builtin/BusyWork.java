@@ -10,6 +10,9 @@ package org.skerry.engine.model.builtin;
  */
 public final class BusyWork {
 
+    /** System property that fixes the work units per microsecond instead of measuring them. */
+    public static final String PROPERTY = "skerry.busy-work.units-per-microsecond";
+
     /** Multiply–add steps in one work unit. */
     private static final int STEPS_PER_UNIT = 64;
 
@@ -45,22 +48,42 @@ public final class BusyWork {
     }
 
     /**
-     * Calibration: after a warm-up that lets the JIT compile {@link #work}, the best of several
-     * 10 ms trials — the best, because a trial that lost its core to another process is slow, never
-     * fast. About 0.2 s once per JVM.
+     * Calibration: after a warm-up that lets the JIT compile {@link #work}, the best of 100 trials
+     * of 2 ms — the best, because a trial that lost its core to another process is slow, never
+     * fast, and short trials are more often left alone on a loaded machine. About 0.3 s once per
+     * JVM. The system property {@value #PROPERTY} fixes the rate instead (the figure a study's
+     * summary reports), so that runs in other JVMs do the same work.
      */
     private static final class Calibration {
-        static final double UNITS_PER_MICROSECOND = measure();
+        static final double UNITS_PER_MICROSECOND = fixedOrMeasured();
+
+        private static double fixedOrMeasured() {
+            String fixed = System.getProperty(PROPERTY);
+            if (fixed != null) {
+                double value;
+                try {
+                    value = Double.parseDouble(fixed);
+                } catch (NumberFormatException e) {
+                    value = Double.NaN;
+                }
+                if (!(value > 0) || Double.isInfinite(value)) {
+                    throw new IllegalArgumentException("system property " + PROPERTY
+                            + " must be a positive number of work units per microsecond, was '" + fixed + "'");
+                }
+                return value;
+            }
+            return measure();
+        }
 
         private static double measure() {
             long sink = 0;
-            long units = 256;
+            long units = 64;
             long warmEnd = System.nanoTime() + 100_000_000L;
             while (System.nanoTime() < warmEnd) {
                 sink += work(units);
             }
             double best = 0;
-            for (int trial = 0; trial < 10; trial++) {
+            for (int trial = 0; trial < 100; trial++) {
                 long done = 0;
                 long start = System.nanoTime();
                 long elapsed;
@@ -68,7 +91,7 @@ public final class BusyWork {
                     sink += work(units);
                     done += units;
                     elapsed = System.nanoTime() - start;
-                } while (elapsed < 10_000_000L);
+                } while (elapsed < 2_000_000L);
                 best = Math.max(best, done / (elapsed / 1000.0));
             }
             return sink == 42 ? best + Double.MIN_VALUE : best;
