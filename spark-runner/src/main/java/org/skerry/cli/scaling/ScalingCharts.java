@@ -177,8 +177,19 @@ final class ScalingCharts {
         chart.getTitle().setFont(new Font(Font.SANS_SERIF, Font.BOLD, 16));
         TextTitle subtitle = new TextTitle(note, new Font(Font.SANS_SERIF, Font.PLAIN, 11));
         chart.addSubtitle(subtitle);
+        double lowLoad = Double.POSITIVE_INFINITY;
+        double highLoad = Double.NEGATIVE_INFINITY;
+        for (ScalingTable.Row row : table.rows()) {
+            if (row.m().loadAverage() >= 0) {
+                lowLoad = Math.min(lowLoad, row.m().loadAverage());
+                highLoad = Math.max(highLoad, row.m().loadAverage());
+            }
+        }
+        String load = lowLoad > highLoad ? "" : String.format(java.util.Locale.ROOT,
+                "; machine load average %.1f–%.1f at the runs' starts (%d cores)", lowLoad, highLoad,
+                Runtime.getRuntime().availableProcessors());
         TextTitle context = new TextTitle(table.study().repeats() + " repeat(s) per point; base run "
-                + table.study().base().getFileName(), new Font(Font.SANS_SERIF, Font.ITALIC, 11));
+                + table.study().base().getFileName() + load, new Font(Font.SANS_SERIF, Font.ITALIC, 11));
         chart.addSubtitle(context);
         if (chart.getPlot() instanceof XYPlot) {
             ((XYPlot) chart.getPlot()).setBackgroundPaint(new Color(248, 248, 248));

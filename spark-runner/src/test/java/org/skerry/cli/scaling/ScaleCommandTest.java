@@ -111,6 +111,10 @@ class ScaleCommandTest {
             assertTrue(Files.isRegularFile(out.resolve(row.get("run_folder")).resolve("summary.json")));
         }
 
+        // Same seed, same answer whatever the cores: the study changes only how the runs are spread.
+        assertEquals(Files.readString(out.resolve(rows.get(0).get("run_folder")).resolve("summary.json")),
+                Files.readString(out.resolve(rows.get(1).get("run_folder")).resolve("summary.json")));
+
         for (String plot : List.of("speedup", "efficiency", "phases")) {
             BufferedImage image = ImageIO.read(out.resolve(plot + ".png").toFile());
             assertEquals(ScalingCharts.WIDTH, image.getWidth(), plot);
