@@ -2,9 +2,11 @@ package org.skerry.benchmarks;
 
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.ModelSource;
+import org.skerry.engine.model.builtin.CostlyNormalModel;
 
 /**
- * A portable source of {@link BusyModel}, so the Spark backend can rebuild the model on each
+ * A portable source of the engine's synthetic {@link CostlyNormalModel} (N(1, 1) data, N(0, 3²)
+ * prior, calibrated busy work per evaluation), so the Spark backend can rebuild the model on each
  * executor. Two sources with the same dimension and cost build the same model and share an id,
  * which lets an executor keep one model for both.
  */
@@ -26,7 +28,7 @@ public final class BusyModelSource implements ModelSource {
 
     @Override
     public Model create() {
-        return new BusyModel(dimension, costMicros);
+        return CostlyNormalModel.of(dimension, costMicros);
     }
 
     @Override

@@ -188,7 +188,7 @@ public final class InterleavedComparison {
 
     /** The floor: the same number of likelihood calls split evenly over the same number of threads. */
     private long bareLoop(ExecutorService pool) throws Exception {
-        return BusyModel.bareLoop(pool, threads, evaluations(), costMicros);
+        return BareLoop.run(pool, threads, evaluations(), costMicros);
     }
 
     /** CPU time of this whole JVM (driver, local executors, Spark's own threads). */

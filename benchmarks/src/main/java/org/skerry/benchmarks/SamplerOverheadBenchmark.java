@@ -16,6 +16,8 @@ import org.openjdk.jmh.annotations.Setup;
 import org.openjdk.jmh.annotations.State;
 import org.openjdk.jmh.annotations.TearDown;
 import org.openjdk.jmh.annotations.Warmup;
+import org.skerry.engine.model.Model;
+import org.skerry.engine.model.builtin.CostlyNormalModel;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
 import org.skerry.engine.sampler.SamplerResult;
 import org.skerry.engine.sampler.SamplerSettings;
@@ -54,14 +56,14 @@ public class SamplerOverheadBenchmark {
     @Param("0")
     public int blockSize;
 
-    private BusyModel model;
+    private Model model;
     private ThreadPoolBackend backend;
     private ExecutorService barePool;
     private SamplerSettings settings;
 
     @Setup(Level.Trial)
     public void setUp() {
-        model = new BusyModel(2, costMicros);
+        model = CostlyNormalModel.of(2, costMicros);
         backend = new ThreadPoolBackend(threads, blockSize);
         barePool = Executors.newFixedThreadPool(threads);
         settings = SamplerSettings.builder().particles(particles).seed(11)
@@ -91,6 +93,6 @@ public class SamplerOverheadBenchmark {
 
     @Benchmark
     public long bareLikelihoodLoop() throws Exception {
-        return BusyModel.bareLoop(barePool, threads, evaluations(), costMicros);
+        return BareLoop.run(barePool, threads, evaluations(), costMicros);
     }
 }

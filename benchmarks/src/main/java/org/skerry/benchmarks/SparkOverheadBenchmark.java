@@ -97,6 +97,6 @@ public class SparkOverheadBenchmark extends SparkForkedBenchmark {
     /** The floor: the same number of likelihood calls split evenly over the same threads. */
     @Benchmark
     public long bareLikelihoodLoop() throws Exception {
-        return BusyModel.bareLoop(barePool, threads, evaluations(), costMicros);
+        return BareLoop.run(barePool, threads, evaluations(), costMicros);
     }
 }

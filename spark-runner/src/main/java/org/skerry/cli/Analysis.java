@@ -62,12 +62,20 @@ public final class Analysis {
      * @param progressOut where progress goes (standard error for the command)
      */
     public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut) {
+        return run(spec, folder, progressOut, IterationListener.NONE);
+    }
+
+    /**
+     * As {@link #run(RunSpec, Path, PrintWriter)}, also telling {@code observer} about each
+     * iteration on the thread that runs the sampler (the scaling study measures the driver there).
+     */
+    public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut, IterationListener observer) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder : spec.outputFolder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
         prepare(runFolder);
         RunOutputs.writeSettings(runFolder, forRunFolder(spec).render());
-        return execute(spec, built, runFolder, started, progressOut, false);
+        return execute(spec, built, runFolder, started, progressOut, false, observer);
     }
 
     /**
@@ -88,9 +96,9 @@ public final class Analysis {
             // Stopped before its first checkpoint: nothing is lost by starting again, and the seed
             // makes it the same run.
             say(progressOut, "no checkpoint in " + runFolder + " yet: running it from the start");
-            return execute(spec, built, runFolder, Instant.now(), progressOut, false);
+            return execute(spec, built, runFolder, Instant.now(), progressOut, false, IterationListener.NONE);
         }
-        return execute(spec, built, runFolder, Instant.now(), progressOut, true);
+        return execute(spec, built, runFolder, Instant.now(), progressOut, true, IterationListener.NONE);
     }
 
     private static boolean hasCheckpoints(RunSpec spec, Path runFolder) {
@@ -139,7 +147,7 @@ public final class Analysis {
     }
 
     private static Outcome execute(RunSpec spec, ModelBuilder.Built built, Path runFolder, Instant started,
-            PrintWriter progressOut, boolean resume) {
+            PrintWriter progressOut, boolean resume, IterationListener observer) {
         long start = System.nanoTime();
         CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
         SortedMap<String, String> answer = AnswerSettings.of(spec);
@@ -151,7 +159,11 @@ public final class Analysis {
             if (spec.checkpointEnabled()) {
                 checkVisible(opened, checkpoints);
             }
-            IterationListener listener = progress == null ? IterationListener.NONE : progress;
+            IterationListener shown = progress == null ? IterationListener.NONE : progress;
+            IterationListener listener = observer == IterationListener.NONE ? shown : record -> {
+                shown.iterationFinished(record);
+                observer.iterationFinished(record);
+            };
             Checkpointer checkpointer = spec.checkpointEnabled()
                     ? new FileCheckpointer(checkpoints, spec.checkpointEveryIterations(), spec.checkpointEveryMinutes(),
                             answer, state -> RunOutputs.writeIterations(runFolder, state.records()))

@@ -2,6 +2,7 @@ package org.skerry.cli;
 
 import java.io.PrintWriter;
 import org.skerry.cli.runfile.RunFileException;
+import org.skerry.cli.scaling.ScaleCommand;
 import org.skerry.cli.runfile.RunSpec;
 import org.skerry.engine.sampler.InvalidEvaluationsException;
 import org.skerry.engine.sampler.SamplingFailedException;
@@ -16,6 +17,7 @@ import picocli.CommandLine.Command;
 @Command(name = "skerry", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = "Bayesian calibration of costly models by sequential Monte Carlo: posterior, evidence, diagnostics.",
         subcommands = {RunCommand.class, ResumeCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
+            ScaleCommand.class,
             DemoDataCommand.class, CommandLine.HelpCommand.class},
         exitCodeOnInvalidInput = ExitCodes.BAD_INPUT, exitCodeOnExecutionException = ExitCodes.RUN_FAILURE)
 public final class SkerryCommand implements Runnable {

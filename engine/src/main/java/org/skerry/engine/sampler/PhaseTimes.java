@@ -24,6 +24,13 @@ public record PhaseTimes(double evaluate, double temperature, double reweight, d
         return evaluate + temperature + reweight + resample + redistribute + fit + move + checkpoint;
     }
 
+    /** Phase by phase, these times plus {@code other}'s (for totals over iterations). */
+    public PhaseTimes plus(PhaseTimes other) {
+        return new PhaseTimes(evaluate + other.evaluate, temperature + other.temperature, reweight + other.reweight,
+                resample + other.resample, redistribute + other.redistribute, fit + other.fit, move + other.move,
+                checkpoint + other.checkpoint);
+    }
+
     /** The same times with the checkpoint phase set to {@code seconds}. */
     public PhaseTimes withCheckpoint(double seconds) {
         return new PhaseTimes(evaluate, temperature, reweight, resample, redistribute, fit, move, seconds);

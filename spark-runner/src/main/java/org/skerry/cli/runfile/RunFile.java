@@ -96,7 +96,7 @@ public final class RunFile {
     }
 
     /** "run.conf: line 7: what is wrong", from an exception that knows its origin. */
-    private static String located(ConfigException e) {
+    public static String located(ConfigException e) {
         String message = e.getMessage();
         if (e.origin() == null) {
             return message;
@@ -167,7 +167,7 @@ public final class RunFile {
     }
 
     /** "file:line" of a key's value, or the origin's description. */
-    static String where(Config config, String key) {
+    public static String where(Config config, String key) {
         try {
             return describe(config.getValue(key).origin());
         } catch (ConfigException e) {
@@ -175,7 +175,7 @@ public final class RunFile {
         }
     }
 
-    static String describe(ConfigOrigin origin) {
+    public static String describe(ConfigOrigin origin) {
         if (origin.filename() != null) {
             Path file = shorten(Path.of(origin.filename()));
             return origin.lineNumber() > 0 ? file + ": line " + origin.lineNumber() : file.toString();

@@ -10,32 +10,32 @@ import java.util.Locale;
  * Reads typed values from a resolved run file, turning Typesafe Config's exceptions and our own
  * range checks into {@link RunFileException}s that name the file, line, key and value.
  */
-final class TypedReader {
+public final class TypedReader {
 
     private final Config config;
 
-    TypedReader(Config config) {
+    public TypedReader(Config config) {
         this.config = config;
     }
 
-    Config config() {
+    public Config config() {
         return config;
     }
 
-    String where(String key) {
+    public String where(String key) {
         return RunFile.where(config, key);
     }
 
-    RunFileException error(String key, String problem) {
+    public RunFileException error(String key, String problem) {
         String value = config.hasPath(key) ? config.getValue(key).render() : "null";
         return new RunFileException(where(key) + ": " + key + " = " + value + ": " + problem);
     }
 
-    boolean isSet(String key) {
+    public boolean isSet(String key) {
         return config.hasPath(key);
     }
 
-    int getInt(String key, int min, int max) {
+    public int getInt(String key, int min, int max) {
         int value;
         try {
             value = config.getInt(key);
@@ -48,7 +48,7 @@ final class TypedReader {
         return value;
     }
 
-    long getLong(String key) {
+    public long getLong(String key) {
         try {
             return config.getLong(key);
         } catch (ConfigException.WrongType e) {
@@ -56,7 +56,7 @@ final class TypedReader {
         }
     }
 
-    double getDouble(String key) {
+    public double getDouble(String key) {
         try {
             double value = config.getDouble(key);
             if (!Double.isFinite(value)) {
@@ -69,7 +69,7 @@ final class TypedReader {
     }
 
     /** A number in (low, high] or [low, high] as {@code closedLow} says. */
-    double getDouble(String key, double low, boolean closedLow, double high, boolean closedHigh) {
+    public double getDouble(String key, double low, boolean closedLow, double high, boolean closedHigh) {
         double value = getDouble(key);
         boolean aboveLow = closedLow ? value >= low : value > low;
         boolean belowHigh = closedHigh ? value <= high : value < high;
@@ -79,7 +79,7 @@ final class TypedReader {
         return value;
     }
 
-    boolean getBoolean(String key) {
+    public boolean getBoolean(String key) {
         try {
             return config.getBoolean(key);
         } catch (ConfigException.WrongType e) {
@@ -87,7 +87,7 @@ final class TypedReader {
         }
     }
 
-    String getString(String key) {
+    public String getString(String key) {
         if (config.getIsNull(key)) {
             return null;
         }
@@ -99,7 +99,7 @@ final class TypedReader {
     }
 
     /** One of the given words (case-insensitive, '-' and '_' alike). */
-    String getChoice(String key, List<String> choices) {
+    public String getChoice(String key, List<String> choices) {
         String value = getString(key);
         String normal = value == null ? "" : value.toLowerCase(Locale.ROOT).replace('_', '-');
         if (!choices.contains(normal)) {
@@ -108,7 +108,7 @@ final class TypedReader {
         return normal;
     }
 
-    double[] getDoubleList(String key) {
+    public double[] getDoubleList(String key) {
         try {
             List<Double> list = config.getDoubleList(key);
             double[] values = new double[list.size()];

@@ -29,7 +29,7 @@ class FactoriesTest {
     @DisplayName("ServiceLoader finds the built-in factories, each describing its settings")
     void catalog() {
         List<String> names = CATALOG.factories().stream().map(ModelFactory::name).toList();
-        assertEquals(List.of("beta-binomial", "gaussian-mixture", "gaussian-shells", "linear-regression",
+        assertEquals(List.of("beta-binomial", "costly-normal", "gaussian-mixture", "gaussian-shells", "linear-regression",
                 "normal-mean", "plankton-npz"), names);
         for (ModelFactory factory : CATALOG.factories()) {
             assertFalse(factory.description().isBlank());

@@ -1,0 +1,359 @@
+package org.skerry.cli.scaling;
+
+import com.typesafe.config.Config;
+import com.typesafe.config.ConfigException;
+import com.typesafe.config.ConfigFactory;
+import com.typesafe.config.ConfigList;
+import com.typesafe.config.ConfigObject;
+import com.typesafe.config.ConfigParseOptions;
+import com.typesafe.config.ConfigRenderOptions;
+import com.typesafe.config.ConfigSyntax;
+import com.typesafe.config.ConfigUtil;
+import com.typesafe.config.ConfigValue;
+import com.typesafe.config.ConfigValueType;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Locale;
+import java.util.Map;
+import java.util.TreeMap;
+import java.util.TreeSet;
+import org.skerry.cli.runfile.KeySuggestion;
+import org.skerry.cli.runfile.RunFile;
+import org.skerry.cli.runfile.RunFileException;
+import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.runfile.TypedReader;
+
+/**
+ * A scaling study file read with Typesafe Config over the defaults in {@code study-defaults.conf}:
+ * the base run file, strong or weak scaling, repeats, settings for every point and the axes of
+ * the grid. Every key and every grid point is checked before anything runs — each point's run
+ * file is loaded and checked as {@code skerry run} would — and a problem is reported with the
+ * study file's line and key.
+ */
+public final class StudyFile {
+
+    /** The axis that sets the number of cores rather than a run-file key. */
+    public static final String CORES = "cores";
+
+    private static final List<String> FREE_FORM = List.of("settings", "axes");
+
+    /** Strong scaling keeps N fixed; weak scaling keeps N per core fixed. */
+    public enum Scaling { STRONG, WEAK }
+
+    private final Path path;
+    private final Config config;
+    private final String name;
+    private final Path base;
+    private final Scaling scaling;
+    private final int particlesPerCore;
+    private final int repeats;
+    private final boolean warmUp;
+    private final Path outputFolder;
+    private final Map<String, String> settings;
+    private final List<Integer> cores;
+    private final Map<String, List<ConfigValue>> axes;
+    private final List<StudyPoint> points;
+
+    private StudyFile(Path path, Config config) {
+        this.path = path;
+        this.config = config;
+        TypedReader r = new TypedReader(config);
+        String fileName = path.getFileName().toString();
+        String named = r.getString("name");
+        this.name = named != null ? named : fileName.endsWith(".conf") ? fileName.substring(0, fileName.length() - 5)
+                : fileName;
+        if (!name.matches("[A-Za-z0-9][A-Za-z0-9._-]*")) {
+            throw r.error("name", "must be letters, digits, '.', '_' or '-' (it names the study folder)");
+        }
+        String baseName = r.getString("base");
+        if (baseName == null || baseName.isBlank()) {
+            throw r.error("base", "name the run file to scale, relative to the study file");
+        }
+        this.base = path.toAbsolutePath().getParent().resolve(baseName).normalize();
+        if (!Files.isRegularFile(base)) {
+            throw r.error("base", "no such run file: " + base);
+        }
+        this.scaling = Scaling.valueOf(r.getChoice("scaling", List.of("strong", "weak")).toUpperCase(Locale.ROOT));
+        this.particlesPerCore = r.getInt("particles-per-core", 0, 100_000_000);
+        this.repeats = r.getInt("repeats", 1, 1000);
+        this.warmUp = r.getBoolean("warm-up");
+        String folder = r.getString("output.folder");
+        if (folder == null || folder.isBlank()) {
+            throw r.error("output.folder", "must name a folder");
+        }
+        this.outputFolder = Path.of(folder);
+        this.settings = flatten(r, "settings");
+        Map<String, List<ConfigValue>> found = axesOf(r);
+        List<ConfigValue> coreValues = found.remove(CORES);
+        this.cores = new ArrayList<>();
+        if (coreValues != null) {
+            for (ConfigValue value : coreValues) {
+                Object raw = value.unwrapped();
+                if (!(raw instanceof Integer) || (Integer) raw < 1) {
+                    throw new RunFileException(RunFile.describe(value.origin()) + ": axes.cores = "
+                            + config.getValue("axes.cores").render(ConfigRenderOptions.concise())
+                            + ": every core count must be a whole number >= 1, found " + value.render());
+                }
+                if (!cores.contains(raw)) {
+                    cores.add((Integer) raw);
+                }
+            }
+            cores.sort(null);
+        }
+        this.axes = found;
+        if (scaling == Scaling.WEAK) {
+            if (cores.isEmpty()) {
+                throw r.error("scaling", "weak scaling needs a cores axis (axes { cores = [1, 2, 4] })");
+            }
+            if (particlesPerCore < 2) {
+                throw r.error("particles-per-core", "weak scaling needs particles-per-core >= 2");
+            }
+            for (String key : List.of("sampler.particles")) {
+                if (settings.containsKey(key) || axes.containsKey(key)) {
+                    throw new RunFileException(RunFile.where(config, settings.containsKey(key) ? "settings" : "axes")
+                            + ": " + key + " is set by weak scaling (particles-per-core x cores); do not set it here");
+                }
+            }
+        }
+        this.points = checkedPoints();
+    }
+
+    /**
+     * Reads and checks a study file and every run it describes.
+     *
+     * @throws RunFileException naming the file, line, key and value of the first problem found
+     */
+    public static StudyFile load(Path path) {
+        if (!Files.isRegularFile(path)) {
+            throw new RunFileException("cannot read study file " + path + ": no such file");
+        }
+        if (!Files.isReadable(path)) {
+            throw new RunFileException("cannot read study file " + path + ": permission denied");
+        }
+        Config user;
+        try {
+            user = ConfigFactory.parseFile(path.toFile(),
+                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
+        } catch (ConfigException e) {
+            throw new RunFileException(RunFile.located(e), e);
+        }
+        Config defaults = ConfigFactory.parseResources(StudyFile.class.getClassLoader(), "study-defaults.conf",
+                ConfigParseOptions.defaults().setAllowMissing(false));
+        checkKnownKeys(user, defaults);
+        try {
+            return new StudyFile(path, user.withFallback(defaults).resolve());
+        } catch (ConfigException e) {
+            throw new RunFileException(RunFile.located(e), e);
+        }
+    }
+
+    private static void checkKnownKeys(Config user, Config defaults) {
+        TreeSet<String> known = new TreeSet<>();
+        for (Map.Entry<String, ConfigValue> entry : defaults.root().entrySet()) {
+            known.add(entry.getKey());
+            if (entry.getValue() instanceof ConfigObject && !FREE_FORM.contains(entry.getKey())) {
+                for (String child : ((ConfigObject) entry.getValue()).keySet()) {
+                    known.add(entry.getKey() + "." + child);
+                }
+            }
+        }
+        for (Map.Entry<String, ConfigValue> entry : user.entrySet()) {
+            String key = entry.getKey();
+            String top = ConfigUtil.splitPath(key).get(0);
+            if (FREE_FORM.contains(top) || known.contains(key)) {
+                continue;
+            }
+            String suggestion = KeySuggestion.closest(key, known);
+            throw new RunFileException(RunFile.describe(entry.getValue().origin()) + ": unknown study setting '" + key
+                    + "'" + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?")
+                    + " (study-defaults.conf lists them; run-file settings go under settings { } or axes { })");
+        }
+    }
+
+    /** The leaves under {@code section} as run-file overrides (path → HOCON value text). */
+    private static Map<String, String> flatten(TypedReader r, String section) {
+        Map<String, String> out = new TreeMap<>();
+        Config object;
+        try {
+            object = r.config().getConfig(section);
+        } catch (ConfigException.WrongType e) {
+            throw r.error(section, "expected an object { … }");
+        }
+        for (Map.Entry<String, ConfigValue> entry : object.entrySet()) {
+            out.put(entry.getKey(), entry.getValue().render(ConfigRenderOptions.concise()));
+        }
+        return out;
+    }
+
+    private Map<String, List<ConfigValue>> axesOf(TypedReader r) {
+        Config object;
+        try {
+            object = r.config().getConfig("axes");
+        } catch (ConfigException.WrongType e) {
+            throw r.error("axes", "expected an object { key = [values] … }");
+        }
+        Map<String, List<ConfigValue>> out = new TreeMap<>();
+        for (Map.Entry<String, ConfigValue> entry : object.entrySet()) {
+            String key = entry.getKey();
+            ConfigValue value = entry.getValue();
+            if (value.valueType() != ConfigValueType.LIST || ((ConfigList) value).isEmpty()) {
+                throw new RunFileException(RunFile.describe(value.origin()) + ": axes." + key + " = "
+                        + value.render(ConfigRenderOptions.concise()) + ": expected a non-empty list of values to try");
+            }
+            if (settings.containsKey(key)) {
+                throw new RunFileException(RunFile.describe(value.origin()) + ": axes." + key
+                        + " is also set in settings { }; set it in one place");
+            }
+            out.put(key, new ArrayList<>((ConfigList) value));
+        }
+        return out;
+    }
+
+    /** The grid, each point checked by loading its run file as {@code skerry run} would. */
+    private List<StudyPoint> checkedPoints() {
+        List<Map<String, ConfigValue>> combinations = new ArrayList<>();
+        combinations.add(new LinkedHashMap<>());
+        for (Map.Entry<String, List<ConfigValue>> axis : axes.entrySet()) {
+            List<Map<String, ConfigValue>> next = new ArrayList<>();
+            for (Map<String, ConfigValue> partial : combinations) {
+                for (ConfigValue value : axis.getValue()) {
+                    Map<String, ConfigValue> extended = new LinkedHashMap<>(partial);
+                    extended.put(axis.getKey(), value);
+                    next.add(extended);
+                }
+            }
+            combinations = next;
+        }
+        List<Integer> coreCounts = cores.isEmpty() ? java.util.Collections.singletonList(null) : cores;
+        List<StudyPoint> out = new ArrayList<>();
+        int group = 0;
+        for (Map<String, ConfigValue> combination : combinations) {
+            for (Integer k : coreCounts) {
+                out.add(point(group, combination, k));
+            }
+            group++;
+        }
+        return List.copyOf(out);
+    }
+
+    private StudyPoint point(int group, Map<String, ConfigValue> combination, Integer k) {
+        List<String> overrides = new ArrayList<>();
+        settings.forEach((key, value) -> overrides.add(key + "=" + value));
+        Map<String, String> shown = new LinkedHashMap<>();
+        if (k != null) {
+            shown.put(CORES, String.valueOf(k));
+        }
+        for (Map.Entry<String, ConfigValue> entry : combination.entrySet()) {
+            overrides.add(entry.getKey() + "=" + entry.getValue().render(ConfigRenderOptions.concise()));
+            shown.put(entry.getKey(), String.valueOf(entry.getValue().unwrapped()));
+        }
+        if (scaling == Scaling.WEAK) {
+            overrides.add("sampler.particles=" + (long) particlesPerCore * k);
+        }
+        RunSpec spec = loadPoint(overrides, combination);
+        if (k != null) {
+            overrides.addAll(coreOverrides(spec, k));
+            spec = loadPoint(overrides, combination);
+        }
+        if (spec.backendKind().equals("spark")) {
+            String listeners = spec.sparkSettings().get("spark.extraListeners");
+            String ours = DriverTraffic.class.getName();
+            overrides.add("backend.spark.\"spark.extraListeners\"=\""
+                    + (listeners == null || listeners.isBlank() ? ours : listeners + "," + ours) + "\"");
+            spec = loadPoint(overrides, combination);
+        }
+        return new StudyPoint(group, shown, k == null ? 0 : k, List.copyOf(overrides), spec);
+    }
+
+    /** The settings that give a run {@code k} cores on its backend. */
+    static List<String> coreOverrides(RunSpec spec, int k) {
+        if (spec.backendKind().equals("threads")) {
+            return List.of("backend.threads=" + k);
+        }
+        if (spec.master().startsWith("local")) {
+            return List.of("backend.master=\"local[" + k + "]\"");
+        }
+        return List.of("backend.spark.\"spark.cores.max\"=" + k);
+    }
+
+    private RunSpec loadPoint(List<String> overrides, Map<String, ConfigValue> combination) {
+        try {
+            return RunSpec.from(RunFile.load(base, overrides));
+        } catch (RunFileException e) {
+            // Blame the study line that set the offending key, when one did.
+            String message = e.getMessage();
+            for (Map.Entry<String, ConfigValue> entry : combination.entrySet()) {
+                if (message.contains(entry.getKey())) {
+                    throw new RunFileException(RunFile.describe(entry.getValue().origin()) + ": axes." + entry.getKey()
+                            + " = " + entry.getValue().render(ConfigRenderOptions.concise()) + ": " + message, e);
+                }
+            }
+            for (String key : settings.keySet()) {
+                if (message.contains(key)) {
+                    throw new RunFileException(RunFile.where(config, "settings." + key) + ": settings." + key + " = "
+                            + settings.get(key) + ": " + message, e);
+                }
+            }
+            throw new RunFileException(path + ": base run file " + base + " with this study's settings: " + message, e);
+        }
+    }
+
+    public Path path() {
+        return path;
+    }
+
+    public String name() {
+        return name;
+    }
+
+    /** The base run file (absolute). */
+    public Path base() {
+        return base;
+    }
+
+    public Scaling scaling() {
+        return scaling;
+    }
+
+    public int particlesPerCore() {
+        return particlesPerCore;
+    }
+
+    public int repeats() {
+        return repeats;
+    }
+
+    /** Whether one unrecorded run precedes the first measured one. */
+    public boolean warmUp() {
+        return warmUp;
+    }
+
+    /** {@code <output.folder>/<name>}. */
+    public Path defaultFolder() {
+        return outputFolder.resolve(name);
+    }
+
+    /** Run-file keys the study varies besides cores, in grid order. */
+    public List<String> axisKeys() {
+        return List.copyOf(axes.keySet());
+    }
+
+    /** Whether the study has a cores axis. */
+    public boolean hasCoresAxis() {
+        return !cores.isEmpty();
+    }
+
+    /** Every grid point, checked; within a group (same other axes) ordered by cores. */
+    public List<StudyPoint> points() {
+        return points;
+    }
+
+    /** The resolved study as HOCON text, for the study folder's copy. */
+    public String render() {
+        return config.root().render(ConfigRenderOptions.defaults().setOriginComments(false).setComments(false)
+                .setJson(false).setFormatted(true));
+    }
+}
