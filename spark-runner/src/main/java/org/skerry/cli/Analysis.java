@@ -12,6 +12,7 @@ import org.skerry.cli.progress.ProgressDisplay;
 import org.skerry.cli.runfile.ModelBuilder;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.SamplerResult;
 import org.skerry.engine.sampler.SmcSampler;
@@ -56,6 +57,24 @@ public final class Analysis {
                     built.model().parameters().names(), result, wall, started, opened.backend.description()));
             return new Outcome(runFolder, spec, result, wall);
         }
+    }
+
+    /**
+     * Runs one analysis into {@code folder} on a backend the caller opened and keeps open (a batch
+     * shares one backend between concurrent analyses), reporting each iteration to
+     * {@code listener}.
+     */
+    public static Outcome run(RunSpec spec, Path folder, PopulationBackend backend, IterationListener listener) {
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        Instant started = Instant.now();
+        prepare(folder);
+        RunOutputs.writeSettings(folder, spec.file().render());
+        long start = System.nanoTime();
+        SamplerResult result = new SmcSampler(spec.sampler()).run(built.source(), backend, listener);
+        double wall = (System.nanoTime() - start) * 1e-9;
+        RunOutputs.writeResults(folder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
+                built.model().parameters().names(), result, wall, started, backend.description()));
+        return new Outcome(folder, spec, result, wall);
     }
 
     private static ProgressDisplay progress(RunSpec spec, PrintWriter out) {

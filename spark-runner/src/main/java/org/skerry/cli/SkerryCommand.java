@@ -13,7 +13,7 @@ import picocli.CommandLine.Command;
  */
 @Command(name = "skerry", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = "Bayesian calibration of costly models by sequential Monte Carlo: posterior, evidence, diagnostics.",
-        subcommands = {RunCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
+        subcommands = {RunCommand.class, BatchCommand.class, ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
             DemoDataCommand.class, CommandLine.HelpCommand.class},
         exitCodeOnInvalidInput = ExitCodes.BAD_INPUT, exitCodeOnExecutionException = ExitCodes.RUN_FAILURE)
 public final class SkerryCommand implements Runnable {
