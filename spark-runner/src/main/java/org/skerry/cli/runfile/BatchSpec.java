@@ -6,7 +6,6 @@ import com.typesafe.config.ConfigFactory;
 import com.typesafe.config.ConfigObject;
 import com.typesafe.config.ConfigParseOptions;
 import com.typesafe.config.ConfigRenderOptions;
-import com.typesafe.config.ConfigSyntax;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
 import java.io.IOException;
@@ -119,19 +118,7 @@ public final class BatchSpec {
      * @throws RunFileException naming the file, line, key and value of the first problem found
      */
     public static BatchSpec load(Path path, Path folderOverride) {
-        if (!Files.isRegularFile(path)) {
-            throw new RunFileException("cannot read batch file " + path + ": no such file");
-        }
-        if (!Files.isReadable(path)) {
-            throw new RunFileException("cannot read batch file " + path + ": permission denied");
-        }
-        Config user;
-        try {
-            user = ConfigFactory.parseFile(path.toFile(),
-                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
-        } catch (ConfigException e) {
-            throw new RunFileException(RunFile.located(e), e);
-        }
+        Config user = RunFile.parse(path, "batch file");
         Config reference = ConfigFactory.parseResources(BatchSpec.class.getClassLoader(), "batch-reference.conf",
                 ConfigParseOptions.defaults().setAllowMissing(false));
         RunFile.checkKnownKeys(user, reference, FREE_FORM);

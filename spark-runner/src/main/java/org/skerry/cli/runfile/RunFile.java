@@ -53,20 +53,7 @@ public final class RunFile {
      * then appear in any error they cause.
      */
     public static RunFile load(Path path, Config settings, List<String> overrides) {
-        if (!Files.isRegularFile(path)) {
-            throw new RunFileException("cannot read run file " + path + ": no such file");
-        }
-        if (!Files.isReadable(path)) {
-            throw new RunFileException("cannot read run file " + path + ": permission denied");
-        }
-        Config user;
-        try {
-            user = ConfigFactory.parseFile(path.toFile(),
-                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
-        } catch (ConfigException e) {
-            throw new RunFileException(located(e), e);
-        }
-        user = settings.withFallback(user);
+        Config user = settings.withFallback(parse(path, "run file"));
         for (int i = overrides.size() - 1; i >= 0; i--) {
             user = parseOverride(overrides.get(i)).withFallback(user);
         }
@@ -75,6 +62,22 @@ public final class RunFile {
         checkKnownKeys(user, reference, FREE_FORM);
         try {
             return new RunFile(path, user.withFallback(reference).resolve());
+        } catch (ConfigException e) {
+            throw new RunFileException(located(e), e);
+        }
+    }
+
+    /** Parses a HOCON file the user wrote ({@code what}: "run file", "batch file"), errors located. */
+    static Config parse(Path path, String what) {
+        if (!Files.isRegularFile(path)) {
+            throw new RunFileException("cannot read " + what + " " + path + ": no such file");
+        }
+        if (!Files.isReadable(path)) {
+            throw new RunFileException("cannot read " + what + " " + path + ": permission denied");
+        }
+        try {
+            return ConfigFactory.parseFile(path.toFile(),
+                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
         } catch (ConfigException e) {
             throw new RunFileException(located(e), e);
         }
