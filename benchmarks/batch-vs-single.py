@@ -4,7 +4,8 @@ of the wall times of twelve `skerry run` processes on the same run files (each a
 run.conf from the batch folder, so the work is identical), measured side by side in rounds whose
 order rotates, with the load average beside every figure.
 
-usage: benchmarks/batch-vs-single.py KIND ROUNDS CONCURRENCY... > benchmarks/results/FILE.txt
+usage: benchmarks/batch-vs-single.py KIND ROUNDS LEVEL... > benchmarks/results/FILE.txt
+  LEVEL concurrent analyses of a batch variant, e.g. 4; 4fifo: the same with Spark's FIFO scheduler
   KIND  short: normal-mean (closed-form likelihood, 20 points), N = 200, local[2]
         long:  the Lake Quellmar plankton ODE model (synthetic demo data), N = 100, local[2]
 The work folder is benchmarks/target/batch-bench/KIND. Run from the project root after
@@ -66,13 +67,16 @@ def timed(args):
     return wall
 
 
-def batch(work, out, concurrent):
+def batch(work, out, level):
+    """level: a number of concurrent analyses, with "fifo" after it for Spark's default scheduler."""
     shutil.rmtree(out, ignore_errors=True)
     with open(os.path.join(work, "batch.conf")) as f:
         text = f.read()
-    conf = os.path.join(work, "batch-c%d.conf" % concurrent)
+    conf = os.path.join(work, "batch-c%s.conf" % level)
     with open(conf, "w") as f:
-        f.write(text + "concurrent = %d\n" % concurrent)
+        f.write(text + "concurrent = %d\n" % int(level.replace("fifo", "")))
+        if level.endswith("fifo"):
+            f.write('settings { backend.spark { "spark.scheduler.mode" = FIFO } }\n')
     return timed([SKERRY, "batch", conf, "--out", out])
 
 
@@ -106,7 +110,7 @@ def freeze(work):
 
 def main():
     global SKERRY
-    kind, rounds, levels = sys.argv[1], int(sys.argv[2]), [int(c) for c in sys.argv[3:]]
+    kind, rounds, levels = sys.argv[1], int(sys.argv[2]), sys.argv[3:]
     work = os.path.join(ROOT, "benchmarks", "target", "batch-bench", kind)
     prepare(kind, work)
     os.makedirs(os.path.join(work, "app", "spark-runner", "target"))
@@ -116,7 +120,7 @@ def main():
     batch(work, reference, levels[-1])
     print("round,variant,wall_s,sampler_sum_s,load1_before,load1_after")
     for r in range(rounds):
-        variants = ["singles"] + ["batch-c%d" % c for c in levels]
+        variants = ["singles"] + ["batch-c%s" % c for c in levels]
         shift = r % len(variants)
         for v in variants[shift:] + variants[:shift]:
             before = load()
@@ -124,8 +128,8 @@ def main():
                 wall, sampler = singles(work, reference, r)
                 print("%d,singles,%.2f,%.2f,%s,%s" % (r, wall, sampler, before, load()), flush=True)
             else:
-                c = int(v.split("-c")[1])
-                wall = batch(work, os.path.join(work, "batch-%d-c%d" % (r, c)), c)
+                c = v.split("-c")[1]
+                wall = batch(work, os.path.join(work, "batch-%d-c%s" % (r, c)), c)
                 print("%d,%s,%.2f,,%s,%s" % (r, v, wall, before, load()), flush=True)
 
 

@@ -11,6 +11,7 @@ import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
 import java.util.Map;
+import java.util.Set;
 import java.util.concurrent.ConcurrentHashMap;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorService;
@@ -56,6 +57,7 @@ public final class BatchRunner {
     public static final String SUCCEEDED = "succeeded";
     public static final String FAILED = "failed";
     static final String WAITING = "waiting";
+    static final String RUNNING = "running";
 
     /** What a batch did: the summary rows in batch order and how many analyses failed, ran and were kept. */
     public record Result(List<BatchSummary.Row> rows, int failed, int ran, int kept) {
@@ -63,6 +65,7 @@ public final class BatchRunner {
 
     private final BatchSpec spec;
     private final Map<String, String> failures = new ConcurrentHashMap<>();
+    private final Set<String> running = ConcurrentHashMap.newKeySet();
 
     private BatchRunner(BatchSpec spec) {
         this.spec = spec;
@@ -174,6 +177,7 @@ public final class BatchRunner {
             context.setLocalProperty("spark.scheduler.pool", label);
         }
         progress.started(label);
+        running.add(label);
         try {
             Analysis.Outcome outcome = resume ? continueUnfinished(folder, backend, IterationListener.NONE)
                     : startAfresh(p, folder, backend);
@@ -184,6 +188,7 @@ public final class BatchRunner {
             recordFailure(folder, message);
             progress.failed(label, message);
         } finally {
+            running.remove(label);
             if (context != null) {
                 context.setLocalProperty("spark.scheduler.pool", null);
             }
@@ -266,7 +271,8 @@ public final class BatchRunner {
         if (failure != null) {
             return failedRow(p, relative, failure);
         }
-        return new BatchSummary.Row(p.dataset().name(), p.variant().name(), WAITING, Double.NaN, Double.NaN,
+        return new BatchSummary.Row(p.dataset().name(), p.variant().name(),
+                running.contains(p.label()) ? RUNNING : WAITING, Double.NaN, Double.NaN,
                 Double.NaN, Double.NaN, -1, -1, Map.of(), p.seed(), relative, Double.NaN, null);
     }
 

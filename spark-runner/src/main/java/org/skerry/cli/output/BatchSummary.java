@@ -24,6 +24,9 @@ import org.apache.commons.csv.CSVPrinter;
  * (CSV) or null (JSON). The JSON file holds {@code referenceVariant} and {@code analyses}, a list
  * of objects with the same fields, parameters as {@code {name: {mean, q025, q975}}}.
  *
+ * <p>{@code status} is {@code succeeded} or {@code failed}; in the files rewritten while a batch
+ * runs (and left by an interrupted one) also {@code running} or {@code waiting}.
+ *
  * <p>{@code wallSeconds} is the only field that differs between two runs of the same batch: it
  * is measured, not computed from settings and seed.
  */
