@@ -6,6 +6,7 @@ order rotates, with the load average beside every figure.
 
 usage: benchmarks/batch-vs-single.py KIND ROUNDS LEVEL... > benchmarks/results/FILE.txt
   LEVEL concurrent analyses of a batch variant, e.g. 4; 4fifo: the same with Spark's FIFO scheduler
+  BATCH_ONLY=1 in the environment leaves the single runs out (to compare batch variants only)
   KIND  short: normal-mean (closed-form likelihood, 20 points), N = 200, local[2]
         long:  the Lake Quellmar plankton ODE model (synthetic demo data), N = 100, local[2]
 The work folder is benchmarks/target/batch-bench/KIND. Run from the project root after
@@ -120,7 +121,7 @@ def main():
     batch(work, reference, levels[-1])
     print("round,variant,wall_s,sampler_sum_s,load1_before,load1_after")
     for r in range(rounds):
-        variants = ["singles"] + ["batch-c%s" % c for c in levels]
+        variants = ([] if os.environ.get("BATCH_ONLY") else ["singles"]) + ["batch-c%s" % c for c in levels]
         shift = r % len(variants)
         for v in variants[shift:] + variants[:shift]:
             before = load()
