@@ -181,6 +181,34 @@ class BatchCommandTest {
     }
 
     @Test
+    @DisplayName("a variant whose every weight becomes zero fails on each dataset; the reference variant's "
+            + "analyses succeed; exit code 3")
+    void zeroWeightsFailOnlyTheirAnalyses() throws IOException {
+        dataset("pond-1", SyntheticData.normalRows(81, 6, new double[] {0.0}, SIGMA));
+        dataset("pond-2", SyntheticData.normalRows(82, 6, new double[] {1.0}, SIGMA));
+        base("backend { kind = threads, threads = 2 }");
+        Path file = batch("base = base.conf", "datasets { folder = data }",
+                "variants = [ { name = plain }, { name = impossible, settings { model { name = null, "
+                        + "class = \"" + ImpossibleModel.class.getName() + "\", settings = {} } } } ]",
+                "concurrent = 2", "progress = off");
+        Path out = folder.resolve("batch");
+        CommandRunner.Result result = CommandRunner.run("batch", file.toString(), "--out", out.toString());
+        assertEquals(ExitCodes.SOME_FAILED, result.exitCode(), result.err());
+        List<CSVRecord> rows = summary(out);
+        assertEquals(List.of("succeeded", "failed", "succeeded", "failed"), rows.stream().map(r -> r.get("status")).toList());
+        for (CSVRecord r : rows) {
+            if (r.get("variant").equals("impossible")) {
+                assertTrue(r.get("message").startsWith("the run failed at"), r.get("message"));
+                assertEquals("", r.get("logBayesFactor"), "no Bayes factor without an evidence");
+                Path run = out.resolve(r.get("folder"));
+                assertTrue(Files.isRegularFile(run.resolve("run.conf")), "the run folder keeps what it wrote");
+                assertTrue(Files.isRegularFile(run.resolve("failure.txt")));
+                assertFalse(Files.exists(run.resolve("summary.json")));
+            }
+        }
+    }
+
+    @Test
     @DisplayName("a resumed batch keeps finished analyses, re-runs the rest, and equals an uninterrupted one byte for "
             + "byte; a changed setting is refused, naming it")
     void resume() throws IOException {
