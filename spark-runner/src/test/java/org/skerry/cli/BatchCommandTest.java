@@ -287,14 +287,7 @@ class BatchCommandTest {
 
     private void expectBadInput(Path file, String... fragments) {
         Path out = folder.resolve("bad-out");
-        CommandRunner.Result result = CommandRunner.run("batch", file.toString(), "--out", out.toString());
-        assertEquals(ExitCodes.BAD_INPUT, result.exitCode(), result.err());
-        String message = result.err().trim();
-        assertTrue(message.startsWith("skerry: bad input:"), message);
-        assertEquals(1, message.lines().count(), "one message: " + message);
-        for (String fragment : fragments) {
-            assertTrue(message.contains(fragment), "'" + fragment + "' in: " + message);
-        }
+        CommandRunner.assertBadInput(CommandRunner.run("batch", file.toString(), "--out", out.toString()), fragments);
         assertFalse(Files.exists(out), "nothing written");
     }
 
