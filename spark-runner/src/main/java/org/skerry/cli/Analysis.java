@@ -24,11 +24,13 @@ import org.skerry.cli.runfile.RunSpec;
 import org.skerry.cli.stop.StopRules;
 import org.skerry.cli.stop.TerminationSignal;
 import org.skerry.engine.sampler.Checkpointer;
+import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.RunStoppedException;
 import org.skerry.engine.sampler.SamplerResult;
 import org.skerry.engine.sampler.SamplerState;
 import org.skerry.engine.sampler.SmcSampler;
+import org.skerry.engine.sampler.StopCondition;
 import org.skerry.spark.SparkBackend;
 import org.skerry.spark.checkpoint.CheckpointFileSystem;
 import org.skerry.spark.checkpoint.CheckpointFolder;
@@ -149,69 +151,108 @@ public final class Analysis {
     private static Outcome execute(RunSpec spec, ModelBuilder.Built built, Path runFolder, Instant started,
             PrintWriter progressOut, boolean resume, IterationListener observer) {
         long start = System.nanoTime();
-        CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
-        SortedMap<String, String> answer = AnswerSettings.of(spec);
-        SamplerResult result;
         try (TerminationSignal signal = TerminationSignal.install(spec.stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, System::exit);
                 Backends.Opened opened = Backends.open(spec, runFolder);
                 ProgressDisplay progress = progress(spec, progressOut, built.model().parameters().names())) {
-            if (spec.checkpointEnabled()) {
-                checkVisible(opened, checkpoints);
-            }
             IterationListener shown = progress == null ? IterationListener.NONE : progress;
             IterationListener listener = observer == IterationListener.NONE ? shown : record -> {
                 shown.iterationFinished(record);
                 observer.iterationFinished(record);
             };
-            Checkpointer checkpointer = spec.checkpointEnabled()
-                    ? new FileCheckpointer(checkpoints, spec.checkpointEveryIterations(), spec.checkpointEveryMinutes(),
-                            answer, state -> RunOutputs.writeIterations(runFolder, state.records()))
-                    : Checkpointer.NONE;
-            StopRules stop = new StopRules(signal, spec.maxWallTime(), start);
-            SmcSampler sampler = new SmcSampler(spec.sampler());
             try {
-                if (resume) {
-                    CheckpointResumption from = new CheckpointResumption(checkpoints, answer);
-                    result = sampler.resume(built.source(), opened.backend, listener, checkpointer, stop, state -> {
-                        SamplerState restored = from.restore(state);
-                        for (String skipped : from.skipped()) {
-                            say(progressOut, "skipped checkpoint " + skipped);
-                        }
-                        say(progressOut, "resuming " + runFolder + " after iteration " + restored.iteration()
-                                + " (temperature " + restored.temperature() + ")");
-                        return restored;
-                    });
-                } else {
-                    result = sampler.run(built.source(), opened.backend, listener, checkpointer, stop);
-                }
-            } catch (RunStoppedException e) {
-                throw new RunEnded(ExitCodes.STOPPED_RESUMABLE, e.getMessage() + "; its checkpoint is in "
-                        + checkpoints.files().root() + ". Continue with: skerry resume " + runFolder, e);
-            } catch (CheckpointWriteException e) {
-                throw new RunEnded(ExitCodes.RUN_FAILURE, e.getMessage() + ". Fix the cause, then continue with: "
-                        + "skerry resume " + runFolder, e);
-            } catch (java.io.UncheckedIOException e) {
-                throw outputFailed(e, checkpoints, runFolder);
-            } catch (SettingsChangedException e) {
-                throw new RunFileException(e.getMessage(), e);
-            } catch (IllegalStateException e) {
-                if (resume && e.getMessage() != null && e.getMessage().contains("checkpoint")) {
-                    throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
-                }
-                throw e;
+                return core(spec, built, runFolder, started, start, progressOut, resume, opened.backend, listener,
+                        new StopRules(signal, spec.maxWallTime(), start));
             } finally {
                 signal.runEnded();
             }
-            double wall = (System.nanoTime() - start) * 1e-9;
-            try {
-                RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
-                        built.model().parameters().names(), result, wall, started, opened.backend.description()));
-            } catch (java.io.UncheckedIOException e) {
-                throw outputFailed(e, checkpoints, runFolder);
-            }
-            return new Outcome(runFolder, spec, result, wall);
         }
+    }
+
+    /**
+     * Runs one analysis into {@code folder} on a backend the caller opened and keeps open (a batch
+     * shares one backend between concurrent analyses), with checkpoints, reporting each iteration
+     * to {@code listener} and stopping resumably when {@code stop} says so.
+     */
+    public static Outcome run(RunSpec spec, Path folder, PopulationBackend backend, IterationListener listener,
+            StopCondition stop, PrintWriter notices) {
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        Instant started = Instant.now();
+        prepare(folder);
+        RunOutputs.writeSettings(folder, forRunFolder(spec).render());
+        return core(spec, built, folder, started, System.nanoTime(), notices, false, backend, listener, stop);
+    }
+
+    /**
+     * Continues the unfinished analysis in {@code folder} from its newest valid checkpoint (or from
+     * the start if it has none yet) on a backend the caller keeps open.
+     */
+    public static Outcome resume(Path folder, PopulationBackend backend, IterationListener listener,
+            StopCondition stop, PrintWriter notices) {
+        RunSpec spec = RunSpec.from(RunFile.load(folder.resolve(RunConfFile.FILE_NAME), List.of()));
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        boolean fromCheckpoint = hasCheckpoints(spec, folder);
+        if (!fromCheckpoint) {
+            say(notices, "no checkpoint in " + folder + " yet: running it from the start");
+        }
+        return core(spec, built, folder, Instant.now(), System.nanoTime(), notices, fromCheckpoint, backend, listener,
+                stop);
+    }
+
+    /** The run itself, on an open backend: checkpoints, resume, stop rules, results, and what each failure means. */
+    private static Outcome core(RunSpec spec, ModelBuilder.Built built, Path runFolder, Instant started, long start,
+            PrintWriter notices, boolean resume, PopulationBackend backend, IterationListener listener,
+            StopCondition stop) {
+        CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
+        SortedMap<String, String> answer = AnswerSettings.of(spec);
+        if (spec.checkpointEnabled()) {
+            checkVisible(backend, checkpoints);
+        }
+        Checkpointer checkpointer = spec.checkpointEnabled()
+                ? new FileCheckpointer(checkpoints, spec.checkpointEveryIterations(), spec.checkpointEveryMinutes(),
+                        answer, state -> RunOutputs.writeIterations(runFolder, state.records()))
+                : Checkpointer.NONE;
+        SmcSampler sampler = new SmcSampler(spec.sampler());
+        SamplerResult result;
+        try {
+            if (resume) {
+                CheckpointResumption from = new CheckpointResumption(checkpoints, answer);
+                result = sampler.resume(built.source(), backend, listener, checkpointer, stop, population -> {
+                    SamplerState restored = from.restore(population);
+                    for (String skipped : from.skipped()) {
+                        say(notices, "skipped checkpoint " + skipped);
+                    }
+                    say(notices, "resuming " + runFolder + " after iteration " + restored.iteration()
+                            + " (temperature " + restored.temperature() + ")");
+                    return restored;
+                });
+            } else {
+                result = sampler.run(built.source(), backend, listener, checkpointer, stop);
+            }
+        } catch (RunStoppedException e) {
+            throw new RunEnded(ExitCodes.STOPPED_RESUMABLE, e.getMessage() + "; its checkpoint is in "
+                    + checkpoints.files().root() + ". Continue with: skerry resume " + runFolder, e);
+        } catch (CheckpointWriteException e) {
+            throw new RunEnded(ExitCodes.RUN_FAILURE, e.getMessage() + ". Fix the cause, then continue with: "
+                    + "skerry resume " + runFolder, e);
+        } catch (java.io.UncheckedIOException e) {
+            throw outputFailed(e, checkpoints, runFolder);
+        } catch (SettingsChangedException e) {
+            throw new RunFileException(e.getMessage(), e);
+        } catch (IllegalStateException e) {
+            if (resume && e.getMessage() != null && e.getMessage().contains("checkpoint")) {
+                throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
+            }
+            throw e;
+        }
+        double wall = (System.nanoTime() - start) * 1e-9;
+        try {
+            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
+                    built.model().parameters().names(), result, wall, started, backend.description()));
+        } catch (java.io.UncheckedIOException e) {
+            throw outputFailed(e, checkpoints, runFolder);
+        }
+        return new Outcome(runFolder, spec, result, wall);
     }
 
     /** A run-folder file could not be written (full or read-only disk): say so, and what is kept. */
@@ -223,11 +264,11 @@ public final class Analysis {
     }
 
     /** On a cluster, executors must see the checkpoint folder; local mode shares the driver's disk. */
-    private static void checkVisible(Backends.Opened opened, CheckpointFolder checkpoints) {
-        if (!(opened.backend instanceof SparkBackend)) {
+    private static void checkVisible(PopulationBackend backend, CheckpointFolder checkpoints) {
+        if (!(backend instanceof SparkBackend)) {
             return;
         }
-        JavaSparkContext context = ((SparkBackend) opened.backend).context();
+        JavaSparkContext context = ((SparkBackend) backend).context();
         String master = context.master();
         if (master.startsWith("local[") || master.equals("local")) {
             return;

@@ -24,19 +24,24 @@ import org.skerry.spark.SparkBackend;
  * address is tried first with a bounded timeout, so an unreachable master is reported at once
  * instead of after Spark's own registration retries.
  */
-final class Backends {
+public final class Backends {
 
     private Backends() {
     }
 
     /** An open backend and the scratch folder it writes into (removed on close). */
-    static final class Opened implements AutoCloseable {
+    public static final class Opened implements AutoCloseable {
         final PopulationBackend backend;
         private final Path scratch;
 
         Opened(PopulationBackend backend, Path scratch) {
             this.backend = backend;
             this.scratch = scratch;
+        }
+
+        /** The open backend. */
+        public PopulationBackend backend() {
+            return backend;
         }
 
         @Override
@@ -50,6 +55,15 @@ final class Backends {
     }
 
     static Opened open(RunSpec spec, Path runFolder) {
+        return open(spec, runFolder, Map.of());
+    }
+
+    /**
+     * Opens the backend of {@code spec} with Spark's scratch folder under {@code runFolder};
+     * {@code sparkDefaults} go under the run file's own {@code backend.spark} settings (a batch
+     * adds its fair scheduler here).
+     */
+    public static Opened open(RunSpec spec, Path runFolder, Map<String, String> sparkDefaults) {
         if (spec.backendKind().equals("threads")) {
             int threads = spec.threads() == 0 ? Runtime.getRuntime().availableProcessors() : spec.threads();
             return new Opened(new ThreadPoolBackend(threads, spec.blockSize()), null);
@@ -70,6 +84,7 @@ final class Backends {
         } else {
             settings.put("spark.jars", String.join(",", jars));
         }
+        settings.putAll(sparkDefaults);
         settings.putAll(spec.sparkSettings());
         try {
             Files.createDirectories(scratch);

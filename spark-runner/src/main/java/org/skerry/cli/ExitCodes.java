@@ -10,6 +10,11 @@ public final class ExitCodes {
     /** Bad input: run file, overrides, data, model choice or output folder; nothing was run. */
     public static final int BAD_INPUT = 2;
     /**
+     * {@code skerry batch}: the batch ran, but some of its analyses failed; batch-summary.csv
+     * gives each one's status and reason, and the others' results are complete.
+     */
+    public static final int SOME_FAILED = 3;
+    /**
      * Stopped on request (SIGTERM, wall-time limit) at a checkpoint; resume the run to continue.
      * 75 is EX_TEMPFAIL of sysexits.h: "try again later", which batch scripts requeue on.
      */

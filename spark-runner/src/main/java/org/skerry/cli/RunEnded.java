@@ -5,7 +5,7 @@ package org.skerry.cli;
  * the message explains (a checkpoint that cannot be written, no usable checkpoint to resume
  * from). The command prints the message and exits with the code.
  */
-final class RunEnded extends RuntimeException {
+public final class RunEnded extends RuntimeException {
 
     private static final long serialVersionUID = 1L;
 
@@ -16,7 +16,8 @@ final class RunEnded extends RuntimeException {
         this.exitCode = exitCode;
     }
 
-    int exitCode() {
+    /** The exit code the command ends with. */
+    public int exitCode() {
         return exitCode;
     }
 }

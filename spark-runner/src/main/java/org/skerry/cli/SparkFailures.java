@@ -5,13 +5,13 @@ package org.skerry.cli;
  * built on the executors, executors that ran out of memory, a population too large for a
  * message. Spark wraps the cause in job-abort text, so the chain and the texts are searched.
  */
-final class SparkFailures {
+public final class SparkFailures {
 
     private SparkFailures() {
     }
 
     /** A plain explanation, or null when the failure is not one of the known kinds. */
-    static String explain(Throwable failure) {
+    public static String explain(Throwable failure) {
         StringBuilder text = new StringBuilder();
         for (Throwable t = failure; t != null; t = t.getCause()) {
             text.append(t.getClass().getName()).append(": ").append(t.getMessage()).append('\n');

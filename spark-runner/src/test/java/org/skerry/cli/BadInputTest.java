@@ -39,13 +39,7 @@ class BadInputTest {
     private CommandRunner.Result expectBadInput(Path runFile, String... fragments) {
         Path out = folder.resolve("out");
         CommandRunner.Result result = CommandRunner.run("run", runFile.toString(), "--out", out.toString());
-        assertEquals(ExitCodes.BAD_INPUT, result.exitCode(), result.err());
-        String message = result.err().trim();
-        assertTrue(message.startsWith("skerry: bad input:"), message);
-        assertEquals(1, message.lines().count(), "one message: " + message);
-        for (String fragment : fragments) {
-            assertTrue(message.contains(fragment), "'" + fragment + "' in: " + message);
-        }
+        CommandRunner.assertBadInput(result, fragments);
         assertFalse(Files.exists(out.resolve("summary.json")), "no results written");
         return result;
     }

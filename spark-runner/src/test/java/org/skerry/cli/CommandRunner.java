@@ -1,5 +1,8 @@
 package org.skerry.cli;
 
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
 import java.io.PrintWriter;
 import java.io.StringWriter;
 
@@ -14,6 +17,17 @@ final class CommandRunner {
         StringWriter err = new StringWriter();
         int code = SkerryCommand.execute(args, new PrintWriter(out, true), new PrintWriter(err, true));
         return new Result(code, out.toString(), err.toString());
+    }
+
+    /** Asserts that {@code result} is bad input: exit code 2 and one message holding every fragment. */
+    static void assertBadInput(Result result, String... fragments) {
+        assertEquals(ExitCodes.BAD_INPUT, result.exitCode(), result.err());
+        String message = result.err().trim();
+        assertTrue(message.startsWith("skerry: bad input:"), message);
+        assertEquals(1, message.lines().count(), "one message: " + message);
+        for (String fragment : fragments) {
+            assertTrue(message.contains(fragment), "'" + fragment + "' in: " + message);
+        }
     }
 
     private CommandRunner() {

@@ -44,27 +44,40 @@ public final class RunFile {
      * @throws RunFileException naming the file, line and key of the first problem found
      */
     public static RunFile load(Path path, List<String> overrides) {
-        if (!Files.isRegularFile(path)) {
-            throw new RunFileException("cannot read run file " + path + ": no such file");
-        }
-        if (!Files.isReadable(path)) {
-            throw new RunFileException("cannot read run file " + path + ": permission denied");
-        }
-        Config user;
-        try {
-            user = ConfigFactory.parseFile(path.toFile(),
-                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
-        } catch (ConfigException e) {
-            throw new RunFileException(located(e), e);
-        }
+        return load(path, ConfigFactory.empty(), overrides);
+    }
+
+    /**
+     * As {@link #load(Path, List)}, with {@code settings} laid over the file beneath the
+     * overrides: a batch's per-dataset and per-variant settings, whose origins (file and line)
+     * then appear in any error they cause.
+     */
+    public static RunFile load(Path path, Config settings, List<String> overrides) {
+        Config user = settings.withFallback(parse(path, "run file"));
         for (int i = overrides.size() - 1; i >= 0; i--) {
             user = parseOverride(overrides.get(i)).withFallback(user);
         }
         Config reference = ConfigFactory.parseResources(RunFile.class.getClassLoader(), "reference.conf",
                 ConfigParseOptions.defaults().setAllowMissing(false));
-        checkKnownKeys(user, reference);
+        checkKnownKeys(user, reference, FREE_FORM);
         try {
             return new RunFile(path, user.withFallback(reference).resolve());
+        } catch (ConfigException e) {
+            throw new RunFileException(located(e), e);
+        }
+    }
+
+    /** Parses a HOCON file the user wrote ({@code what}: "run file", "batch file"), errors located. */
+    static Config parse(Path path, String what) {
+        if (!Files.isRegularFile(path)) {
+            throw new RunFileException("cannot read " + what + " " + path + ": no such file");
+        }
+        if (!Files.isReadable(path)) {
+            throw new RunFileException("cannot read " + what + " " + path + ": permission denied");
+        }
+        try {
+            return ConfigFactory.parseFile(path.toFile(),
+                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
         } catch (ConfigException e) {
             throw new RunFileException(located(e), e);
         }
@@ -106,13 +119,14 @@ public final class RunFile {
         return describe(e.origin()) + ": " + rest;
     }
 
-    private static void checkKnownKeys(Config user, Config reference) {
+    /** Refuses the first key of {@code user} that {@code reference} lacks, outside the free-form sections. */
+    static void checkKnownKeys(Config user, Config reference, List<String> freeForm) {
         TreeSet<String> known = new TreeSet<>();
         collectPaths(reference.root(), "", known);
         List<String> unknown = new ArrayList<>();
-        collectLeaves(user.root(), "", unknown);
+        collectLeaves(user.root(), "", unknown, freeForm);
         for (String key : unknown) {
-            if (isFreeForm(key) || known.contains(key)) {
+            if (isFreeForm(key, freeForm) || known.contains(key)) {
                 continue;
             }
             // A user object where reference has a leaf, or the reverse, is a type error found later.
@@ -128,8 +142,8 @@ public final class RunFile {
         }
     }
 
-    private static boolean isFreeForm(String key) {
-        for (String section : FREE_FORM) {
+    private static boolean isFreeForm(String key, List<String> freeForm) {
+        for (String section : freeForm) {
             if (key.equals(section) || key.startsWith(section + ".")) {
                 return true;
             }
@@ -147,15 +161,15 @@ public final class RunFile {
         }
     }
 
-    private static void collectLeaves(ConfigObject object, String prefix, List<String> out) {
+    private static void collectLeaves(ConfigObject object, String prefix, List<String> out, List<String> freeForm) {
         for (Map.Entry<String, ConfigValue> entry : object.entrySet()) {
             String key = prefix + quoteKey(entry.getKey());
-            if (entry.getValue() instanceof ConfigObject && !isFreeForm(key)) {
+            if (entry.getValue() instanceof ConfigObject && !isFreeForm(key, freeForm)) {
                 ConfigObject child = (ConfigObject) entry.getValue();
                 if (child.isEmpty()) {
                     out.add(key);
                 }
-                collectLeaves(child, key + ".", out);
+                collectLeaves(child, key + ".", out, freeForm);
             } else {
                 out.add(key);
             }

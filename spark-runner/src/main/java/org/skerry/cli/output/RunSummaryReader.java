@@ -1,0 +1,106 @@
+package org.skerry.cli.output;
+
+import com.fasterxml.jackson.core.JsonFactory;
+import com.fasterxml.jackson.core.JsonParser;
+import com.fasterxml.jackson.core.JsonToken;
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.LinkedHashMap;
+import java.util.Map;
+
+/**
+ * Reads back what a batch summary needs from a finished run folder: the answer from
+ * {@code summary.json} and the wall time from {@code timing.json}. Reading the files, rather
+ * than keeping results in memory, gives the same summary row for an analysis run now and one
+ * kept from an earlier, interrupted batch.
+ */
+public final class RunSummaryReader {
+
+    /** The parts of a run's summary a batch row shows; parameters map to {mean, q025, q975}. */
+    public record RunSummary(double logEvidence, double logEvidenceError, int iterations, long likelihoodEvaluations,
+            Map<String, double[]> parameters) {
+    }
+
+    private static final JsonFactory FACTORY = new JsonFactory();
+
+    private RunSummaryReader() {
+    }
+
+    /** Reads {@code summary.json} of {@code folder}. */
+    public static RunSummary read(Path folder) throws IOException {
+        Path file = folder.resolve(SummaryJson.FILE_NAME);
+        double logEvidence = Double.NaN;
+        double error = Double.NaN;
+        int iterations = -1;
+        long evaluations = -1;
+        Map<String, double[]> parameters = new LinkedHashMap<>();
+        try (JsonParser p = FACTORY.createParser(file.toFile())) {
+            expect(p, JsonToken.START_OBJECT, file);
+            while (p.nextToken() == JsonToken.FIELD_NAME) {
+                String field = p.currentName();
+                p.nextToken();
+                switch (field) {
+                    case "logEvidence" -> logEvidence = number(p);
+                    case "logEvidenceError" -> error = number(p);
+                    case "iterations" -> iterations = p.getIntValue();
+                    case "likelihoodEvaluations" -> evaluations = p.getLongValue();
+                    case "parameters" -> readParameters(p, parameters);
+                    default -> p.skipChildren();
+                }
+            }
+        }
+        return new RunSummary(logEvidence, error, iterations, evaluations, parameters);
+    }
+
+    /** The wall time in {@code timing.json} of {@code folder}, or NaN when it is missing or unreadable. */
+    public static double wallSeconds(Path folder) {
+        Path file = folder.resolve(TimingJson.FILE_NAME);
+        if (!Files.isRegularFile(file)) {
+            return Double.NaN;
+        }
+        try (JsonParser p = FACTORY.createParser(file.toFile())) {
+            expect(p, JsonToken.START_OBJECT, file);
+            while (p.nextToken() == JsonToken.FIELD_NAME) {
+                String field = p.currentName();
+                p.nextToken();
+                if (field.equals("wallSeconds")) {
+                    return number(p);
+                }
+                p.skipChildren();
+            }
+        } catch (IOException e) {
+            // the wall time is information, not part of the answer
+        }
+        return Double.NaN;
+    }
+
+    private static void readParameters(JsonParser p, Map<String, double[]> out) throws IOException {
+        while (p.nextToken() == JsonToken.FIELD_NAME) {
+            String name = p.currentName();
+            p.nextToken();
+            double[] values = {Double.NaN, Double.NaN, Double.NaN};
+            while (p.nextToken() == JsonToken.FIELD_NAME) {
+                String key = p.currentName();
+                p.nextToken();
+                switch (key) {
+                    case "mean" -> values[0] = number(p);
+                    case "q025" -> values[1] = number(p);
+                    case "q975" -> values[2] = number(p);
+                    default -> p.skipChildren();
+                }
+            }
+            out.put(name, values);
+        }
+    }
+
+    private static double number(JsonParser p) throws IOException {
+        return p.currentToken() == JsonToken.VALUE_NULL ? Double.NaN : p.getDoubleValue();
+    }
+
+    private static void expect(JsonParser p, JsonToken token, Path file) throws IOException {
+        if (p.nextToken() != token) {
+            throw new IOException(file + ": expected a JSON object");
+        }
+    }
+}
