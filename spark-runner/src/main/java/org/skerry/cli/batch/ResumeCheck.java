@@ -11,6 +11,7 @@ import java.util.Set;
 import java.util.TreeSet;
 import java.util.function.Function;
 import org.skerry.cli.output.RunConfFile;
+import org.skerry.cli.runfile.AnswerSettings;
 import org.skerry.cli.runfile.BatchSpec;
 import org.skerry.cli.runfile.RunFileException;
 
@@ -18,7 +19,7 @@ import org.skerry.cli.runfile.RunFileException;
  * Refuses to resume a batch whose answers would change: for every analysis that an earlier run
  * finished or left interrupted, its saved {@code run.conf} must agree with the run file the batch
  * file gives now, and its data file must have the same content. Keys that cannot alter an answer
- * are left out: {@code backend.*} and {@code output.*} (the answer is the same on any backend), and
+ * are left out (those of {@link AnswerSettings#isNeutral}: backend, output, checkpoints, limits…), and
  * {@code data.file} itself (the content is compared instead, so a moved batch still resumes).
  * Analyses that failed are run afresh from the batch file as it is now, so changing what made
  * them fail is allowed.
@@ -89,7 +90,7 @@ final class ResumeCheck {
 
     private static Map<String, String> answerKeys(Config runConfig) {
         Map<String, String> keys = BatchState.flatten(runConfig);
-        keys.keySet().removeIf(k -> k.startsWith("backend.") || k.startsWith("output.") || k.equals("data.file"));
+        keys.keySet().removeIf(k -> AnswerSettings.isNeutral(k) || k.equals("data.file"));
         return keys;
     }
 }

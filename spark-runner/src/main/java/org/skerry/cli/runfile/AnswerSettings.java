@@ -48,7 +48,8 @@ public final class AnswerSettings {
         return settings;
     }
 
-    static boolean isNeutral(String key) {
+    /** Whether {@code key} only says how or where a run goes, never what it answers. */
+    public static boolean isNeutral(String key) {
         for (String prefix : NEUTRAL) {
             if (prefix.endsWith(".") ? key.startsWith(prefix) : key.equals(prefix)) {
                 return true;
