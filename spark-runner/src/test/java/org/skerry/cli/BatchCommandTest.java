@@ -265,6 +265,56 @@ class BatchCommandTest {
         assertArrayEquals(before, Files.readAllBytes(resumed.resolve("batch-summary.json")), "nothing changed");
     }
 
+    @Test
+    @DisplayName("SIGTERM during a batch: the running analysis stops at a checkpoint, exit 75; run again, it equals an uninterrupted batch")
+    @SuppressWarnings("restriction")
+    void terminatedAndResumed() throws Exception {
+        for (int k = 1; k <= 3; k++) {
+            dataset("pond-" + k, SyntheticData.normalRows(70 + k, 8, new double[] {0.5 * k}, SIGMA));
+        }
+        base("backend { kind = threads, threads = 1 }");
+        Path file = batch("base = base.conf", "datasets { folder = data }", TWO_VARIANTS, "seed = 5",
+                "concurrent = 1", "progress = off");
+        Path whole = folder.resolve("whole");
+        assertEquals(ExitCodes.SUCCESS, CommandRunner.run("batch", file.toString(), "--out", whole.toString()).exitCode());
+
+        Path stopped = folder.resolve("stopped");
+        java.util.concurrent.ExecutorService driver = java.util.concurrent.Executors.newSingleThreadExecutor();
+        CommandRunner.Result first;
+        try {
+            java.util.concurrent.Future<CommandRunner.Result> running = driver.submit(
+                    () -> CommandRunner.run("batch", file.toString(), "--out", stopped.toString()));
+            // The event: the first analysis's checkpoint of iteration 1 (one analysis at a time, six in all).
+            Path trigger = stopped.resolve("pond-1/wide/checkpoints/iteration-000001/manifest.txt");
+            long deadline = System.nanoTime() + java.util.concurrent.TimeUnit.SECONDS.toNanos(60);
+            while (!Files.exists(trigger)) {
+                assertFalse(running.isDone(), "the batch ended before the trigger");
+                assertTrue(System.nanoTime() < deadline, "no checkpoint 1 within 60 s");
+                Thread.sleep(5);
+            }
+            sun.misc.Signal.raise(new sun.misc.Signal("TERM"));
+            first = running.get(60, java.util.concurrent.TimeUnit.SECONDS);
+        } finally {
+            driver.shutdownNow();
+        }
+        assertEquals(ExitCodes.STOPPED_RESUMABLE, first.exitCode(), first.err() + first.out());
+        assertTrue(first.err().contains("termination signal"), first.err());
+        assertFalse(Files.exists(stopped.resolve("pond-3/narrow/summary.json")), "the last analysis never started");
+
+        CommandRunner.Result again = CommandRunner.run("batch", file.toString(), "--out", stopped.toString());
+        assertEquals(ExitCodes.SUCCESS, again.exitCode(), again.err());
+        for (int k = 1; k <= 3; k++) {
+            for (String variant : List.of("wide", "narrow")) {
+                String run = "pond-" + k + "/" + variant;
+                for (String f : List.of("summary.json", "particles.csv")) {
+                    assertArrayEquals(Files.readAllBytes(whole.resolve(run).resolve(f)),
+                            Files.readAllBytes(stopped.resolve(run).resolve(f)), run + "/" + f);
+                }
+            }
+        }
+        assertEquals(withoutWallTime(summary(whole)), withoutWallTime(summary(stopped)));
+    }
+
     private static List<List<String>> withoutWallTime(List<CSVRecord> rows) {
         List<List<String>> out = new ArrayList<>();
         for (CSVRecord r : rows) {
