@@ -6,6 +6,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Model.CommandSpec;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -30,13 +31,8 @@ final class ResumeCommand implements Callable<Integer> {
                     + "e.g. --set backend.master=spark://host:7077")
     List<String> overrides = new ArrayList<>();
 
-    @Option(names = "--master", paramLabel = "URL", description = "continue on this Spark master")
-    String master;
-
-    @Option(names = "--max-wall-time", paramLabel = "DURATION",
-            description = "stop at a checkpoint (exit 75) rather than start an iteration that would end after this "
-                    + "much wall time, e.g. 11h30m or 90m; same as --set limits.max-wall-time=DURATION")
-    String maxWallTime;
+    @Mixin
+    WhereOptions where = new WhereOptions();
 
     @Override
     public Integer call() {
@@ -47,7 +43,7 @@ final class ResumeCommand implements Callable<Integer> {
             return ExitCodes.SUCCESS;
         }
         List<String> all = new ArrayList<>(overrides);
-        RunCommand.addCommonOverrides(all, master, maxWallTime);
+        where.addTo(all);
         Analysis.Outcome outcome = Analysis.resume(folder, all, spec.commandLine().getErr());
         ResultTable.print(outcome, stdout);
         stdout.flush();

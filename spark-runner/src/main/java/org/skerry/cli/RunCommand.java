@@ -8,6 +8,7 @@ import java.util.concurrent.Callable;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunSpec;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 import picocli.CommandLine.Spec;
@@ -32,35 +33,18 @@ final class RunCommand implements Callable<Integer> {
             description = "the run folder to write (default: <output.folder>/<name>-<start time>); must be new or empty")
     Path out;
 
-    @Option(names = "--master", paramLabel = "URL",
-            description = "run on this Spark master (e.g. spark://127.0.0.1:7077); same as --set backend.master=URL")
-    String master;
-
-    @Option(names = "--max-wall-time", paramLabel = "DURATION",
-            description = "stop at a checkpoint (exit 75, resumable) rather than start an iteration that would end "
-                    + "after this much wall time, e.g. 11h30m or 90m; same as --set limits.max-wall-time=DURATION")
-    String maxWallTime;
+    @Mixin
+    WhereOptions where = new WhereOptions();
 
     @Override
     public Integer call() {
         List<String> all = new ArrayList<>(overrides);
-        addCommonOverrides(all, master, maxWallTime);
+        where.addTo(all);
         RunSpec run = RunSpec.from(RunFile.load(file, all));
         Analysis.Outcome outcome = Analysis.run(run, out, spec.commandLine().getErr());
         PrintWriter stdout = spec.commandLine().getOut();
         ResultTable.print(outcome, stdout);
         stdout.flush();
         return ExitCodes.SUCCESS;
-    }
-
-    /** The overrides that {@code --master} and {@code --max-wall-time} stand for. */
-    static void addCommonOverrides(List<String> overrides, String master, String maxWallTime) {
-        if (master != null) {
-            overrides.add("backend.kind=spark");
-            overrides.add("backend.master=\"" + master + "\"");
-        }
-        if (maxWallTime != null) {
-            overrides.add("limits.max-wall-time=\"" + maxWallTime + "\"");
-        }
     }
 }
