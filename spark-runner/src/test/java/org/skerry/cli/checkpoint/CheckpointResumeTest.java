@@ -124,6 +124,47 @@ class CheckpointResumeTest {
         assertTrue(all.size() >= 4, "enough iterations to interrupt: " + all.size());
     }
 
+    private static List<Integer> checkpointedIterations(Path runFolder) throws IOException {
+        List<Integer> iterations = new ArrayList<>();
+        for (Path checkpoint : checkpoints(runFolder)) {
+            iterations.add(Integer.parseInt(checkpoint.getFileName().toString().substring("iteration-".length())));
+        }
+        return iterations;
+    }
+
+    @Test
+    @DisplayName("every k iterations or every m minutes: the checkpoints written are the ones asked for, always with the last; the answer is the same")
+    void checkpointFrequency() throws IOException {
+        int last = checkpoints(undisturbed).size() - 1;
+        Path everyThird = dir.resolve("every-third");
+        Result third = skerry(run(everyThird, "--set", "checkpoint.every-iterations=3"));
+        assertEquals(0, third.exitCode(), third.err());
+        List<Integer> expected = new ArrayList<>();
+        for (int k = 0; k < last; k += 3) {
+            expected.add(k);
+        }
+        expected.add(last);
+        assertEquals(expected, checkpointedIterations(everyThird));
+        assertSameResults(undisturbed, everyThird);
+
+        Path rarely = dir.resolve("rarely");
+        Result minutes = skerry(run(rarely, "--set", "checkpoint.every-minutes=600"));
+        assertEquals(0, minutes.exitCode(), minutes.err());
+        assertEquals(List.of(0, last), checkpointedIterations(rarely), "the initial draw and the end only");
+        assertSameResults(undisturbed, rarely);
+
+        Path none = dir.resolve("no-checkpoints-at-all");
+        Result off = skerry(run(none, "--set", "checkpoint.enabled=false"));
+        assertEquals(0, off.exitCode(), off.err());
+        assertFalse(Files.exists(none.resolve("checkpoints")));
+        assertSameResults(undisturbed, none);
+
+        Path pruned = dir.resolve("pruned");
+        Result kept = skerry(run(pruned, "--set", "checkpoint.keep=2"));
+        assertEquals(0, kept.exitCode(), kept.err());
+        assertEquals(List.of(last - 1, last), checkpointedIterations(pruned), "the newest two kept");
+    }
+
     @Test
     @DisplayName("resumed from the first, a middle and the last checkpoint, on other partitions: byte-identical results")
     void resumeFromEveryPoint() throws IOException {
