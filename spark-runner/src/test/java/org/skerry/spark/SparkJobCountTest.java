@@ -113,8 +113,8 @@ class SparkJobCountTest {
 
     /**
      * The figure the fusion reaches: a global resampling costs the weight totals and one job that
-     * expands, redistributes and sums moments (one more for the residual scheme's split); without
-     * resampling one job sums moments; moves take one job, two with the adaptive pilot; a
+     * expands, redistributes and sums moments (one more for the residual scheme's split); an island
+     * resampling one job, and one for the moment sums; without resampling one job sums moments; moves take one job, two with the adaptive pilot; a
      * checkpoint one more (the write; the read-back is computed by the next job). The tempering
      * inputs come with the last move's report, unless the pilot was the only move (one job then).
      */
@@ -157,6 +157,20 @@ class SparkJobCountTest {
                 assertTrue(counts.get(k) <= allowed, scheme + ", iteration " + k + " started " + counts.get(k)
                         + " jobs, more than " + allowed + ": " + counts);
             }
+        }
+    }
+
+    @Test
+    @DisplayName("island mode: the island resampling's job also computes the reweighting")
+    void islands() throws InterruptedException {
+        SamplerSettings settings = SamplerSettings.builder().particles(240).seed(23).islands(4).build();
+        List<IterationRecord> records = new ArrayList<>();
+        List<Integer> counts = jobsPerIteration(settings, 0, Checkpointer.NONE, records);
+        assertTrue(records.stream().anyMatch(IterationRecord::resampled), "the run resamples at least once");
+        for (int k = 1; k < counts.size(); k++) {
+            int allowed = allowed(records, k, false, settings.resamplingScheme(), false);
+            assertTrue(counts.get(k) <= allowed, "iteration " + k + " started " + counts.get(k) + " jobs, more than "
+                    + allowed + ": " + counts);
         }
     }
 
