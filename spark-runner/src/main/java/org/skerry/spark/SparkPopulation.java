@@ -142,15 +142,19 @@ final class SparkPopulation implements Population {
      */
     private List<Object> commitDeliveringInputs(JavaRDD<PartitionState> next) {
         define(next);
-        List<Object[]> parts = run(states.map(state -> new Object[] {state.report,
-            Arrays.copyOf(state.block.logWeight(), state.block.size()),
-            Arrays.copyOf(state.block.logLikelihood(), state.block.size())}));
+        List<Object[]> parts = run(states.map(SparkPopulation::withInputs));
         List<Object> reports = new ArrayList<>(parts.size());
         for (Object[] part : parts) {
             reports.add(part[0]);
         }
         deliveredInputs = assembleInputs(parts);
         return reports;
+    }
+
+    /** Executor side: a partition's {@code {report, log-weights, log-likelihoods}}. */
+    private static Object[] withInputs(PartitionState state) {
+        return new Object[] {state.report, Arrays.copyOf(state.block.logWeight(), state.block.size()),
+            Arrays.copyOf(state.block.logLikelihood(), state.block.size())};
     }
 
     /** Tempering inputs from per-partition {@code {report, log-weights, log-likelihoods}}, in partition order. */
@@ -213,9 +217,7 @@ final class SparkPopulation implements Population {
             deliveredInputs = null;
             return inputs;
         }
-        return assembleInputs(run(states.map(state -> new Object[] {null,
-            Arrays.copyOf(state.block.logWeight(), state.block.size()),
-            Arrays.copyOf(state.block.logLikelihood(), state.block.size())})));
+        return assembleInputs(run(states.map(SparkPopulation::withInputs)));
     }
 
     /** Defined only: the weight totals of a resampling, or the moment sums, compute it. */
