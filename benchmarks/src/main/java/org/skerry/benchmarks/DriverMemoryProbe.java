@@ -1,6 +1,5 @@
 package org.skerry.benchmarks;
 
-import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.Locale;
 import java.util.Map;
@@ -16,7 +15,8 @@ import org.skerry.spark.SparkBackend;
  * busy-wait likelihood) while {@link HeapWatch} records this JVM's heap. Start it with a small
  * {@code -Xmx} to see whether the run completes. In {@code local[k]} mode the executors are
  * threads of this JVM, so the figure includes their cached particle blocks; with
- * {@code local-cluster[1,k,mb]} the executor is a separate JVM and the figure is the driver's alone.
+ * {@code local-cluster[1,k,mb]} or a standalone master ({@code spark://…}) the executors are separate
+ * JVMs and the figure is the driver's alone.
  *
  * <p>Usage: {@code DriverMemoryProbe master=local[2] particles=1000000 dimension=10 costMicros=10
  * partitions=0 executorMemory=2g}
@@ -39,13 +39,9 @@ public final class DriverMemoryProbe {
         int partitions = Integer.parseInt(options.getOrDefault("partitions", "0"));
         int temperatures = 4;
         int steps = 2;
-        Map<String, String> extra = new HashMap<>();
-        if (master.startsWith("local-cluster")) {
-            // The executor is launched by a worker, not by us: give it the same module options
-            // and the memory the cached blocks need.
-            extra.put("spark.executor.memory", options.getOrDefault("executorMemory", "2g"));
-            extra.put("spark.executor.extraJavaOptions", String.join(" ", LocalSpark.moduleOptions()));
-        }
+        // Executors launched by a worker, not by us, get the module options and the memory the
+        // cached blocks need.
+        Map<String, String> extra = LocalSpark.executorSettings(master, options.getOrDefault("executorMemory", "2g"));
         System.out.printf(Locale.ROOT, "settings: %s; max heap %d MiB; java %s%n", options,
                 Runtime.getRuntime().maxMemory() >> 20, System.getProperty("java.version"));
 

@@ -31,7 +31,9 @@ import org.skerry.spark.SparkBackend;
  * evidence bit for bit; the run fails otherwise.
  *
  * <p>Usage: {@code InterleavedComparison variants=bare,threads,spark particles=4000 dimension=2
- * costMicros=1000 rounds=3 warmup=1 threads=2 temperatures=4 steps=2 partitions=0}
+ * costMicros=1000 rounds=3 warmup=1 threads=2 temperatures=4 steps=2 partitions=0}; {@code master=}
+ * {@code local-cluster[…]} or {@code spark://…} (then {@code executorMemory=1g}) for executors in JVMs
+ * of their own.
  */
 public final class InterleavedComparison {
 
@@ -84,8 +86,10 @@ public final class InterleavedComparison {
                 temperatures, steps, evaluations(), System.getProperty("java.version"),
                 Runtime.getRuntime().availableProcessors());
 
+        String master = options.getOrDefault("master", "local[" + threads + "]");
         SparkBackend spark = variants.contains("spark") || variants.contains("naive")
-                ? LocalSpark.start(options.getOrDefault("master", "local[" + threads + "]"), partitions, Map.of())
+                ? LocalSpark.start(master, partitions,
+                        LocalSpark.executorSettings(master, options.getOrDefault("executorMemory", "1g")))
                 : null;
         ThreadPoolBackend threadBackend = new ThreadPoolBackend(threads, 0);
         ExecutorService barePool = Executors.newFixedThreadPool(threads);

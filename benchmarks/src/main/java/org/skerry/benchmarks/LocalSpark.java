@@ -45,6 +45,44 @@ final class LocalSpark {
         }
     }
 
+    /**
+     * Settings for executors that are JVMs of their own: with {@code local-cluster[…]} or a
+     * standalone master ({@code spark://…}) the executors get the module options and
+     * {@code executorMemory}; on a standalone cluster they also need this jar and skerry's jars
+     * from {@code lib/} beside it (the workers' class path holds only the runner's dependencies).
+     */
+    static Map<String, String> executorSettings(String master, String executorMemory) {
+        Map<String, String> settings = new java.util.HashMap<>();
+        if (master.startsWith("local-cluster") || master.startsWith("spark://")) {
+            settings.put("spark.executor.memory", executorMemory);
+            settings.put("spark.executor.extraJavaOptions", String.join(" ", moduleOptions()));
+        }
+        if (master.startsWith("spark://")) {
+            settings.put("spark.jars", String.join(",", shippedJars()));
+        }
+        return settings;
+    }
+
+    /** This jar and the skerry jars in the {@code lib/} folder beside it. */
+    private static List<String> shippedJars() {
+        try {
+            java.nio.file.Path jar = java.nio.file.Path.of(
+                    LocalSpark.class.getProtectionDomain().getCodeSource().getLocation().toURI());
+            if (!java.nio.file.Files.isRegularFile(jar)) {
+                throw new IllegalStateException("a standalone cluster needs the benchmarks jar; run from "
+                        + "benchmarks/target/benchmarks.jar, not from " + jar);
+            }
+            List<String> jars = new ArrayList<>(List.of(jar.toString()));
+            try (java.util.stream.Stream<java.nio.file.Path> files = java.nio.file.Files.list(jar.getParent().resolve("lib"))) {
+                files.filter(f -> f.getFileName().toString().startsWith("skerry-")).sorted()
+                        .forEach(f -> jars.add(f.toString()));
+            }
+            return jars;
+        } catch (java.net.URISyntaxException | IOException e) {
+            throw new IllegalStateException("cannot find the jars to ship to the executors: " + e, e);
+        }
+    }
+
     /** A Spark backend on {@code master}, driver bound to 127.0.0.1, after checking the JVM options. */
     static SparkBackend start(String master, int partitions, Map<String, String> extra) {
         requireModuleOptions();

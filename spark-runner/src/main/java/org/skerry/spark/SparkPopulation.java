@@ -1,6 +1,7 @@
 package org.skerry.spark;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Iterator;
 import java.util.List;
 import org.apache.spark.TaskContext;
@@ -42,12 +43,20 @@ import org.skerry.engine.resample.ResidualTotals;
 import org.skerry.engine.resample.WeightQuantiser;
 import scala.Tuple2;
 
+
 /**
  * A population held by Spark: a cached RDD with one {@link ParticleBlock} per partition, each a
  * contiguous run of global indices. Every step maps the cached states to new ones with the
- * engine's block-side code, caches the result, collects the per-block reports and drops the old
- * states. Parameter vectors stay on the executors until {@link #export()}; the driver receives
- * two scalars per particle for tempering and per-block sums otherwise.
+ * engine's block-side code and caches the result; the states it replaces are dropped once a job
+ * has computed the new ones. Parameter vectors stay on the executors until {@link #export()}; the
+ * driver receives two scalars per particle for tempering and per-block sums otherwise.
+ *
+ * <p>Each Spark job costs a fixed latency (tens of milliseconds, more on a cluster) that dominates
+ * short iterations, so steps share jobs wherever the data flow allows: reweighting and a
+ * checkpoint's read-back are only defined, and computed by the next job; expansion,
+ * redistribution and the moment sums after a global resampling are one job; the tempering inputs
+ * travel with the reports of the initial draw and of the iteration's last move
+ * ({@link #moveLast}). What reaches the driver is unchanged.
  */
 final class SparkPopulation implements Population {
 
@@ -58,6 +67,13 @@ final class SparkPopulation implements Population {
     private int partitions;
     private final int dimension;
     private JavaRDD<PartitionState> states;
+    /** States that {@link #states} was defined from, dropped once a job has computed it. */
+    private final List<JavaRDD<PartitionState>> replaced = new ArrayList<>();
+    /** The tempering inputs of {@link #states}, gathered with the last step's reports, or null. */
+    private TemperingInputs deliveredInputs;
+    /** Moment sums of {@link #states} at {@link #deliveredMomentsLogTotal}, gathered while resampling, or null. */
+    private MomentSums deliveredMoments;
+    private double deliveredMomentsLogTotal;
 
     /** Partitions fetched per job by {@link #export()}: bounds the driver's extra memory. */
     private static final int EXPORT_PARTITIONS_PER_JOB = 16;
@@ -81,15 +97,81 @@ final class SparkPopulation implements Population {
         return partitions;
     }
 
-    /** Caches {@code next}, materialises it by collecting its reports, then drops the old states. */
-    private List<Object> commit(JavaRDD<PartitionState> next) {
+    /** The current states' lineage, as Spark prints it (for tests). */
+    String lineage() {
+        return states.toDebugString();
+    }
+
+    /**
+     * Makes {@code next} the population without running a job: it is cached when a job first
+     * computes it, and the states it replaces are dropped then ({@link #run}).
+     */
+    private void define(JavaRDD<PartitionState> next) {
         next.persist(StorageLevel.MEMORY_ONLY());
-        List<Object> reports = next.map(state -> state.report).collect();
         if (states != null) {
-            states.unpersist(false);
+            replaced.add(states);
         }
         states = next;
+        deliveredInputs = null;
+        deliveredMoments = null;
+    }
+
+    /** Runs {@code job}, which computes every partition of the states, then drops the states they replaced. */
+    private <T> List<T> run(JavaRDD<T> job) {
+        List<T> result = job.collect();
+        dropReplaced();
+        return result;
+    }
+
+    private void dropReplaced() {
+        for (JavaRDD<PartitionState> old : replaced) {
+            old.unpersist(false);
+        }
+        replaced.clear();
+    }
+
+    /** Defines {@code next}, computes it and returns its reports: one job. */
+    private List<Object> commit(JavaRDD<PartitionState> next) {
+        define(next);
+        return run(states.map(state -> state.report));
+    }
+
+    /**
+     * Defines {@code next}, computes it and returns its reports together with its tempering inputs,
+     * which {@link #temperingInputs()} then hands out without a job of its own.
+     */
+    private List<Object> commitDeliveringInputs(JavaRDD<PartitionState> next) {
+        define(next);
+        List<Object[]> parts = run(states.map(SparkPopulation::withInputs));
+        List<Object> reports = new ArrayList<>(parts.size());
+        for (Object[] part : parts) {
+            reports.add(part[0]);
+        }
+        deliveredInputs = assembleInputs(parts);
         return reports;
+    }
+
+    /** Executor side: a partition's {@code {report, log-weights, log-likelihoods}}. */
+    private static Object[] withInputs(PartitionState state) {
+        return new Object[] {state.report, Arrays.copyOf(state.block.logWeight(), state.block.size()),
+            Arrays.copyOf(state.block.logLikelihood(), state.block.size())};
+    }
+
+    /** Tempering inputs from per-partition {@code {report, log-weights, log-likelihoods}}, in partition order. */
+    private TemperingInputs assembleInputs(List<Object[]> parts) {
+        double[] logWeight = new double[size];
+        double[] logLikelihood = new double[size];
+        int[] blockSizes = new int[parts.size()];
+        int offset = 0;
+        for (int p = 0; p < parts.size(); p++) {
+            double[] partWeights = (double[]) parts.get(p)[1];
+            double[] partLikelihoods = (double[]) parts.get(p)[2];
+            System.arraycopy(partWeights, 0, logWeight, offset, partWeights.length);
+            System.arraycopy(partLikelihoods, 0, logLikelihood, offset, partLikelihoods.length);
+            blockSizes[p] = partWeights.length;
+            offset += partWeights.length;
+        }
+        return new TemperingInputs(logWeight, logLikelihood, size, blockSizes);
     }
 
     @Override
@@ -120,8 +202,9 @@ final class SparkPopulation implements Population {
                     new LikelihoodEvaluator(model, streamSeed, modelSource.evaluationRetries()), streamSeed);
             return new PartitionState(block, tally);
         });
+        // The sampler asks for the tempering inputs next: they come with the draw's reports.
         EvaluationTally total = EvaluationTally.NONE;
-        for (Object report : commit(next)) {
+        for (Object report : commitDeliveringInputs(next)) {
             total = total.plus((EvaluationTally) report);
         }
         return total;
@@ -129,38 +212,35 @@ final class SparkPopulation implements Population {
 
     @Override
     public TemperingInputs temperingInputs() {
-        List<double[][]> parts = states.map(state -> new double[][] {
-            java.util.Arrays.copyOf(state.block.logWeight(), state.block.size()),
-            java.util.Arrays.copyOf(state.block.logLikelihood(), state.block.size())}).collect();
-        double[] logWeight = new double[size];
-        double[] logLikelihood = new double[size];
-        int[] blockSizes = new int[parts.size()];
-        int offset = 0;
-        for (int p = 0; p < parts.size(); p++) {
-            double[][] part = parts.get(p);
-            System.arraycopy(part[0], 0, logWeight, offset, part[0].length);
-            System.arraycopy(part[1], 0, logLikelihood, offset, part[1].length);
-            blockSizes[p] = part[0].length;
-            offset += part[0].length;
+        if (deliveredInputs != null) {
+            TemperingInputs inputs = deliveredInputs;
+            deliveredInputs = null;
+            return inputs;
         }
-        return new TemperingInputs(logWeight, logLikelihood, size, blockSizes);
+        return assembleInputs(run(states.map(SparkPopulation::withInputs)));
     }
 
+    /** Defined only: the weight totals of a resampling, or the moment sums, compute it. */
     @Override
     public void reweight(double fromTemperature, double toTemperature) {
-        commit(states.map(state -> {
+        define(states.map(state -> {
             ParticleBlock block = state.block.copy();
             Reweighting.reweight(block, fromTemperature, toTemperature);
             return new PartitionState(block, null);
         }));
     }
 
+    /**
+     * Two jobs (three for the residual scheme): the partitions' weight totals, then one job that
+     * expands the survivors, moves the surplus copies and sums the moments of the result at log N,
+     * the log total every resampled population continues with, for {@link #moments}.
+     */
     @Override
     public ResamplingReport resample(ResamplingScheme scheme, double logTotal, int iteration) {
-        List<long[]> totals = states.map(state -> new long[] {
+        List<long[]> totals = run(states.map(state -> new long[] {
             state.block.size() == 0 ? -1 : state.block.index()[0], state.block.size(),
             WeightQuantiser.quantise(state.block.logWeight(), state.block.size(), logTotal,
-                    new long[state.block.size()])}).collect();
+                    new long[state.block.size()])}));
         long[] first = new long[partitions];
         int[] sizes = new int[partitions];
         long[] weightTotals = new long[partitions];
@@ -178,18 +258,19 @@ final class SparkPopulation implements Population {
         if (scheme == ResamplingScheme.RESIDUAL) {
             split = ResamplingPlanner.residualSplit(layout, weightTotals);
             ResidualSplit residual = split;
-            List<ResidualTotals> parts = states.map(state -> {
+            List<ResidualTotals> parts = run(states.map(state -> {
                 long[] q = new long[state.block.size()];
                 WeightQuantiser.quantise(state.block.logWeight(), state.block.size(), logTotal, q);
                 return OffspringCounter.splitResidual(residual, q, state.block.size(), new int[state.block.size()]);
-            }).collect();
+            }));
             plans = ResamplingPlanner.planResidual(seed, iteration, layout, split, parts.toArray(new ResidualTotals[0]));
         } else {
             plans = ResamplingPlanner.plan(scheme, seed, iteration, layout, weightTotals);
         }
         BlockResamplingPlan[] sentPlans = plans;
         ResidualSplit sentSplit = split;
-        JavaRDD<PartitionState> expanded = states.mapPartitionsWithIndex((p, iterator) -> {
+        long start = System.nanoTime();
+        define(states.mapPartitionsWithIndex((p, iterator) -> {
             PartitionState state = iterator.next();
             ParticleBlock block = state.block;
             long[] q = new long[block.size()];
@@ -202,22 +283,30 @@ final class SparkPopulation implements Population {
             long distinct = ParticleExpansion.distinctAncestors(offspring, block.size());
             ParticleBlock children = ParticleExpansion.expand(block, offspring, sentPlans[p].firstNewIndex());
             return List.of(new PartitionState(children, distinct)).iterator();
-        }, true);
-        long distinct = 0;
-        for (Object report : commit(expanded)) {
-            distinct += (Long) report;
-        }
-        long redistributeStart = System.nanoTime();
+        }, true));
         Redistribution redistribution = Redistribution.plan(ResamplingPlanner.expandedLayout(plans));
-        redistribute(redistribution);
-        return new ResamplingReport(distinct, redistribution.movedCount(), (System.nanoTime() - redistributeStart) * 1e-9);
+        if (redistribution.transferCount() > 0) {
+            define(redistributed(redistribution));
+        }
+        double logN = StrictMath.log(size);
+        ModelSource modelSource = source;
+        long distinct = 0;
+        MomentSums moments = new MomentSums(dimension);
+        for (Object[] part : run(states.map(state -> new Object[] {state.report,
+            MomentCollector.collect(state.block, ModelCache.get(modelSource).parameters(), logN)}))) {
+            distinct += (Long) part[0];
+            moments.merge((MomentSums) part[1]);
+        }
+        deliveredMoments = moments;
+        deliveredMomentsLogTotal = logN;
+        return new ResamplingReport(distinct, redistribution.movedCount(), (System.nanoTime() - start) * 1e-9);
     }
 
-    /** Moves only the runs the plan names; each partition keeps the part of its run it will hold. */
-    private void redistribute(Redistribution plan) {
-        if (plan.transferCount() == 0) {
-            return;
-        }
+    /**
+     * The expanded states rebalanced: only the runs the plan names move; each partition keeps the
+     * part of its run it will hold, and its expansion's report (the distinct ancestors).
+     */
+    private JavaRDD<PartitionState> redistributed(Redistribution plan) {
         JavaRDD<Tuple2<Integer, ParticleBlock>> outgoing = states.mapPartitionsWithIndex((p, iterator) -> {
             ParticleBlock block = iterator.next().block;
             List<Tuple2<Integer, ParticleBlock>> runs = new ArrayList<>();
@@ -232,10 +321,11 @@ final class SparkPopulation implements Population {
         JavaRDD<ParticleBlock> incoming = JavaPairRDD.fromJavaRDD(outgoing).partitionBy(new BlockPartitioner(partitions))
                 .values();
         int d = dimension;
-        JavaRDD<PartitionState> balanced = states.zipPartitions(incoming,
+        return states.zipPartitions(incoming,
                 (Iterator<PartitionState> own, Iterator<ParticleBlock> arriving) -> {
                     int p = TaskContext.getPartitionId();
-                    ParticleBlock block = own.next().block;
+                    PartitionState state = own.next();
+                    ParticleBlock block = state.block;
                     long targetFirst = plan.targetFirstIndex(p);
                     long targetEnd = targetFirst + plan.targetSize(p);
                     List<ParticleBlock> pieces = new ArrayList<>();
@@ -248,9 +338,8 @@ final class SparkPopulation implements Population {
                         }
                     }
                     arriving.forEachRemaining(pieces::add);
-                    return List.of(new PartitionState(BlockSlices.join(d, pieces), null)).iterator();
+                    return List.of(new PartitionState(BlockSlices.join(d, pieces), state.report)).iterator();
                 });
-        commit(balanced);
     }
 
     @Override
@@ -266,11 +355,18 @@ final class SparkPopulation implements Population {
         return new ResamplingReport(distinct, 0);
     }
 
+    /** No job when the global resampling just before summed them at this log total. */
     @Override
     public MomentSums moments(double logTotal) {
+        if (deliveredMoments != null
+                && Double.doubleToRawLongBits(logTotal) == Double.doubleToRawLongBits(deliveredMomentsLogTotal)) {
+            MomentSums moments = deliveredMoments;
+            deliveredMoments = null;
+            return moments;
+        }
         ModelSource modelSource = source;
-        List<MomentSums> parts = states.map(state -> MomentCollector.collect(state.block,
-                ModelCache.get(modelSource).parameters(), logTotal)).collect();
+        List<MomentSums> parts = run(states.map(state -> MomentCollector.collect(state.block,
+                ModelCache.get(modelSource).parameters(), logTotal)));
         MomentSums total = new MomentSums(dimension);
         parts.forEach(total::merge);
         return total;
@@ -278,15 +374,29 @@ final class SparkPopulation implements Population {
 
     @Override
     public MoveTally move(Proposal proposal, double temperature, int iteration, int firstStep, int steps) {
+        return total(commit(moved(proposal, temperature, iteration, firstStep, steps)));
+    }
+
+    /** The same moves; the next iteration's tempering inputs come back in the same job. */
+    @Override
+    public MoveTally moveLast(Proposal proposal, double temperature, int iteration, int firstStep, int steps) {
+        return total(commitDeliveringInputs(moved(proposal, temperature, iteration, firstStep, steps)));
+    }
+
+    private JavaRDD<PartitionState> moved(Proposal proposal, double temperature, int iteration, int firstStep,
+            int steps) {
         ModelSource modelSource = source;
         long streamSeed = seed;
-        List<Object> reports = commit(states.map(state -> {
+        return states.map(state -> {
             ParticleBlock block = state.block.copy();
             MoveTally tally = MetropolisHastingsMover.move(block, proposal, temperature, iteration, firstStep, steps,
                     new LikelihoodEvaluator(ModelCache.get(modelSource), streamSeed,
                             modelSource.evaluationRetries()), streamSeed);
             return new PartitionState(block, tally);
-        }));
+        });
+    }
+
+    private static MoveTally total(List<Object> reports) {
         MoveTally total = MoveTally.NONE;
         for (Object report : reports) {
             total = total.plus((MoveTally) report);
@@ -296,6 +406,8 @@ final class SparkPopulation implements Population {
 
     @Override
     public FinalParticles export() {
+        deliveredInputs = null;
+        deliveredMoments = null;
         double[] values = new double[size * dimension];
         double[] logWeight = new double[size];
         double[] logLikelihood = new double[size];
@@ -314,6 +426,7 @@ final class SparkPopulation implements Population {
                 }
             }
         }
+        dropReplaced();
         return new FinalParticles(dimension, size, values, logWeight, logLikelihood, index, eve);
     }
 
@@ -331,19 +444,30 @@ final class SparkPopulation implements Population {
     }
 
     /**
-     * Executors write their own blocks in parallel; then the population is rebuilt from those
-     * files, which cuts its lineage: a lost partition is read back from the checkpoint instead of
-     * being recomputed from the initial draw.
+     * Executors write their own blocks in parallel (one job); then the population is redefined as
+     * those files read back, which cuts its lineage: a lost partition is read back from the
+     * checkpoint instead of being recomputed from the initial draw. The read-back is computed by
+     * the next job; the old states are dropped at once, since the files now hold the population.
+     * The tempering inputs and moment sums gathered before stay valid: the particles are the same.
      */
     @Override
     public List<StoredBlock> writeBlocks(BlockStore store) {
-        List<StoredBlock> stored = states.mapPartitionsWithIndex((p, iterator) ->
-                List.of(store.write(p, iterator.next().block)).iterator(), true).collect();
-        List<String> problems = replaceFromFiles(store, stored);
-        if (!problems.isEmpty()) {
-            throw new java.io.UncheckedIOException(new java.io.IOException("the checkpoint just written to "
-                    + store.location() + " does not read back: " + String.join("; ", problems)));
-        }
+        List<StoredBlock> stored = run(states.mapPartitionsWithIndex((p, iterator) ->
+                List.of(store.write(p, iterator.next().block)).iterator(), true));
+        TemperingInputs inputs = deliveredInputs;
+        MomentSums moments = deliveredMoments;
+        String location = store.location();
+        define(fromFiles(store, stored).map(state -> {
+            if (state.report != null) {
+                throw new java.io.UncheckedIOException(new java.io.IOException("the checkpoint just written to "
+                        + location + " does not read back: " + state.report));
+            }
+            return state;
+        }));
+        dropReplaced();
+        partitions = stored.size();
+        deliveredInputs = inputs;
+        deliveredMoments = moments;
         return stored;
     }
 
@@ -356,22 +480,7 @@ final class SparkPopulation implements Population {
         if (particles != size) {
             return List.of("the checkpoint's blocks hold " + particles + " particles; the run has " + size);
         }
-        return replaceFromFiles(store, stored);
-    }
-
-    /** Makes the blocks in {@code stored} the population, unless some do not read back (returned). */
-    private List<String> replaceFromFiles(BlockStore store, List<StoredBlock> stored) {
-        long[] first = new long[stored.size()];
-        long running = 0;
-        for (int b = 0; b < stored.size(); b++) {
-            first[b] = running;
-            running += stored.get(b).particles();
-        }
-        int d = dimension;
-        JavaRDD<PartitionState> next = context.parallelize(stored, stored.size()).mapPartitionsWithIndex((p, iterator) -> {
-            BlockReading.Outcome outcome = BlockReading.read(store, iterator.next(), first[p], d);
-            return List.of(new PartitionState(outcome.block(), outcome.problem())).iterator();
-        }, true);
+        JavaRDD<PartitionState> next = fromFiles(store, stored);
         next.persist(StorageLevel.MEMORY_ONLY());
         List<String> problems = new ArrayList<>();
         for (Object report : next.map(state -> state.report).collect()) {
@@ -383,17 +492,30 @@ final class SparkPopulation implements Population {
             next.unpersist(false);
             return problems;
         }
-        if (states != null) {
-            states.unpersist(false);
-        }
-        states = next;
+        define(next);
+        dropReplaced();
         partitions = stored.size();
         return problems;
     }
 
+    /** The blocks in {@code stored} as states, each with what is wrong with its file as report (null when nothing). */
+    private JavaRDD<PartitionState> fromFiles(BlockStore store, List<StoredBlock> stored) {
+        long[] first = new long[stored.size()];
+        long running = 0;
+        for (int b = 0; b < stored.size(); b++) {
+            first[b] = running;
+            running += stored.get(b).particles();
+        }
+        int d = dimension;
+        return context.parallelize(stored, stored.size()).mapPartitionsWithIndex((p, iterator) -> {
+            BlockReading.Outcome outcome = BlockReading.read(store, iterator.next(), first[p], d);
+            return List.of(new PartitionState(outcome.block(), outcome.problem())).iterator();
+        }, true);
+    }
+
     @Override
     public PopulationSnapshot snapshot() {
-        return new PopulationSnapshot(states.map(state -> state.block).collect());
+        return new PopulationSnapshot(run(states.map(state -> state.block)));
     }
 
     @Override
@@ -408,9 +530,12 @@ final class SparkPopulation implements Population {
 
     @Override
     public void close() {
+        dropReplaced();
         if (states != null) {
             states.unpersist(false);
             states = null;
         }
+        deliveredInputs = null;
+        deliveredMoments = null;
     }
 }

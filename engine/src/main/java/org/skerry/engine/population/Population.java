@@ -57,6 +57,16 @@ public interface Population extends AutoCloseable {
      */
     MoveTally move(Proposal proposal, double temperature, int iteration, int firstStep, int steps);
 
+    /**
+     * The iteration's last {@link #move}: the same steps, and a hint that the population does not
+     * change again before the next {@link #temperingInputs()}, so a distributed backend may gather
+     * those inputs with the moves' reports instead of in a pass of its own. The default is
+     * {@link #move}.
+     */
+    default MoveTally moveLast(Proposal proposal, double temperature, int iteration, int firstStep, int steps) {
+        return move(proposal, temperature, iteration, firstStep, steps);
+    }
+
     /** All particles in canonical order. Used once, at the end of a run. */
     FinalParticles export();
 

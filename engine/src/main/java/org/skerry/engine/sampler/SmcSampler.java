@@ -332,11 +332,11 @@ public final class SmcSampler {
             int steps;
             if (settings.fixedSteps() > 0) {
                 steps = settings.fixedSteps();
-                moves = population.move(proposal, temperature, iteration, 0, steps);
+                moves = population.moveLast(proposal, temperature, iteration, 0, steps);
             } else {
                 MoveTally pilot = population.move(proposal, temperature, iteration, 0, 1);
                 steps = MoveAdaptation.steps(pilot.acceptanceRate(), settings.stayProbability(), settings.maxSteps());
-                moves = steps > 1 ? pilot.plus(population.move(proposal, temperature, iteration, 1, steps - 1)) : pilot;
+                moves = steps > 1 ? pilot.plus(population.moveLast(proposal, temperature, iteration, 1, steps - 1)) : pilot;
             }
             double moveSeconds = seconds(phase);
             double usedScale = scale;
