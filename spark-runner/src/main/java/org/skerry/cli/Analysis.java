@@ -38,6 +38,7 @@ import org.skerry.spark.checkpoint.CheckpointResumption;
 import org.skerry.spark.checkpoint.CheckpointVisibility;
 import org.skerry.spark.checkpoint.CheckpointWriteException;
 import org.skerry.spark.checkpoint.FileCheckpointer;
+import org.skerry.spark.checkpoint.NoUsableCheckpointException;
 import org.skerry.spark.checkpoint.SettingsChangedException;
 
 /**
@@ -85,6 +86,13 @@ public final class Analysis {
      * {@code run.conf} and {@code overrides} (which must not change the answer).
      */
     public static Outcome resume(Path runFolder, List<String> overrides, PrintWriter progressOut) {
+        RunSpec spec = savedSpec(runFolder, overrides);
+        return execute(spec, ModelBuilder.build(spec), runFolder, Instant.now(), progressOut, true,
+                IterationListener.NONE);
+    }
+
+    /** The run folder's saved settings with {@code overrides} on top. */
+    private static RunSpec savedSpec(Path runFolder, List<String> overrides) {
         Path conf = runFolder.resolve(RunConfFile.FILE_NAME);
         if (!Files.isDirectory(runFolder)) {
             throw new RunFileException("run folder " + runFolder + " does not exist");
@@ -92,19 +100,10 @@ public final class Analysis {
         if (!Files.isRegularFile(conf)) {
             throw new RunFileException(runFolder + " is not a run folder: it has no " + RunConfFile.FILE_NAME);
         }
-        RunSpec spec = RunSpec.from(RunFile.load(conf, overrides));
-        ModelBuilder.Built built = ModelBuilder.build(spec);
-        if (!hasCheckpoints(spec, runFolder)) {
-            // Stopped before its first checkpoint: nothing is lost by starting again, and the seed
-            // makes it the same run.
-            say(progressOut, "no checkpoint in " + runFolder + " yet: running it from the start");
-            return execute(spec, built, runFolder, Instant.now(), progressOut, false, IterationListener.NONE);
-        }
-        return execute(spec, built, runFolder, Instant.now(), progressOut, true, IterationListener.NONE);
+        return RunSpec.from(RunFile.load(conf, overrides));
     }
 
-    private static boolean hasCheckpoints(RunSpec spec, Path runFolder) {
-        CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
+    private static boolean hasCheckpoints(CheckpointFolder checkpoints) {
         try {
             return !checkpoints.list().isEmpty();
         } catch (java.io.IOException e) {
@@ -189,14 +188,9 @@ public final class Analysis {
      */
     public static Outcome resume(Path folder, PopulationBackend backend, IterationListener listener,
             StopCondition stop, PrintWriter notices) {
-        RunSpec spec = RunSpec.from(RunFile.load(folder.resolve(RunConfFile.FILE_NAME), List.of()));
-        ModelBuilder.Built built = ModelBuilder.build(spec);
-        boolean fromCheckpoint = hasCheckpoints(spec, folder);
-        if (!fromCheckpoint) {
-            say(notices, "no checkpoint in " + folder + " yet: running it from the start");
-        }
-        return core(spec, built, folder, Instant.now(), System.nanoTime(), notices, fromCheckpoint, backend, listener,
-                stop);
+        RunSpec spec = savedSpec(folder, List.of());
+        return core(spec, ModelBuilder.build(spec), folder, Instant.now(), System.nanoTime(), notices, true, backend,
+                listener, stop);
     }
 
     /** The run itself, on an open backend: checkpoints, resume, stop rules, results, and what each failure means. */
@@ -204,6 +198,12 @@ public final class Analysis {
             PrintWriter notices, boolean resume, PopulationBackend backend, IterationListener listener,
             StopCondition stop) {
         CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
+        if (resume && !hasCheckpoints(checkpoints)) {
+            // Stopped before its first checkpoint: nothing is lost by starting again, and the seed
+            // makes it the same run.
+            say(notices, "no checkpoint in " + runFolder + " yet: running it from the start");
+            resume = false;
+        }
         SortedMap<String, String> answer = AnswerSettings.of(spec);
         if (spec.checkpointEnabled()) {
             checkVisible(backend, checkpoints);
@@ -239,11 +239,8 @@ public final class Analysis {
             throw outputFailed(e, checkpoints, runFolder);
         } catch (SettingsChangedException e) {
             throw new RunFileException(e.getMessage(), e);
-        } catch (IllegalStateException e) {
-            if (resume && e.getMessage() != null && e.getMessage().contains("checkpoint")) {
-                throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
-            }
-            throw e;
+        } catch (NoUsableCheckpointException e) {
+            throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
         }
         double wall = (System.nanoTime() - start) * 1e-9;
         try {

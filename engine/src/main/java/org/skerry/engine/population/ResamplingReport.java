@@ -21,7 +21,10 @@ public final class ResamplingReport {
         this.redistributeSeconds = redistributeSeconds;
     }
 
-    /** Wall-clock seconds spent rebalancing the blocks (part of the resampling call). */
+    /**
+     * Wall-clock seconds spent rebalancing the blocks (part of the resampling call); a backend that
+     * fuses expansion, rebalancing and moment sums into one step reports that whole step.
+     */
     public double redistributeSeconds() {
         return redistributeSeconds;
     }

@@ -8,7 +8,8 @@ package org.skerry.engine.sampler;
  * @param temperature gathering weights and choosing the next temperature
  * @param reweight    updating the weights
  * @param resample    resampling: offspring counts and expansion of the survivors
- * @param redistribute moving surplus copies between blocks to rebalance them
+ * @param redistribute moving surplus copies between blocks to rebalance them (on Spark the one job
+ *                     that expands the survivors, rebalances and sums their moments)
  * @param fit         moment sums and proposal fit
  * @param move        Metropolis–Hastings steps (where the likelihood calls happen)
  * @param checkpoint  writing the checkpoint, when one was written

@@ -34,10 +34,10 @@ public final class CheckpointResumption implements Resumption {
         try {
             found = folder.list();
         } catch (IOException e) {
-            throw new IllegalStateException("cannot list the checkpoints in " + folder.files().root() + ": " + e, e);
+            throw new NoUsableCheckpointException("cannot list the checkpoints in " + folder.files().root() + ": " + e, e);
         }
         if (found.isEmpty()) {
-            throw new IllegalStateException("no checkpoint in " + folder.files().root());
+            throw new NoUsableCheckpointException("no checkpoint in " + folder.files().root(), null);
         }
         for (CheckpointFolder.Found candidate : found) {
             if (candidate.problem() != null) {
@@ -60,8 +60,8 @@ public final class CheckpointResumption implements Resumption {
             usedIteration = candidate.iteration();
             return loaded.saved().state();
         }
-        throw new IllegalStateException("no usable checkpoint in " + folder.files().root() + ": "
-                + String.join(" | ", skipped));
+        throw new NoUsableCheckpointException("no usable checkpoint in " + folder.files().root() + ": "
+                + String.join(" | ", skipped), null);
     }
 
     private void checkSettings(Map<String, String> saved) {
