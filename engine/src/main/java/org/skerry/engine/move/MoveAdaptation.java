@@ -13,7 +13,71 @@ public final class MoveAdaptation {
     public static final double MIN_SCALE = 1e-3;
     public static final double MAX_SCALE = 10.0;
 
+    /**
+     * Step-size factors of the pilot step's ladder: a quarter to twice the current scale, so one
+     * pilot can shrink the scale fourfold or double it (our choice).
+     */
+    private static final double[] LADDER = {0.25, 0.5, 1.0, 2.0};
+
     private MoveAdaptation() {
+    }
+
+    /** The pilot ladder's step-size factors, smallest first. */
+    public static double[] ladder() {
+        return LADDER.clone();
+    }
+
+    /**
+     * The random-walk scale and the acceptance expected at it, chosen from a pilot step on the
+     * {@link #ladder()}: acceptance falls as the step grows, so the rungs whose acceptance brackets
+     * {@code target} are interpolated linearly in (log factor, acceptance); when every rung accepts
+     * more than the target the largest step is taken, when every rung accepts less the smallest.
+     * Rungs without proposals are skipped; with none at all the scale is kept.
+     *
+     * @return {@code {scale, expected acceptance}}, the scale kept in [{@link #MIN_SCALE}, {@link #MAX_SCALE}]
+     */
+    public static double[] scaleFromLadder(double scale, long[] proposedByRung, long[] acceptedByRung,
+            double target) {
+        if (proposedByRung == null || acceptedByRung == null || proposedByRung.length != LADDER.length
+                || acceptedByRung.length != LADDER.length) {
+            throw new IllegalArgumentException("need counts for the " + LADDER.length + " rungs of the ladder");
+        }
+        int used = 0;
+        double[] logFactor = new double[LADDER.length];
+        double[] acceptance = new double[LADDER.length];
+        for (int k = 0; k < LADDER.length; k++) {
+            if (proposedByRung[k] > 0) {
+                logFactor[used] = StrictMath.log(LADDER[k]);
+                acceptance[used] = (double) acceptedByRung[k] / proposedByRung[k];
+                used++;
+            }
+        }
+        if (used == 0) {
+            return new double[] {scale, 0.0};
+        }
+        double chosenLog;
+        double expected;
+        if (acceptance[used - 1] >= target) {
+            chosenLog = logFactor[used - 1];
+            expected = acceptance[used - 1];
+        } else if (acceptance[0] <= target) {
+            chosenLog = logFactor[0];
+            expected = acceptance[0];
+        } else {
+            // Walk up to the first rung below the target; noise can make acceptance non-monotone,
+            // so the first crossing from the small-step end decides.
+            int k = 1;
+            while (acceptance[k] > target) {
+                k++;
+            }
+            double a0 = acceptance[k - 1];
+            double a1 = acceptance[k];
+            double t = (a0 - target) / (a0 - a1);
+            chosenLog = logFactor[k - 1] + t * (logFactor[k] - logFactor[k - 1]);
+            expected = target;
+        }
+        double next = scale * StrictMath.exp(chosenLog);
+        return new double[] {Math.min(MAX_SCALE, Math.max(MIN_SCALE, next)), expected};
     }
 
     /**

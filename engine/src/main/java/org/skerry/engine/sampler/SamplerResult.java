@@ -15,10 +15,11 @@ import org.skerry.engine.population.FinalParticles;
  * @param evaluations tally of every likelihood evaluation of the run
  * @param particles   the final population
  * @param normalisedWeights normalised weights of the final particles (summing to 1)
+ * @param stepCap     iterations whose adaptive MH step count reached the cap
  */
 public record SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,
         List<IterationRecord> iterations, EvaluationTally evaluations, FinalParticles particles,
-        double[] normalisedWeights) {
+        double[] normalisedWeights, StepCapReport stepCap) {
 
     /** Number of tempering iterations after the initial draw. */
     public int iterationCount() {

@@ -146,6 +146,25 @@ public final class SamplerSettings {
         return targetAcceptance;
     }
 
+    /**
+     * The acceptance rate the random walk is steered towards in {@code dimension} dimensions: the
+     * set value, or when it is automatic (NaN) 0.44 in one dimension (Roberts &amp; Rosenthal 2001,
+     * Statistical Science 16(4)), 0.234 from five dimensions on (Roberts, Gelman &amp; Gilks 1997),
+     * and linear in between (common practice).
+     */
+    public double targetAcceptance(int dimension) {
+        if (!Double.isNaN(targetAcceptance)) {
+            return targetAcceptance;
+        }
+        if (dimension <= 1) {
+            return 0.44;
+        }
+        if (dimension >= 5) {
+            return 0.234;
+        }
+        return 0.44 + (0.234 - 0.44) * (dimension - 1) / 4.0;
+    }
+
     /** The run stops with an error if tempering has not reached 1 after this many iterations. */
     public int maxIterations() {
         return maxIterations;
@@ -196,7 +215,8 @@ public final class SamplerSettings {
     public static final class Builder {
         private int particles = 1000;
         private long seed = 1;
-        private ResamplingScheme resamplingScheme = ResamplingScheme.SYSTEMATIC;
+        // Multinomial: the only scheme the single-run evidence error is calibrated for (EvidenceError).
+        private ResamplingScheme resamplingScheme = ResamplingScheme.MULTINOMIAL;
         private double resampleThreshold = 0.5;
         private boolean resampleEveryIteration;
         private TemperatureRule temperatureRule = new AdaptiveTemperature(AdaptiveTemperature.DEFAULT_TARGET);
@@ -205,7 +225,7 @@ public final class SamplerSettings {
         private double stayProbability = 0.01;
         private int maxSteps = 20;
         private double initialScale = 1.0;
-        private double targetAcceptance = 0.234;
+        private double targetAcceptance = Double.NaN;
         private int maxIterations = 1000;
         private Prior startProposal;
         private int minimumDistinctEves = 20;
@@ -336,8 +356,9 @@ public final class SamplerSettings {
         }
 
         public Builder targetAcceptance(double value) {
-            if (!(value > 0 && value < 1)) {
-                throw new IllegalArgumentException("targetAcceptance must be in (0, 1), was " + value);
+            if (!Double.isNaN(value) && !(value > 0 && value < 1)) {
+                throw new IllegalArgumentException("targetAcceptance must be in (0, 1) or NaN (automatic), was "
+                        + value);
             }
             targetAcceptance = value;
             return this;

@@ -17,6 +17,7 @@ import org.skerry.engine.population.Population;
 import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.population.ResamplingReport;
 import org.skerry.engine.population.TemperingInputs;
+import org.skerry.engine.resample.ResamplingThreshold;
 import org.skerry.engine.temper.TemperatureRule;
 import org.skerry.engine.temper.TemperedTarget;
 import org.skerry.engine.weight.LogWeights;
@@ -295,13 +296,14 @@ public final class SmcSampler {
             boolean resample;
             boolean global;
             if (islands == null) {
-                resample = settings.resampleEveryIteration() || ess < settings.resampleThreshold() * n;
+                resample = settings.resampleEveryIteration() || ResamplingThreshold.reached(ess, n, settings.resampleThreshold());
                 global = true;
             } else {
                 global = (settings.islandInteractionEvery() > 0 && iteration % settings.islandInteractionEvery() == 0)
                         || islands.islandWeightEssFraction(newLogWeight) < settings.islandInteractionThreshold();
                 resample = global || settings.resampleEveryIteration()
-                        || islands.withinIslandEssFraction(newLogWeight) < settings.resampleThreshold();
+                        || ResamplingThreshold.reached(islands.withinIslandEssFraction(newLogWeight), 1.0,
+                                settings.resampleThreshold());
             }
             if (resample) {
                 ResamplingReport report;
@@ -330,19 +332,39 @@ public final class SmcSampler {
             phase = System.nanoTime();
             MoveTally moves;
             int steps;
+            double usedScale = scale;
+            boolean randomWalk = settings.moveKernel() == MoveKernel.RANDOM_WALK;
+            double target = settings.targetAcceptance(model.parameters().dimension());
             if (settings.fixedSteps() > 0) {
                 steps = settings.fixedSteps();
                 moves = population.moveLast(proposal, temperature, iteration, 0, steps);
+                if (randomWalk) {
+                    scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), target);
+                }
+            } else if (randomWalk) {
+                // The pilot step tries four scales at once; the rest of the iteration uses the one
+                // whose acceptance is nearest the target, and its step count follows from it.
+                MoveTally pilot = population.move(proposal.withRungs(MoveAdaptation.ladder()), temperature,
+                        iteration, 0, 1);
+                double[] chosen = MoveAdaptation.scaleFromLadder(scale, pilot.proposedByRung(),
+                        pilot.acceptedByRung(), target);
+                usedScale = chosen[0];
+                steps = MoveAdaptation.steps(chosen[1], settings.stayProbability(), settings.maxSteps());
+                moves = pilot;
+                if (steps > 1) {
+                    Proposal tuned = ProposalFit.fit(settings.moveKernel(), moments, usedScale);
+                    MoveTally rest = population.moveLast(tuned, temperature, iteration, 1, steps - 1);
+                    moves = pilot.plus(rest);
+                    scale = MoveAdaptation.nextScale(usedScale, rest.acceptanceRate(), target);
+                } else {
+                    scale = usedScale;
+                }
             } else {
                 MoveTally pilot = population.move(proposal, temperature, iteration, 0, 1);
                 steps = MoveAdaptation.steps(pilot.acceptanceRate(), settings.stayProbability(), settings.maxSteps());
                 moves = steps > 1 ? pilot.plus(population.moveLast(proposal, temperature, iteration, 1, steps - 1)) : pilot;
             }
             double moveSeconds = seconds(phase);
-            double usedScale = scale;
-            if (settings.moveKernel() == MoveKernel.RANDOM_WALK) {
-                scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), settings.targetAcceptance());
-            }
             EvaluationTally evaluations = moves.evaluations();
             InvalidEvaluationsException.check(settings, iteration, evaluations, model.parameters());
             total = total.followedBy(evaluations);
@@ -362,12 +384,14 @@ public final class SmcSampler {
             double[] weights = new double[n];
             LogWeights.normalise(particles.logWeight(), n, finalLogTotal, weights);
             List<ParameterSummary> summaries = PosteriorSummaries.summarise(particles, weights, model.parameters());
-            EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights, resamplings,
+            EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights,
+                    settings.resamplingScheme(), resamplings,
                     settings.minimumDistinctEves());
             if (islands != null) {
                 evidence = evidence.withIslands(islands.islands(), islands.standardError());
             }
-            return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights);
+            return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights,
+                    StepCapReport.of(records, settings));
         }
     }
 

@@ -97,6 +97,8 @@ public final class SummaryJson {
             }
             json.writeEndObject();
             json.writeNumberField("iterations", result.iterationCount());
+            json.writeNumberField("iterationsAtStepCap", result.stepCap().iterationsAtCap());
+            JsonOutput.text(json, "stepCapWarning", result.stepCap().warning());
             EvaluationTally tally = result.evaluations();
             json.writeNumberField("likelihoodEvaluations", tally.evaluations());
             json.writeNumberField("zeroLikelihoodEvaluations", tally.zeroLikelihood());

@@ -199,7 +199,14 @@ public final class RunSpec {
         b.stayProbability(r.getDouble("sampler.moves.stay-probability", 0, false, 1, false));
         b.maxSteps(r.getInt("sampler.moves.max-steps", 1, 65535));
         b.initialScale(r.getDouble("sampler.moves.initial-scale", 0, false, 100, true));
-        b.targetAcceptance(r.getDouble("sampler.moves.target-acceptance", 0, false, 1, false));
+        ConfigValue target = r.config().getValue("sampler.moves.target-acceptance");
+        if (target.valueType() == ConfigValueType.NUMBER) {
+            b.targetAcceptance(r.getDouble("sampler.moves.target-acceptance", 0, false, 1, false));
+        } else if ("auto".equals(target.unwrapped())) {
+            b.targetAcceptance(Double.NaN);
+        } else {
+            throw r.error("sampler.moves.target-acceptance", "must be \"auto\" or a number in (0, 1)");
+        }
         try {
             return b.build();
         } catch (IllegalArgumentException e) {

@@ -132,7 +132,8 @@ class SummaryJsonTest {
         SamplerResult result = new SamplerResult(
                 new EvidenceEstimate(-3.25, Double.NaN, Double.NaN, 1, false, "only 1 distinct ancestor", 0, Double.NaN),
                 List.of(new ParameterSummary("x", 1.0, 0.5, 0.5, 0.5, 0.5, 0.5, 1.5, 1.5, Double.POSITIVE_INFINITY)),
-                List.of(), EvaluationTally.NONE, particles, new double[] {0.5, 0.5});
+                List.of(), EvaluationTally.NONE, particles, new double[] {0.5, 0.5},
+                new org.skerry.engine.sampler.StepCapReport(0, 0, 20));
         Path file = SummaryJson.write(folder, "m", -1, result);
         Map<String, Object> json = JsonTree.read(file);
         assertTrue(json.containsKey("logEvidenceError"));

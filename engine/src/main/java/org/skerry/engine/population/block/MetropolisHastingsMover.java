@@ -71,6 +71,9 @@ public final class MetropolisHastingsMover {
         double[] scratch = new double[d];
         RandomStream random = new RandomStream(seed, StreamPurpose.MOVE_PROPOSAL, iteration, 0, 0);
 
+        int rungs = proposal.rungs();
+        long[] proposedByRung = rungs > 1 ? new long[rungs] : null;
+        long[] acceptedByRung = rungs > 1 ? new long[rungs] : null;
         long proposed = 0;
         long accepted = 0;
         long outsidePrior = 0;
@@ -83,7 +86,11 @@ public final class MetropolisHastingsMover {
                 proposed++;
                 System.arraycopy(z, i * d, zi, 0, d);
                 random.reset(seed, StreamPurpose.MOVE_PROPOSAL, iteration, index[i], step);
-                proposal.propose(zi, random, noise, zNew);
+                int rung = proposal.rungOf(index[i]);
+                if (proposedByRung != null) {
+                    proposedByRung[rung]++;
+                }
+                proposal.propose(zi, random, noise, zNew, rung);
                 System.arraycopy(zNew, 0, candidateZ, i * d, d);
                 candidateJacobian[i] = space.fromUnconstrained(zNew, x);
                 System.arraycopy(x, 0, candidateX, i * d, d);
@@ -116,6 +123,9 @@ public final class MetropolisHastingsMover {
                 double u = random.nextOpenDouble();
                 if (target > Double.NEGATIVE_INFINITY && StrictMath.log(u) < logRatio) {
                     accepted++;
+                    if (acceptedByRung != null) {
+                        acceptedByRung[proposal.rungOf(index[i])]++;
+                    }
                     System.arraycopy(candidateZ, i * d, z, i * d, d);
                     System.arraycopy(candidateX, i * d, values, i * d, d);
                     logPrior[i] = candidatePrior[i];
@@ -124,6 +134,7 @@ public final class MetropolisHastingsMover {
                 }
             }
         }
-        return new MoveTally(proposed, accepted, outsidePrior, evaluator.drainTally());
+        return new MoveTally(proposed, accepted, outsidePrior, evaluator.drainTally(), proposedByRung,
+                acceptedByRung);
     }
 }

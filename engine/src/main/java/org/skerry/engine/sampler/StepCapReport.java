@@ -1,0 +1,45 @@
+package org.skerry.engine.sampler;
+
+import java.util.List;
+
+/**
+ * How many iterations' adaptive Metropolis–Hastings step count reached the cap
+ * ({@code sampler.moves.max-steps}). At the cap the stay rule is not met: more particles than the
+ * chosen stay probability were never moved in that iteration, so the population may not have
+ * mixed and both the posterior and the evidence can carry the prior's or the last target's
+ * shape. A run with fixed steps never reports any.
+ *
+ * @param iterationsAtCap tempering iterations whose step count equals the cap
+ * @param iterations      tempering iterations of the run (the initial draw not counted)
+ * @param maxSteps        the cap; 0 when the steps were fixed
+ */
+public record StepCapReport(int iterationsAtCap, int iterations, int maxSteps) {
+
+    /** Counts the iterations of {@code records} at the cap of {@code settings}. */
+    public static StepCapReport of(List<IterationRecord> records, SamplerSettings settings) {
+        int iterations = 0;
+        int atCap = 0;
+        boolean adaptive = settings.fixedSteps() == 0;
+        for (IterationRecord record : records) {
+            if (record.iteration() == 0) {
+                continue;
+            }
+            iterations++;
+            if (adaptive && record.mhSteps() >= settings.maxSteps()) {
+                atCap++;
+            }
+        }
+        return new StepCapReport(atCap, iterations, adaptive ? settings.maxSteps() : 0);
+    }
+
+    /** A line for the user when any iteration reached the cap, naming the setting to change; null otherwise. */
+    public String warning() {
+        if (iterationsAtCap == 0) {
+            return null;
+        }
+        return iterationsAtCap + " of " + iterations + " iterations made the maximum of " + maxSteps
+                + " Metropolis-Hastings steps: there the moves accepted too little for most particles to move,"
+                + " and the posterior and evidence may be off. Raise sampler.moves.max-steps (cost grows with it),"
+                + " use more particles, or reparameterise the model; see \"Reading the diagnostics\" in the README";
+    }
+}
