@@ -72,6 +72,9 @@ final class BatchCommand implements Callable<Integer> {
         if (Double.isNaN(value)) {
             return "-";
         }
+        if (Double.isNaN(error)) {
+            return String.format(Locale.ROOT, "%.3f (error unreliable)", value);
+        }
         return String.format(Locale.ROOT, "%.3f ± %.3f", value, error);
     }
 }

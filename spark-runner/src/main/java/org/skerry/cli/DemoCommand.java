@@ -70,14 +70,21 @@ final class DemoCommand implements Callable<Integer> {
         double logBayes = second.logEvidence() - first.logEvidence();
         double error = Math.sqrt(first.standardError() * first.standardError()
                 + second.standardError() * second.standardError());
-        stdout.println(String.format(Locale.ROOT, "log evidence, saturating grazing: %10.3f ± %.3f",
-                first.logEvidence(), first.standardError()));
-        stdout.println(String.format(Locale.ROOT, "log evidence, sigmoidal grazing:  %10.3f ± %.3f",
-                second.logEvidence(), second.standardError()));
-        stdout.println(String.format(Locale.ROOT, "log Bayes factor, sigmoidal vs saturating: %.3f ± %.3f", logBayes, error));
+        stdout.println("log evidence, saturating grazing: " + withError(first.logEvidence(), first.standardError(),
+                first.reliable()));
+        stdout.println("log evidence, sigmoidal grazing:  " + withError(second.logEvidence(), second.standardError(),
+                second.reliable()));
+        stdout.println("log Bayes factor, sigmoidal vs saturating: " + withError(logBayes, error,
+                first.reliable() && second.reliable()));
         stdout.println("Errors are single-run estimates; before a decision rests on the comparison, re-run with other"
                 + " seeds and more particles and check that the Bayes factor is stable (see README).");
         stdout.flush();
         return ExitCodes.SUCCESS;
+    }
+
+    /** A value with its error, or a note that the error cannot be trusted: never a misleading ± figure. */
+    private static String withError(double value, double error, boolean reliable) {
+        return reliable ? String.format(Locale.ROOT, "%10.3f ± %.3f", value, error)
+                : String.format(Locale.ROOT, "%10.3f (single-run error unreliable: see the warning above)", value);
     }
 }

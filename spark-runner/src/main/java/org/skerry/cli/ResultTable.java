@@ -16,10 +16,15 @@ final class ResultTable {
         SamplerResult result = outcome.result();
         EvidenceEstimate evidence = result.evidence();
         out.println("run folder: " + outcome.folder());
-        out.println(String.format(Locale.ROOT, "log evidence: %.4f ± %.4f (single-run estimate)%s",
-                evidence.logEvidence(), evidence.standardError(), evidence.reliable() ? "" : "  [unreliable]"));
-        if (!evidence.reliable()) {
+        if (evidence.reliable()) {
+            out.println(String.format(Locale.ROOT, "log evidence: %.4f ± %.4f (single-run estimate)",
+                    evidence.logEvidence(), evidence.standardError()));
+        } else {
+            out.println(String.format(Locale.ROOT, "log evidence: %.4f, no trustworthy single-run error", evidence.logEvidence()));
             out.println("  warning: " + evidence.warning());
+        }
+        if (result.stepCap().warning() != null) {
+            out.println("  warning: " + result.stepCap().warning());
         }
         out.println(String.format(Locale.ROOT, "iterations: %d, likelihood evaluations: %d, invalid: %d, wall time: %.1f s",
                 result.iterationCount(), result.evaluations().evaluations(), result.evaluations().invalid(),

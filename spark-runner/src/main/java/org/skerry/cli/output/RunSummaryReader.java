@@ -32,6 +32,7 @@ public final class RunSummaryReader {
         Path file = folder.resolve(SummaryJson.FILE_NAME);
         double logEvidence = Double.NaN;
         double error = Double.NaN;
+        boolean reliable = true;
         int iterations = -1;
         long evaluations = -1;
         Map<String, double[]> parameters = new LinkedHashMap<>();
@@ -43,6 +44,7 @@ public final class RunSummaryReader {
                 switch (field) {
                     case "logEvidence" -> logEvidence = number(p);
                     case "logEvidenceError" -> error = number(p);
+                    case "logEvidenceErrorReliable" -> reliable = p.getBooleanValue();
                     case "iterations" -> iterations = p.getIntValue();
                     case "likelihoodEvaluations" -> evaluations = p.getLongValue();
                     case "parameters" -> readParameters(p, parameters);
@@ -50,7 +52,8 @@ public final class RunSummaryReader {
                 }
             }
         }
-        return new RunSummary(logEvidence, error, iterations, evaluations, parameters);
+        // An error the run itself marks unreliable is not shown as a figure in batch tables.
+        return new RunSummary(logEvidence, reliable ? error : Double.NaN, iterations, evaluations, parameters);
     }
 
     /** The wall time in {@code timing.json} of {@code folder}, or NaN when it is missing or unreadable. */
