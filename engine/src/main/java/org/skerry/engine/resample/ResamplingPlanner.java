@@ -205,30 +205,33 @@ public final class ResamplingPlanner {
         return low;
     }
 
-    /** Two passes over the spacings: their total, then each block's first point and running sum. */
+    /**
+     * One pass over the spacings keeps their running sums; the total and each block's first point
+     * and running sum come from those. The running sum to point {@code k} is the same chain of
+     * additions the total starts with, so both are the doubles the blocks compute.
+     */
     private static double multinomialStarts(RandomStream stream, long seed, int iteration, BlockLayout layout,
             long[] before, int m, long total, int[] firstPoint, double[] sumBefore) {
+        double[] running = new double[m + 1];
         double sumAll = 0;
         for (int j = 0; j <= m; j++) {
             sumAll += PointPositions.spacing(stream, seed, iteration, j);
+            running[j] = sumAll;
         }
         int blocks = layout.blockCount();
         int position = 0;
-        double sum = 0;
         for (int k = 0; k < m && position < blocks; k++) {
-            double next = sum + PointPositions.spacing(stream, seed, iteration, k);
-            long y = PointPositions.multinomial(next, sumAll, total);
+            long y = PointPositions.multinomial(running[k], sumAll, total);
             while (position < blocks && before[layout.blockAt(position)] <= y) {
                 int b = layout.blockAt(position++);
                 firstPoint[b] = k;
-                sumBefore[b] = sum;
+                sumBefore[b] = k == 0 ? 0.0 : running[k - 1];
             }
-            sum = next;
         }
         while (position < blocks) {
             int b = layout.blockAt(position++);
             firstPoint[b] = m;
-            sumBefore[b] = sum;
+            sumBefore[b] = m == 0 ? 0.0 : running[m - 1];
         }
         return sumAll;
     }
