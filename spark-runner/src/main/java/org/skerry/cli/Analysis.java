@@ -21,6 +21,7 @@ import org.skerry.cli.runfile.ModelBuilder;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.runfile.SparkMasters;
 import org.skerry.cli.stop.StopRules;
 import org.skerry.cli.stop.TerminationSignal;
 import org.skerry.engine.sampler.Checkpointer;
@@ -76,9 +77,49 @@ public final class Analysis {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder : spec.outputFolder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
+        Path created = firstMissing(runFolder);
         prepare(runFolder);
-        RunOutputs.writeSettings(runFolder, forRunFolder(spec).render());
-        return execute(spec, built, runFolder, started, progressOut, false, observer);
+        try {
+            RunOutputs.writeSettings(runFolder, forRunFolder(spec).render());
+            return execute(spec, built, runFolder, started, progressOut, false, observer);
+        } catch (RunFileException e) {
+            // Bad input found only now (an unreachable master, a model class missing on the
+            // executors): nothing ran, so nothing of this run is left behind.
+            removeUnstarted(spec, runFolder, created);
+            throw e;
+        }
+    }
+
+    /** The outermost folder of {@code folder}'s path that does not exist yet, or null if it exists. */
+    private static Path firstMissing(Path folder) {
+        Path missing = null;
+        for (Path p = folder.toAbsolutePath().normalize(); p != null && !Files.exists(p); p = p.getParent()) {
+            missing = p;
+        }
+        return missing;
+    }
+
+    /**
+     * Removes what a fresh run that failed on bad input wrote — the run folder if it made it,
+     * else the folder's content (it was empty) — unless a checkpoint was written, which a resume
+     * could use.
+     */
+    private static void removeUnstarted(RunSpec spec, Path runFolder, Path created) {
+        try {
+            if (!new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep()).list().isEmpty()) {
+                return;
+            }
+        } catch (IOException | RuntimeException e) {
+            // none could be listed, so none can be resumed from
+        }
+        Path top = created != null ? created : runFolder.toAbsolutePath().normalize();
+        try (Stream<Path> paths = Files.walk(top)) {
+            paths.sorted(java.util.Comparator.reverseOrder())
+                    .filter(p -> created != null || !p.equals(top))
+                    .forEach(p -> p.toFile().delete());
+        } catch (IOException | java.io.UncheckedIOException e) {
+            // best effort: the message already says what went wrong
+        }
     }
 
     /**
@@ -109,6 +150,25 @@ public final class Analysis {
         } catch (java.io.IOException e) {
             throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot list the checkpoints in " + checkpoints.files().root()
                     + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * Checks {@code overrides} for the finished run in {@code runFolder} as a resume would (known
+     * keys, valid values, nothing that changes the answer), though there is nothing left to run.
+     *
+     * @throws RunFileException if an override is bad input or would change the answer
+     */
+    public static void checkFinishedResume(Path runFolder, List<String> overrides) {
+        RunSpec now = savedSpec(runFolder, overrides);
+        if (overrides.isEmpty()) {
+            return;
+        }
+        RunSpec saved = savedSpec(runFolder, List.of());
+        List<String> differences = AnswerSettings.differences(AnswerSettings.of(saved), AnswerSettings.of(now));
+        if (!differences.isEmpty()) {
+            throw new RunFileException("the run in " + runFolder + " has finished, and these settings would change "
+                    + "its answer: " + String.join("; ", differences) + " (start a new run for that)");
         }
     }
 
@@ -241,6 +301,14 @@ public final class Analysis {
             throw new RunFileException(e.getMessage(), e);
         } catch (NoUsableCheckpointException e) {
             throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
+        } catch (Exception e) {
+            // Spark's job failures are checked exceptions thrown through Scala: a model class
+            // missing on the executors is bad input (its jar is not in backend.jars).
+            String missing = SparkFailures.missingModelClass(e);
+            if (missing != null) {
+                throw new RunFileException(missing, e);
+            }
+            throw e;
         }
         double wall = (System.nanoTime() - start) * 1e-9;
         try {
@@ -266,8 +334,7 @@ public final class Analysis {
             return;
         }
         JavaSparkContext context = ((SparkBackend) backend).context();
-        String master = context.master();
-        if (master.startsWith("local[") || master.equals("local")) {
+        if (SparkMasters.isInProcess(context.master())) {
             return;
         }
         try {

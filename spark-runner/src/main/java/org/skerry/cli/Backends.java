@@ -14,6 +14,7 @@ import java.util.Map;
 import java.util.stream.Stream;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.runfile.SparkMasters;
 import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
 import org.skerry.spark.SparkBackend;
@@ -77,7 +78,7 @@ public final class Backends {
         settings.put("spark.local.dir", scratch.toAbsolutePath().toString());
         List<String> jars = new ArrayList<>(shippedJars());
         jars.addAll(spec.jars());
-        if (master.startsWith("local")) {
+        if (SparkMasters.isInProcess(master)) {
             // Everything stays in this process: bind to loopback rather than the first interface.
             settings.put("spark.driver.host", "127.0.0.1");
             settings.put("spark.driver.bindAddress", "127.0.0.1");
@@ -91,7 +92,8 @@ public final class Backends {
             return new Opened(SparkBackend.start(master, "skerry " + spec.name(), spec.partitions(), settings), scratch);
         } catch (IOException e) {
             throw new RunFileException("cannot create Spark's scratch folder " + scratch + ": " + e, e);
-        } catch (RuntimeException e) {
+        } catch (Exception e) {
+            // SparkException is a checked exception Scala throws unchecked: catch it here too.
             deleteQuietly(scratch);
             throw new RunFileException("cannot start Spark with master " + master + ": " + e.getMessage(), e);
         }

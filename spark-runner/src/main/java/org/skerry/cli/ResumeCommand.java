@@ -37,13 +37,15 @@ final class ResumeCommand implements Callable<Integer> {
     @Override
     public Integer call() {
         PrintWriter stdout = spec.commandLine().getOut();
+        List<String> all = new ArrayList<>(overrides);
+        where.addTo(all);
         if (Analysis.finished(folder)) {
+            // The overrides are checked as for any resume, so a mistake in them is not passed over in silence.
+            Analysis.checkFinishedResume(folder, all);
             stdout.println("the run in " + folder + " has finished; its results are in summary.json (nothing to resume)");
             stdout.flush();
             return ExitCodes.SUCCESS;
         }
-        List<String> all = new ArrayList<>(overrides);
-        where.addTo(all);
         Analysis.Outcome outcome = Analysis.resume(folder, all, spec.commandLine().getErr());
         ResultTable.print(outcome, stdout);
         stdout.flush();

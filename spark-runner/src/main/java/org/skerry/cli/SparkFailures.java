@@ -10,13 +10,38 @@ public final class SparkFailures {
     private SparkFailures() {
     }
 
-    /** A plain explanation, or null when the failure is not one of the known kinds. */
-    public static String explain(Throwable failure) {
+    private static final String MISSING_CLASS = org.skerry.spark.ModelClassMissingException.class.getName() + ": ";
+
+    /**
+     * The message of a model class missing on an executor (its jar not listed in
+     * {@code backend.jars}), which is bad input, or null when {@code failure} is something else.
+     */
+    public static String missingModelClass(Throwable failure) {
+        String all = chain(failure);
+        int at = all.indexOf(MISSING_CLASS);
+        if (at < 0) {
+            return null;
+        }
+        int start = at + MISSING_CLASS.length();
+        int end = all.indexOf('\n', start);
+        return all.substring(start, end < 0 ? all.length() : end);
+    }
+
+    private static String chain(Throwable failure) {
         StringBuilder text = new StringBuilder();
         for (Throwable t = failure; t != null; t = t.getCause()) {
             text.append(t.getClass().getName()).append(": ").append(t.getMessage()).append('\n');
         }
-        String all = text.toString();
+        return text.toString();
+    }
+
+    /** A plain explanation, or null when the failure is not one of the known kinds. */
+    public static String explain(Throwable failure) {
+        String missing = missingModelClass(failure);
+        if (missing != null) {
+            return missing;
+        }
+        String all = chain(failure);
         int model = all.indexOf("cannot build the model on executor");
         if (model >= 0) {
             int end = all.indexOf('\n', model);

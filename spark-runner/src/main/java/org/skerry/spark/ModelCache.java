@@ -20,11 +20,35 @@ final class ModelCache {
             try {
                 return source.create();
             } catch (RuntimeException | LinkageError e) {
-                throw new IllegalStateException("cannot build the model on executor "
-                        + org.apache.spark.SparkEnv.get().executorId() + ": " + e.getMessage()
-                        + " — if a model class is missing there, ship its jar with backend.jars = [\"/path/model.jar\"]"
-                        + " in the run file (or spark-submit --jars)", e);
+                throw failure(e, org.apache.spark.SparkEnv.get().executorId());
             }
         });
+    }
+
+    /**
+     * What a task reports when the model cannot be built on executor {@code executorId}: a class
+     * missing there (its jar not shipped) as a {@link ModelClassMissingException}, which carries
+     * no stack trace, since Spark logs every failed task's trace and the trace says nothing the
+     * message does not; anything else with its cause.
+     */
+    static RuntimeException failure(Throwable e, String executorId) {
+        String missing = missingClass(e);
+        if (missing != null) {
+            return new ModelClassMissingException("cannot build the model on executor " + executorId + ": class "
+                    + missing + " is not on its class path; list the jar that holds it (your model's jar) in the run "
+                    + "file's backend.jars = [\"/path/model.jar\"], as well as on SKERRY_CLASSPATH for the driver");
+        }
+        return new IllegalStateException("cannot build the model on executor " + executorId + ": " + e.getMessage(), e);
+    }
+
+    /** The name of the class whose absence caused {@code e}, or null. */
+    private static String missingClass(Throwable e) {
+        for (Throwable t = e; t != null; t = t.getCause()) {
+            if (t instanceof ClassNotFoundException || t instanceof NoClassDefFoundError) {
+                String name = String.valueOf(t.getMessage()).replace('/', '.');
+                return "'" + name + "'";
+            }
+        }
+        return null;
     }
 }

@@ -201,7 +201,7 @@ class BadInputTest {
     }
 
     @Test
-    @DisplayName("an unreachable Spark master: a clear error within the connect timeout, never a hang")
+    @DisplayName("an unreachable Spark master: a clear error within the connect timeout, never a hang, nothing left")
     void unreachableMaster() throws IOException {
         goodData();
         int port;
@@ -216,5 +216,6 @@ class BadInputTest {
         assertEquals(ExitCodes.BAD_INPUT, result.exitCode(), result.err());
         assertTrue(result.err().contains("cannot reach the Spark master spark://127.0.0.1:" + port), result.err());
         assertTrue(seconds < 10, "gave up after " + seconds + " s");
+        assertFalse(Files.exists(folder.resolve("out")), "no run folder, run.conf or .spark-scratch/ left");
     }
 }

@@ -24,7 +24,8 @@ import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVRecord;
 
 /**
- * Reads a numeric data file: UTF-8, comma-separated, RFC 4180 quoting. Lines starting with
+ * Reads a numeric data file: UTF-8, comma-separated, RFC 4180 quoting (a row that does not read
+ * in a file that looks separated by semicolons or tabs gets a hint saying so). Lines starting with
  * {@code #} are comments and blank lines are skipped, anywhere; the first other line is the
  * header of column names; every later line is a row with one number per column. Values and
  * names are trimmed. Numbers are decimal ({@code 12}, {@code -0.5}, {@code 1.5e-3}); nothing else
@@ -208,6 +209,28 @@ public final class CsvDataReader {
         }
 
         private double[] row(CSVRecord record, int line, List<String> header) {
+            try {
+                return values(record, line, header);
+            } catch (DataException e) {
+                List<String> seen = new ArrayList<>(header);
+                seen.addAll(record.toList());
+                String hint = separatorHint(seen);
+                throw hint == null ? e : e.withHint(hint);
+            }
+        }
+
+        /**
+         * Why a row might not read: the file looks separated by semicolons or tabs (as spreadsheets
+         * set to a decimal comma write it), or null when it does not.
+         */
+        private static String separatorHint(List<String> values) {
+            String separator = values.stream().anyMatch(v -> v.contains(";")) ? "semicolons (;)"
+                    : values.stream().anyMatch(v -> v.contains("\t")) ? "tabs" : null;
+            return separator == null ? null : "; the file looks separated by " + separator + ", but skerry reads "
+                    + "comma-separated values: save it as CSV with commas between values and decimal points";
+        }
+
+        private double[] values(CSVRecord record, int line, List<String> header) {
             if (record.size() != header.size()) {
                 throw new DataException(source, line, null, "expected " + header.size() + " fields "
                         + DataTable.listed(header) + ", found " + record.size());

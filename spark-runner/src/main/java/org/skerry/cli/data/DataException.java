@@ -35,6 +35,11 @@ public final class DataException extends RuntimeException {
         this.column = column;
     }
 
+    /** The same problem with {@code more} added to its message (a hint at the likely cause). */
+    public DataException withHint(String more) {
+        return new DataException(getMessage() + more, source, line, column, getCause());
+    }
+
     /** The file {@code file} cannot be read at all: {@code cannot read data file <file>: <reason>}. */
     public static DataException unreadable(String file, String reason, Throwable cause) {
         return new DataException("cannot read data file " + file + ": " + reason, file, -1, null, cause);

@@ -48,6 +48,24 @@ public final class AnswerSettings {
         return settings;
     }
 
+    /**
+     * Each setting whose value differs between {@code saved} and {@code now}, as
+     * "key was X, now Y" ("unset" for a missing one), in key order; empty when they agree.
+     */
+    public static List<String> differences(Map<String, String> saved, Map<String, String> now) {
+        java.util.TreeSet<String> keys = new java.util.TreeSet<>(saved.keySet());
+        keys.addAll(now.keySet());
+        List<String> out = new java.util.ArrayList<>();
+        for (String key : keys) {
+            String before = saved.get(key);
+            String after = now.get(key);
+            if (!java.util.Objects.equals(before, after)) {
+                out.add(key + " was " + (before == null ? "unset" : before) + ", now " + (after == null ? "unset" : after));
+            }
+        }
+        return out;
+    }
+
     /** Whether {@code key} only says how or where a run goes, never what it answers. */
     public static boolean isNeutral(String key) {
         for (String prefix : NEUTRAL) {

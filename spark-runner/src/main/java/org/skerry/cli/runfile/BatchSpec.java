@@ -83,7 +83,7 @@ public final class BatchSpec {
         this.variants = variants(r);
         Config common = objectAt(r, "settings");
         refuseBatchKeys(common, "settings", false);
-        this.seed = r.getLong("seed");
+        this.seed = r.getSeed("seed");
         this.concurrent = r.getInt("concurrent", 1, 1024);
         String folderName = r.getString("folder");
         if (folderOverride == null && (folderName == null || folderName.isBlank())) {
@@ -169,8 +169,17 @@ public final class BatchSpec {
             }
         } else {
             key = "datasets.files";
-            for (String name : files) {
-                paths.add(home.resolve(name).normalize());
+            List<? extends ConfigValue> listed = r.config().getList(key);
+            for (int i = 0; i < files.size(); i++) {
+                Path path = home.resolve(files.get(i)).normalize();
+                // Checked now, so that a missing file is bad input before anything runs, not a
+                // failed analysis at the end of a long batch.
+                if (!Files.isRegularFile(path) || !Files.isReadable(path)) {
+                    throw new RunFileException(RunFile.describe(listed.get(i).origin()) + ": " + key + "[" + i + "] = "
+                            + listed.get(i).render() + ": " + (Files.isDirectory(path) ? "is a folder, not a data file "
+                                    : Files.exists(path) ? "cannot read the data file " : "no such data file ") + path);
+                }
+                paths.add(path);
             }
         }
         List<Dataset> out = new ArrayList<>();

@@ -26,12 +26,16 @@ public final class ConfigModelSettings implements ModelSettings {
     private final String prefix;
     private final Map<String, double[]> columns;
     private final String dataSource;
+    /** The roles whose column the model read, shared with the views {@link #at} makes. */
+    private final Set<String> read;
 
-    private ConfigModelSettings(Config config, String prefix, Map<String, double[]> columns, String dataSource) {
+    private ConfigModelSettings(Config config, String prefix, Map<String, double[]> columns, String dataSource,
+            Set<String> read) {
         this.config = config;
         this.prefix = prefix;
         this.columns = columns;
         this.dataSource = dataSource;
+        this.read = read;
     }
 
     /**
@@ -40,7 +44,8 @@ public final class ConfigModelSettings implements ModelSettings {
      * @param dataSource where the data came from, for messages
      */
     public static ConfigModelSettings of(Config settings, Map<String, double[]> columns, String dataSource) {
-        return new ConfigModelSettings(settings, "model.settings.", new LinkedHashMap<>(columns), dataSource);
+        return new ConfigModelSettings(settings, "model.settings.", new LinkedHashMap<>(columns), dataSource,
+                java.util.Collections.synchronizedSet(new LinkedHashSet<>()));
     }
 
     /** Settings without data. */
@@ -85,11 +90,15 @@ public final class ConfigModelSettings implements ModelSettings {
         if (!config.hasPath(key)) {
             throw missing(key);
         }
-        try {
-            return config.getInt(key);
-        } catch (ConfigException.WrongType e) {
+        java.math.BigDecimal value = TypedReader.wholeNumber(config.getValue(key));
+        if (value == null) {
             throw error(key, "expected a whole number");
         }
+        if (value.compareTo(java.math.BigDecimal.valueOf(Integer.MIN_VALUE)) < 0
+                || value.compareTo(java.math.BigDecimal.valueOf(Integer.MAX_VALUE)) > 0) {
+            throw error(key, "must be between " + Integer.MIN_VALUE + " and " + Integer.MAX_VALUE);
+        }
+        return value.intValueExact();
     }
 
     @Override
@@ -163,7 +172,7 @@ public final class ConfigModelSettings implements ModelSettings {
         } catch (ConfigException.WrongType e) {
             throw error(key, "expected an object { … }");
         }
-        return new ConfigModelSettings(child, prefix + key + ".", columns, dataSource);
+        return new ConfigModelSettings(child, prefix + key + ".", columns, dataSource, read);
     }
 
     @Override
@@ -187,9 +196,19 @@ public final class ConfigModelSettings implements ModelSettings {
         return columns.containsKey(role);
     }
 
+    /** The roles whose data column the model has read so far ({@link #column}), in order. */
+    public Set<String> rolesRead() {
+        synchronized (read) {
+            return Set.copyOf(new ArrayList<>(read));
+        }
+    }
+
     @Override
     public double[] column(String role) {
         double[] column = columns.get(role);
+        if (column != null) {
+            read.add(role);
+        }
         if (column == null) {
             throw new IllegalArgumentException("the model needs data for role '" + role + "', but " + dataSource
                     + " binds only " + columns.keySet() + " (bind a column with data.columns." + role + " = \"name\")");

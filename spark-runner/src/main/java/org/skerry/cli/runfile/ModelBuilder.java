@@ -47,13 +47,37 @@ public final class ModelBuilder {
         RunModelSource source = new RunModelSource(spec.modelName(), spec.modelClass(), spec.modelSettings(), columns,
                 dataSource);
         Model model;
+        ConfigModelSettings settings = ConfigModelSettings.of(spec.modelSettings(), columns, dataSource);
         try {
-            model = create(spec.modelName(), spec.modelClass(),
-                    ConfigModelSettings.of(spec.modelSettings(), columns, dataSource), where(spec, "model"));
+            model = create(spec.modelName(), spec.modelClass(), settings, where(spec, "model.class"));
         } catch (IllegalArgumentException e) {
-            throw new RunFileException("model " + spec.modelLabel() + ": " + e.getMessage(), e);
+            // A setting the run file leaves out is located in the jar's reference.conf, which the
+            // user never wrote: name the run file instead.
+            String message = String.valueOf(e.getMessage()).replaceFirst("^reference\\.conf(: line \\d+)?: ",
+                    java.util.regex.Matcher.quoteReplacement(RunFile.shorten(spec.file().path()) + ": "));
+            throw new RunFileException("model " + spec.modelLabel() + ": " + message, e);
         }
+        checkBindingsRead(spec, settings.rolesRead());
         return new Built(model, data, source);
+    }
+
+    /**
+     * Refuses a {@code data.columns} binding whose role the model never read: a misspelt role
+     * would otherwise leave the column unused while the model reads another (or none).
+     */
+    private static void checkBindingsRead(RunSpec spec, java.util.Set<String> read) {
+        for (Map.Entry<String, String> binding : spec.columnBindings().entrySet()) {
+            String role = binding.getKey();
+            if (read.contains(role)) {
+                continue;
+            }
+            String closest = KeySuggestion.closest(role, read);
+            throw new RunFileException(where(spec, "data.columns." + role) + ": data.columns." + role + " = \""
+                    + binding.getValue() + "\": model " + spec.modelLabel() + " reads no data role '" + role + "'"
+                    + (closest == null ? "" : " — did you mean '" + closest + "'?")
+                    + (read.isEmpty() ? " (it reads no data" : " (the roles it read: " + String.join(", ", read))
+                    + (spec.modelName() != null ? "; `skerry models` lists each model's roles)" : ")"));
+        }
     }
 
     /** Creates the model from a built-in name or a class name; the same code runs on executors. */
@@ -193,8 +217,11 @@ public final class ModelBuilder {
         try {
             type = Class.forName(className, true, Thread.currentThread().getContextClassLoader());
         } catch (ClassNotFoundException | LinkageError e) {
-            throw new RunFileException(where + ": model class '" + className
-                    + "' not found on the classpath (add its jar with the launcher's --classpath or CLASSPATH)");
+            throw new RunFileException(where + ": model.class = \"" + className + "\": "
+                    + (e instanceof ClassNotFoundException ? "class not found on the classpath"
+                            : "the class cannot be loaded (" + e + ")")
+                    + "; put its jar on SKERRY_CLASSPATH (SKERRY_CLASSPATH=/path/model.jar bin/skerry …) and, for "
+                    + "executors of their own (a cluster, local-cluster), also list it in backend.jars", e);
         }
         try {
             if (ModelFactory.class.isAssignableFrom(type)) {

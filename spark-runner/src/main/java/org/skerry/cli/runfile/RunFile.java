@@ -67,20 +67,114 @@ public final class RunFile {
         }
     }
 
-    /** Parses a HOCON file the user wrote ({@code what}: "run file", "batch file"), errors located. */
-    static Config parse(Path path, String what) {
+    /**
+     * Parses a HOCON file the user wrote ({@code what}: "run file", "batch file"), errors located.
+     * Every file it includes must exist ({@link RequiredIncluder}), read from the including
+     * file's folder.
+     */
+    public static Config parse(Path path, String what) {
+        if (Files.isDirectory(path)) {
+            throw new RunFileException("cannot read " + what + " " + path + ": it is a folder, not a file");
+        }
         if (!Files.isRegularFile(path)) {
             throw new RunFileException("cannot read " + what + " " + path + ": no such file");
         }
         if (!Files.isReadable(path)) {
             throw new RunFileException("cannot read " + what + " " + path + ": permission denied");
         }
+        Path absolute = path.toAbsolutePath().normalize();
         try {
-            return ConfigFactory.parseFile(path.toFile(),
-                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
+            return ConfigFactory.parseFile(absolute.toFile(), RequiredIncluder.options(absolute, ConfigSyntax.CONF));
         } catch (ConfigException e) {
-            throw new RunFileException(located(e), e);
+            throw new RunFileException(syntaxError(e), e);
         }
+    }
+
+    private static final String CLOSE_PARENTHESIS = "expecting a close parentheses ')' here, not: ";
+
+    /**
+     * A parse error, located. Typesafe Config reports a missing '}' as "expecting a close
+     * parentheses ')'" (the text of its include parser, reused where a key is expected): say
+     * what is really missing, and which '{' is still open at the end of the file.
+     */
+    private static String syntaxError(ConfigException e) {
+        String message = located(e);
+        int at = message.indexOf(CLOSE_PARENTHESIS);
+        if (at < 0 || e.origin() == null || e.origin().filename() == null) {
+            return message;
+        }
+        Path file = Path.of(e.origin().filename());
+        List<String> lines;
+        try {
+            lines = Files.readAllLines(file);
+        } catch (java.io.IOException | RuntimeException unreadable) {
+            return message;
+        }
+        int line = e.origin().lineNumber();
+        if (line >= 1 && line <= lines.size() && lines.get(line - 1).contains("include")) {
+            return message; // a real include(…) missing its ')'
+        }
+        String found = message.substring(at + CLOSE_PARENTHESIS.length());
+        String prefix = message.substring(0, at);
+        if (found.startsWith("end of file")) {
+            int open = unclosedBrace(String.join("\n", lines));
+            if (open > 0) {
+                return shorten(file) + ": line " + open + ": this '{' is never closed: the file ends (line " + line
+                        + ") before its '}'";
+            }
+            return prefix + "a '{' is not closed: expecting '}' before the end of the file";
+        }
+        return prefix + "expecting a key or a closing brace '}' here, not: " + found;
+    }
+
+    /**
+     * The line of the innermost '{' still open at the end of {@code text}, skipping strings and
+     * comments, or -1 when every brace is closed.
+     */
+    static int unclosedBrace(String text) {
+        java.util.ArrayDeque<Integer> open = new java.util.ArrayDeque<>();
+        int line = 1;
+        int i = 0;
+        while (i < text.length()) {
+            char c = text.charAt(i);
+            if (c == '\n') {
+                line++;
+                i++;
+            } else if (text.startsWith("\"\"\"", i)) {
+                int end = text.indexOf("\"\"\"", i + 3);
+                end = end < 0 ? text.length() : end + 3;
+                line += count(text, i, end);
+                i = end;
+            } else if (c == '"') {
+                int j = i + 1;
+                while (j < text.length() && text.charAt(j) != '"' && text.charAt(j) != '\n') {
+                    j += text.charAt(j) == '\\' ? 2 : 1;
+                }
+                i = Math.min(j + 1, text.length());
+                if (j < text.length() && text.charAt(j) == '\n') {
+                    i = j;
+                }
+            } else if (c == '#' || text.startsWith("//", i)) {
+                int end = text.indexOf('\n', i);
+                i = end < 0 ? text.length() : end;
+            } else {
+                if (c == '{') {
+                    open.push(line);
+                } else if (c == '}' && !open.isEmpty()) {
+                    open.pop();
+                }
+                i++;
+            }
+        }
+        return open.isEmpty() ? -1 : open.peek();
+    }
+
+    private static int count(String text, int from, int to) {
+        int n = 0;
+        for (int i = from; i < to; i++) {
+            n += text.charAt(i) == '\n' ? 1 : 0;
+        }
+        return n;
     }
 
     private static Config parseOverride(String override) {
@@ -126,7 +220,19 @@ public final class RunFile {
         List<String> unknown = new ArrayList<>();
         collectLeaves(user.root(), "", unknown, freeForm);
         for (String key : unknown) {
-            if (isFreeForm(key, freeForm) || known.contains(key)) {
+            if (isFreeForm(key, freeForm)) {
+                continue;
+            }
+            if (known.contains(key)) {
+                ConfigValue group = valueAt(reference.root(), key);
+                ConfigValue given = valueAt(user.root(), key);
+                if (group instanceof ConfigObject && !((ConfigObject) group).isEmpty()
+                        && given != null && !(given instanceof ConfigObject)) {
+                    String example = example(key, (ConfigObject) group);
+                    throw new RunFileException(describe(given.origin()) + ": " + key + " = "
+                            + given.render(ConfigRenderOptions.concise()) + ": " + key + " is a group of settings, "
+                            + "not a value; set its keys instead, e.g. " + example + " = …");
+                }
                 continue;
             }
             // A user object where reference has a leaf, or the reverse, is a type error found later.
@@ -140,6 +246,26 @@ public final class RunFile {
             throw new RunFileException(where(user, key) + ": unknown setting '" + key + "'"
                     + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?"));
         }
+    }
+
+    /** A setting inside group {@code key}, to show: its shortest leaf key (alphabetical among equals). */
+    private static String example(String key, ConfigObject group) {
+        List<String> leaves = new ArrayList<>();
+        collectLeaves(group, key + ".", leaves, List.of());
+        leaves.sort(java.util.Comparator.comparingInt(String::length).thenComparing(java.util.Comparator.naturalOrder()));
+        return leaves.isEmpty() ? key + ".…" : leaves.get(0);
+    }
+
+    /** The value at a dotted key (segments quoted as {@link #quoteKey} writes them), or null. */
+    private static ConfigValue valueAt(ConfigObject root, String key) {
+        ConfigValue value = root;
+        for (String segment : com.typesafe.config.ConfigUtil.splitPath(key)) {
+            if (!(value instanceof ConfigObject)) {
+                return null;
+            }
+            value = ((ConfigObject) value).get(segment);
+        }
+        return value;
     }
 
     private static boolean isFreeForm(String key, List<String> freeForm) {
@@ -197,11 +323,12 @@ public final class RunFile {
         if (origin.resource() != null) {
             return origin.resource() + (origin.lineNumber() > 0 ? ": line " + origin.lineNumber() : "");
         }
-        return origin.description();
+        // "--set key=value: 1": the line number of a one-line override says nothing.
+        return origin.description().replaceFirst(": \\d+(-\\d+)?$", "");
     }
 
     /** The path relative to the working folder when it lies below it, else as it is. */
-    private static Path shorten(Path file) {
+    public static Path shorten(Path file) {
         Path here = Path.of("").toAbsolutePath();
         Path absolute = file.toAbsolutePath().normalize();
         return absolute.startsWith(here) ? here.relativize(absolute) : absolute;

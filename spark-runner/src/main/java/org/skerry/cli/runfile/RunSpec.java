@@ -4,6 +4,7 @@ import com.typesafe.config.Config;
 import com.typesafe.config.ConfigException;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -68,8 +69,15 @@ public final class RunSpec {
         this.modelName = r.getString("model.name");
         this.modelClass = r.getString("model.class");
         if ((modelName == null) == (modelClass == null)) {
-            throw new RunFileException(RunFile.describe(c.getValue("model").origin()) + ": set exactly one of "
-                    + "model.name (a built-in model, see `skerry models`) and model.class (a class on the classpath)");
+            String choose = "model.name (a built-in model, see `skerry models`) or model.class (a class on the classpath)";
+            if (modelName != null) {
+                throw new RunFileException(RunFile.describe(c.getValue("model.class").origin()) + ": model.name = \""
+                        + modelName + "\" and model.class = \"" + modelClass + "\": set only one of " + choose);
+            }
+            // Neither is set: the defaults (reference.conf) hold the only "model" there is, so name the run file.
+            throw new RunFileException(RunFile.shorten(file.path()) + ": "
+                    + (isEmpty(file.path()) ? "the run file is empty; " : "the run file sets no model; ")
+                    + "set " + choose + " (every other setting has a default, listed in reference.conf)");
         }
         try {
             this.modelSettings = c.getConfig("model.settings");
@@ -77,8 +85,7 @@ public final class RunSpec {
             throw r.error("model.settings", "expected an object { … }");
         }
         String data = r.getString("data.file");
-        Path base = file.path().toAbsolutePath().getParent();
-        this.dataFile = data == null ? null : base.resolve(data).normalize();
+        this.dataFile = data == null ? null : folderOf(c.getValue("data.file"), file).resolve(data).normalize();
         this.inlineData = c.getIsNull("data.inline") ? null : objectAt(r, "data.inline");
         if (dataFile != null && inlineData != null) {
             throw r.error("data.inline", "set data.file or data.inline, not both");
@@ -93,8 +100,8 @@ public final class RunSpec {
         this.sampler = samplerSettings(r);
         this.backendKind = r.getChoice("backend.kind", List.of("spark", "threads"));
         this.master = r.getString("backend.master");
-        if (master == null || master.isBlank()) {
-            throw r.error("backend.master", "must name a Spark master, e.g. local[*] or spark://host:7077");
+        if (master == null || !SparkMasters.isValid(master)) {
+            throw r.error("backend.master", "not a Spark master; use " + SparkMasters.FORMS);
         }
         this.partitions = r.getInt("backend.partitions", 0, 1_000_000);
         this.sparkSettings = new LinkedHashMap<>();
@@ -140,6 +147,25 @@ public final class RunSpec {
         this.stopGraceSeconds = r.getInt("limits.stop-grace-seconds", 1, 86_400);
     }
 
+    /**
+     * The folder a relative path in {@code value} is read from: that of the file it is written in
+     * (an included file's own folder), else the run file's (a --set override, a batch's layers).
+     */
+    private static Path folderOf(ConfigValue value, RunFile file) {
+        String written = value.origin().filename();
+        Path in = written != null ? Path.of(written) : file.path();
+        return in.toAbsolutePath().getParent();
+    }
+
+    private static boolean isEmpty(Path path) {
+        try {
+            return Files.readAllLines(path).stream().map(String::strip)
+                    .allMatch(line -> line.isEmpty() || line.startsWith("#") || line.startsWith("//"));
+        } catch (java.io.IOException | RuntimeException e) {
+            return false;
+        }
+    }
+
     private static java.time.Duration duration(TypedReader r, String key) {
         java.time.Duration value;
         try {
@@ -164,7 +190,7 @@ public final class RunSpec {
     private static SamplerSettings samplerSettings(TypedReader r) {
         SamplerSettings.Builder b = SamplerSettings.builder();
         b.particles(r.getInt("sampler.particles", 2, 100_000_000));
-        b.seed(r.getLong("sampler.seed"));
+        b.seed(r.getSeed("sampler.seed"));
         b.maxIterations(r.getInt("sampler.max-iterations", 1, 1_000_000));
         b.minimumDistinctEves(r.getInt("sampler.minimum-distinct-ancestors", 1, Integer.MAX_VALUE));
         b.evaluationRetries(r.getInt(RETRIES_KEY, 0, 100));

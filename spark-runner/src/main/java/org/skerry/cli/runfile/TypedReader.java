@@ -2,7 +2,9 @@ package org.skerry.cli.runfile;
 
 import com.typesafe.config.Config;
 import com.typesafe.config.ConfigException;
+import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
+import java.math.BigDecimal;
 import java.util.List;
 import java.util.Locale;
 
@@ -35,25 +37,72 @@ public final class TypedReader {
         return config.hasPath(key);
     }
 
+    /**
+     * A whole number in [min, max]. A fraction ({@code 200.7}) is refused, never truncated, and a
+     * whole number outside the range ({@code 1e12}) is refused with the range.
+     */
     public int getInt(String key, int min, int max) {
-        int value;
-        try {
-            value = config.getInt(key);
-        } catch (ConfigException.WrongType e) {
-            throw error(key, "expected a whole number");
-        }
-        if (value < min || value > max) {
+        return (int) getLong(key, min, max);
+    }
+
+    /** A whole number in [min, max]; see {@link #getInt}. */
+    public long getLong(String key, long min, long max) {
+        BigDecimal value = wholeNumber(key);
+        if (value.compareTo(BigDecimal.valueOf(min)) < 0 || value.compareTo(BigDecimal.valueOf(max)) > 0) {
             throw error(key, "must be between " + min + " and " + max);
+        }
+        return value.longValueExact();
+    }
+
+    /**
+     * A seed: exactly the whole numbers a random stream can key, the 64-bit signed range
+     * [-2^63, 2^63 - 1], each of which is one 64-bit key. Anything else (a fraction, 2^63,
+     * {@code 1e30}) is refused: clamping or rounding it would silently give another seed's run.
+     */
+    public long getSeed(String key) {
+        BigDecimal value = wholeNumber(key);
+        if (value.compareTo(BigDecimal.valueOf(Long.MIN_VALUE)) < 0
+                || value.compareTo(BigDecimal.valueOf(Long.MAX_VALUE)) > 0) {
+            throw error(key, "a seed must be a whole number from " + Long.MIN_VALUE + " to " + Long.MAX_VALUE
+                    + " (-2^63 to 2^63 - 1: the 64-bit key of the random streams)");
+        }
+        return value.longValueExact();
+    }
+
+    private BigDecimal wholeNumber(String key) {
+        BigDecimal value = config.hasPath(key) ? wholeNumber(config.getValue(key)) : null;
+        if (value == null) {
+            throw error(key, "expected a whole number");
         }
         return value;
     }
 
-    public long getLong(String key) {
-        try {
-            return config.getLong(key);
-        } catch (ConfigException.WrongType e) {
-            throw error(key, "expected a whole number");
+    /**
+     * The exact value of a whole number, or null when {@code value} holds none (a fraction, text
+     * that is not a number, a list …). Numbers written as text ({@code "12"}) count, as HOCON
+     * converts them; the value is compared exactly, never through a rounded {@code long}.
+     */
+    static BigDecimal wholeNumber(ConfigValue value) {
+        Object raw = value.unwrapped();
+        BigDecimal exact;
+        if (raw instanceof Integer || raw instanceof Long) {
+            return BigDecimal.valueOf(((Number) raw).longValue());
+        } else if (raw instanceof Double) {
+            double d = (Double) raw;
+            if (!Double.isFinite(d)) {
+                return null;
+            }
+            exact = new BigDecimal(d);
+        } else if (raw instanceof String) {
+            try {
+                exact = new BigDecimal(((String) raw).trim());
+            } catch (NumberFormatException e) {
+                return null;
+            }
+        } else {
+            return null;
         }
+        return exact.signum() == 0 || exact.stripTrailingZeros().scale() <= 0 ? exact : null;
     }
 
     public double getDouble(String key) {

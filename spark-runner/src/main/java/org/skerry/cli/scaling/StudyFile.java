@@ -7,7 +7,6 @@ import com.typesafe.config.ConfigList;
 import com.typesafe.config.ConfigObject;
 import com.typesafe.config.ConfigParseOptions;
 import com.typesafe.config.ConfigRenderOptions;
-import com.typesafe.config.ConfigSyntax;
 import com.typesafe.config.ConfigUtil;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
@@ -127,19 +126,7 @@ public final class StudyFile {
      * @throws RunFileException naming the file, line, key and value of the first problem found
      */
     public static StudyFile load(Path path) {
-        if (!Files.isRegularFile(path)) {
-            throw new RunFileException("cannot read study file " + path + ": no such file");
-        }
-        if (!Files.isReadable(path)) {
-            throw new RunFileException("cannot read study file " + path + ": permission denied");
-        }
-        Config user;
-        try {
-            user = ConfigFactory.parseFile(path.toFile(),
-                    ConfigParseOptions.defaults().setSyntax(ConfigSyntax.CONF).setAllowMissing(false));
-        } catch (ConfigException e) {
-            throw new RunFileException(RunFile.located(e), e);
-        }
+        Config user = RunFile.parse(path, "study file");
         Config defaults = ConfigFactory.parseResources(StudyFile.class.getClassLoader(), "study-defaults.conf",
                 ConfigParseOptions.defaults().setAllowMissing(false));
         checkKnownKeys(user, defaults);
@@ -240,32 +227,50 @@ public final class StudyFile {
     }
 
     private StudyPoint point(int group, Map<String, ConfigValue> combination, Integer k) {
+        // Each override is shown as key=value (skerry scale --check) and laid over the base as a
+        // setting whose origin is the study file's line, so an error names that line and never a
+        // --set the user did not type.
         List<String> overrides = new ArrayList<>();
-        settings.forEach((key, value) -> overrides.add(key + "=" + value));
+        List<Config> layers = new ArrayList<>();
+        settings.forEach((key, value) -> {
+            overrides.add(key + "=" + value);
+            layers.add(ConfigFactory.empty().withValue(key, config.getValue("settings." + key)));
+        });
         Map<String, String> shown = new LinkedHashMap<>();
         if (k != null) {
             shown.put(CORES, String.valueOf(k));
         }
         for (Map.Entry<String, ConfigValue> entry : combination.entrySet()) {
             overrides.add(entry.getKey() + "=" + entry.getValue().render(ConfigRenderOptions.concise()));
+            layers.add(ConfigFactory.empty().withValue(entry.getKey(), entry.getValue()));
             shown.put(entry.getKey(), String.valueOf(entry.getValue().unwrapped()));
         }
         if (scaling == Scaling.WEAK) {
-            overrides.add("sampler.particles=" + (long) particlesPerCore * k);
+            add(overrides, layers, "sampler.particles=" + (long) particlesPerCore * k,
+                    RunFile.where(config, "particles-per-core") + ": particles-per-core x cores " + k);
         }
-        RunSpec spec = loadPoint(overrides, combination);
+        RunSpec spec = loadPoint(layers, combination);
         if (k != null) {
-            overrides.addAll(coreOverrides(spec, k));
-            spec = loadPoint(overrides, combination);
+            for (String override : coreOverrides(spec, k)) {
+                add(overrides, layers, override, RunFile.where(config, "axes.cores") + ": cores = " + k);
+            }
+            spec = loadPoint(layers, combination);
         }
         if (spec.backendKind().equals("spark")) {
             String listeners = spec.sparkSettings().get("spark.extraListeners");
             String ours = DriverTraffic.class.getName();
-            overrides.add("backend.spark.\"spark.extraListeners\"=\""
-                    + (listeners == null || listeners.isBlank() ? ours : listeners + "," + ours) + "\"");
-            spec = loadPoint(overrides, combination);
+            add(overrides, layers, "backend.spark.\"spark.extraListeners\"=\""
+                    + (listeners == null || listeners.isBlank() ? ours : listeners + "," + ours) + "\"",
+                    "skerry scale's driver measurements");
+            spec = loadPoint(layers, combination);
         }
         return new StudyPoint(group, shown, k == null ? 0 : k, List.copyOf(overrides), spec);
+    }
+
+    /** Adds an override the study makes itself, with {@code origin} as where it comes from. */
+    private static void add(List<String> overrides, List<Config> layers, String override, String origin) {
+        overrides.add(override);
+        layers.add(ConfigFactory.parseString(override, ConfigParseOptions.defaults().setOriginDescription(origin)));
     }
 
     /** The settings that give a run {@code k} cores on its backend. */
@@ -273,32 +278,57 @@ public final class StudyFile {
         if (spec.backendKind().equals("threads")) {
             return List.of("backend.threads=" + k);
         }
-        if (spec.master().startsWith("local")) {
+        if (org.skerry.cli.runfile.SparkMasters.isInProcess(spec.master())) {
             return List.of("backend.master=\"local[" + k + "]\"");
         }
         return List.of("backend.spark.\"spark.cores.max\"=" + k);
     }
 
-    private RunSpec loadPoint(List<String> overrides, Map<String, ConfigValue> combination) {
+    private RunSpec loadPoint(List<Config> layers, Map<String, ConfigValue> combination) {
+        Config settingsOverBase = ConfigFactory.empty();
+        for (Config layer : layers) {
+            settingsOverBase = layer.withFallback(settingsOverBase);
+        }
         try {
-            return RunSpec.from(RunFile.load(base, overrides));
+            return RunSpec.from(RunFile.load(base, settingsOverBase, List.of()));
         } catch (RunFileException e) {
-            // Blame the study line that set the offending key, when one did.
+            // Name the key as the study file writes it (axes.… or settings.…) at the line that set it.
             String message = e.getMessage();
             for (Map.Entry<String, ConfigValue> entry : combination.entrySet()) {
-                if (message.contains(entry.getKey())) {
-                    throw new RunFileException(RunFile.describe(entry.getValue().origin()) + ": axes." + entry.getKey()
-                            + " = " + entry.getValue().render(ConfigRenderOptions.concise()) + ": " + message, e);
+                String named = renamed(message, entry.getKey(), entry.getValue(), "axes.");
+                if (named != null) {
+                    throw new RunFileException(named, e);
                 }
             }
             for (String key : settings.keySet()) {
-                if (message.contains(key)) {
-                    throw new RunFileException(RunFile.where(config, "settings." + key) + ": settings." + key + " = "
-                            + settings.get(key) + ": " + message, e);
+                String named = renamed(message, key, config.getValue("settings." + key), "settings.");
+                if (named != null) {
+                    throw new RunFileException(named, e);
                 }
+            }
+            if (message.startsWith(RunFile.shorten(path) + ":")) {
+                throw e;
             }
             throw new RunFileException(path + ": base run file " + base + " with this study's settings: " + message, e);
         }
+    }
+
+    /**
+     * {@code message} about {@code key}, located at {@code value}'s line, with the key as the study
+     * writes it ({@code axes.sampler.particles = 1: …}); null when the message is about something else.
+     */
+    private static String renamed(String message, String key, ConfigValue value, String section) {
+        String at = RunFile.describe(value.origin()) + ": ";
+        if (!message.startsWith(at) || !message.contains(key)) {
+            return null;
+        }
+        String rendered = value.render(ConfigRenderOptions.concise());
+        String rest = message.substring(at.length());
+        String restated = key + " = " + rendered + ": ";
+        if (rest.startsWith(restated)) {
+            rest = rest.substring(restated.length());
+        }
+        return at + section + key + " = " + rendered + ": " + rest;
     }
 
     public Path path() {
