@@ -17,7 +17,7 @@ import java.util.Map;
  */
 public final class RunSummaryReader {
 
-    /** The parts of a run's summary a batch row shows; parameters map to {mean, q025, q975}. */
+    /** The parts of a run's summary a batch row shows; parameters map to {mean, q2_5, q97_5}. */
     public record RunSummary(double logEvidence, double logEvidenceError, int iterations, long likelihoodEvaluations,
             Map<String, double[]> parameters) {
     }
@@ -41,10 +41,10 @@ public final class RunSummaryReader {
                 String field = p.currentName();
                 p.nextToken();
                 switch (field) {
-                    case "logEvidence" -> logEvidence = number(p);
-                    case "logEvidenceError" -> error = number(p);
+                    case "log_evidence" -> logEvidence = number(p);
+                    case "log_evidence_error" -> error = number(p);
                     case "iterations" -> iterations = p.getIntValue();
-                    case "likelihoodEvaluations" -> evaluations = p.getLongValue();
+                    case "likelihood_evaluations" -> evaluations = p.getLongValue();
                     case "parameters" -> readParameters(p, parameters);
                     default -> p.skipChildren();
                 }
@@ -64,7 +64,7 @@ public final class RunSummaryReader {
             while (p.nextToken() == JsonToken.FIELD_NAME) {
                 String field = p.currentName();
                 p.nextToken();
-                if (field.equals("wallSeconds")) {
+                if (field.equals("wall_seconds")) {
                     return number(p);
                 }
                 p.skipChildren();
@@ -85,8 +85,8 @@ public final class RunSummaryReader {
                 p.nextToken();
                 switch (key) {
                     case "mean" -> values[0] = number(p);
-                    case "q025" -> values[1] = number(p);
-                    case "q975" -> values[2] = number(p);
+                    case "q2_5" -> values[1] = number(p);
+                    case "q97_5" -> values[2] = number(p);
                     default -> p.skipChildren();
                 }
             }
