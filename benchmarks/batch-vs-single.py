@@ -92,7 +92,7 @@ def singles(work, reference, round_no):
         shutil.rmtree(out, ignore_errors=True)
         total += timed([SKERRY, "run", os.path.join(run, "run.conf"), "--out", out])
         with open(os.path.join(out, "timing.json")) as f:
-            sampler += json.load(f)["wallSeconds"]
+            sampler += json.load(f)["wall_seconds"]
         with open(os.path.join(out, "summary.json"), "rb") as a, open(os.path.join(run, "summary.json"), "rb") as b:
             if a.read() != b.read():
                 sys.exit("single run of %s differs from the batch's" % name)

@@ -218,8 +218,8 @@ final class NaiveCollectPopulation implements Population {
     @Override
     public FinalParticles export() {
         return new FinalParticles(dimension, size, copy(all.values(), 0, size * dimension),
-                copy(all.logWeight(), 0, size), copy(all.logLikelihood(), 0, size), copy(all.index(), 0, size),
-                copy(all.eve(), 0, size));
+                copy(all.logWeight(), 0, size), copy(all.logPrior(), 0, size), copy(all.logLikelihood(), 0, size),
+                copy(all.index(), 0, size), copy(all.eve(), 0, size));
     }
 
     /** The baseline measures a run without checkpoints; it has none to write. */

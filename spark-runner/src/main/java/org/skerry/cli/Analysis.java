@@ -4,6 +4,7 @@ import java.io.IOException;
 import java.io.PrintWriter;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.time.Clock;
 import java.time.Instant;
 import java.time.ZoneOffset;
 import java.time.format.DateTimeFormatter;
@@ -13,6 +14,7 @@ import java.util.SortedMap;
 import java.util.TreeMap;
 import java.util.stream.Stream;
 import org.apache.spark.api.java.JavaSparkContext;
+import org.skerry.cli.output.ParticlesCsv;
 import org.skerry.cli.output.RunConfFile;
 import org.skerry.cli.output.SummaryJson;
 import org.skerry.cli.progress.ProgressDisplay;
@@ -75,6 +77,7 @@ public final class Analysis {
      */
     public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut, IterationListener observer) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
+        checkParameterNames(spec, built);
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder : spec.outputFolder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
         Path created = firstMissing(runFolder);
@@ -172,6 +175,15 @@ public final class Analysis {
         }
     }
 
+    /** Refuses, before anything is written, parameter names that cannot head the columns of particles.csv. */
+    private static void checkParameterNames(RunSpec spec, ModelBuilder.Built built) {
+        try {
+            ParticlesCsv.checkParameterNames(built.model().parameters().names());
+        } catch (IllegalArgumentException e) {
+            throw new RunFileException("model " + spec.modelLabel() + ": " + e.getMessage(), e);
+        }
+    }
+
     /** Whether the run in {@code runFolder} has finished (its summary is written last). */
     public static boolean finished(Path runFolder) {
         return Files.isRegularFile(runFolder.resolve(SummaryJson.FILE_NAME));
@@ -213,7 +225,8 @@ public final class Analysis {
         try (TerminationSignal signal = TerminationSignal.install(spec.stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, System::exit);
                 Backends.Opened opened = Backends.open(spec, runFolder);
-                ProgressDisplay progress = progress(spec, progressOut, built.model().parameters().names())) {
+                ProgressDisplay progress = announced(progress(spec, progressOut, built.model().parameters().names()),
+                        spec, runFolder, resume)) {
             IterationListener shown = progress == null ? IterationListener.NONE : progress;
             IterationListener listener = observer == IterationListener.NONE ? shown : record -> {
                 shown.iterationFinished(record);
@@ -236,6 +249,7 @@ public final class Analysis {
     public static Outcome run(RunSpec spec, Path folder, PopulationBackend backend, IterationListener listener,
             StopCondition stop, PrintWriter notices) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
+        checkParameterNames(spec, built);
         Instant started = Instant.now();
         prepare(folder);
         RunOutputs.writeSettings(folder, forRunFolder(spec).render());
@@ -312,7 +326,7 @@ public final class Analysis {
         }
         double wall = (System.nanoTime() - start) * 1e-9;
         try {
-            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.modelLabel(), spec.sampler().seed(),
+            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.modelLabel(), spec.sampler().seed(),
                     built.model().parameters().names(), result, wall, started, backend.description()));
         } catch (java.io.UncheckedIOException e) {
             throw outputFailed(e, checkpoints, runFolder);
@@ -354,17 +368,30 @@ public final class Analysis {
         }
     }
 
+    /**
+     * Names the analysis once its backend is up (so that a backend that cannot start leaves its
+     * error alone on the screen), before the first iteration, which can take long.
+     */
+    private static ProgressDisplay announced(ProgressDisplay progress, RunSpec spec, Path runFolder, boolean resume) {
+        if (progress != null) {
+            progress.announce((resume ? "continuing " : "running ") + spec.name() + ": model " + spec.modelLabel()
+                    + ", " + spec.sampler().particles() + " particles, seed " + spec.sampler().seed() + "; run folder "
+                    + runFolder);
+        }
+        return progress;
+    }
+
     private static ProgressDisplay progress(RunSpec spec, PrintWriter out, List<String> names) {
         boolean terminal = System.console() != null;
         switch (spec.progress()) {
             case OFF:
                 return null;
             case LIVE:
-                return new ProgressDisplay(out, true, names);
+                return new ProgressDisplay(out, true, Clock.systemUTC(), names, spec.name());
             case LOG:
-                return new ProgressDisplay(out, false, names);
+                return new ProgressDisplay(out, false, Clock.systemUTC(), names, spec.name());
             default:
-                return new ProgressDisplay(out, terminal, names);
+                return new ProgressDisplay(out, terminal, Clock.systemUTC(), names, spec.name());
         }
     }
 

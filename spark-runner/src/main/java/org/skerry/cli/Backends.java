@@ -11,6 +11,7 @@ import java.util.Comparator;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.function.Supplier;
 import java.util.stream.Stream;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
@@ -89,13 +90,43 @@ public final class Backends {
         settings.putAll(spec.sparkSettings());
         try {
             Files.createDirectories(scratch);
-            return new Opened(SparkBackend.start(master, "skerry " + spec.name(), spec.partitions(), settings), scratch);
+            Supplier<SparkBackend> start = () -> SparkBackend.start(master, "skerry " + spec.name(), spec.partitions(),
+                    settings);
+            return new Opened(master.startsWith("local") ? withoutLoopbackWarning(start) : start.get(), scratch);
         } catch (IOException e) {
             throw new RunFileException("cannot create Spark's scratch folder " + scratch + ": " + e, e);
         } catch (Exception e) {
             // SparkException is a checked exception Scala throws unchecked: catch it here too.
             deleteQuietly(scratch);
             throw new RunFileException("cannot start Spark with master " + master + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** The logger of Spark's note that the host name resolves to a loopback address. */
+    static final String SPARK_UTILS_LOGGER = "org.apache.spark.util.Utils";
+
+    /**
+     * Starts a local-mode context without Spark's two warnings that this machine's host name
+     * resolves to a loopback address ("Your hostname, … resolves to a loopback address …; Set
+     * SPARK_LOCAL_IP …"). They matter when executors on other machines must reach the driver; in
+     * local mode everything stays in this process, bound to 127.0.0.1, yet Spark prints them on
+     * every run on such a machine. The logger is raised to ERROR while the context starts (when
+     * Spark looks the address up, once per JVM) and put back afterwards; on a cluster the
+     * warnings still show.
+     */
+    static <T> T withoutLoopbackWarning(Supplier<T> start) {
+        org.apache.logging.log4j.Level before;
+        try {
+            before = org.apache.logging.log4j.LogManager.getLogger(SPARK_UTILS_LOGGER).getLevel();
+            org.apache.logging.log4j.core.config.Configurator.setLevel(SPARK_UTILS_LOGGER,
+                    org.apache.logging.log4j.Level.ERROR);
+        } catch (RuntimeException | LinkageError e) {
+            return start.get(); // another logging back end: leave it as it is
+        }
+        try {
+            return start.get();
+        } finally {
+            org.apache.logging.log4j.core.config.Configurator.setLevel(SPARK_UTILS_LOGGER, before);
         }
     }
 

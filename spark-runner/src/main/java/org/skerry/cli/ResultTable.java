@@ -37,7 +37,7 @@ final class ResultTable {
                 "2.5 %", "97.5 %"));
         for (ParameterSummary p : result.parameters()) {
             out.println(String.format(Locale.ROOT, "%-" + width + "s %12.5g %12.5g %12.5g %12.5g", p.name(), p.mean(),
-                    p.sd(), p.q025(), p.q975()));
+                    p.sd(), p.q2_5(), p.q97_5()));
         }
     }
 }

@@ -21,7 +21,7 @@ import org.skerry.engine.sampler.SamplerResult;
 final class RunOutputs {
 
     /** What a finished run leaves to write. */
-    record Run(String model, long seed, List<String> parameterNames, SamplerResult result, double wallSeconds,
+    record Run(String name, String model, long seed, List<String> parameterNames, SamplerResult result, double wallSeconds,
             Instant startedAt, String backend) {
     }
 
@@ -52,7 +52,7 @@ final class RunOutputs {
             IterationsCsv.write(folder, result.iterations(), run.parameterNames());
             TimingJson.write(folder, RunEnvironment.current(Version.text(), run.backend(), run.startedAt()),
                     run.wallSeconds(), result.iterations());
-            SummaryJson.write(folder, run.model(), run.seed(), result);
+            SummaryJson.write(folder, run.name(), run.model(), run.seed(), result);
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write the results into " + folder, e);
         }

@@ -160,6 +160,7 @@ final class SparkPopulation implements Population {
     /** Tempering inputs from per-partition {@code {report, log-weights, log-likelihoods}}, in partition order. */
     private TemperingInputs assembleInputs(List<Object[]> parts) {
         double[] logWeight = new double[size];
+        double[] logPrior = new double[size];
         double[] logLikelihood = new double[size];
         int[] blockSizes = new int[parts.size()];
         int offset = 0;
@@ -410,6 +411,7 @@ final class SparkPopulation implements Population {
         deliveredMoments = null;
         double[] values = new double[size * dimension];
         double[] logWeight = new double[size];
+        double[] logPrior = new double[size];
         double[] logLikelihood = new double[size];
         long[] index = new long[size];
         long[] eve = new long[size];
@@ -422,21 +424,22 @@ final class SparkPopulation implements Population {
             }
             for (List<ParticleBlock> part : blocks.collectPartitions(ids)) {
                 for (ParticleBlock block : part) {
-                    copyOut(block, values, logWeight, logLikelihood, index, eve);
+                    copyOut(block, values, logWeight, logPrior, logLikelihood, index, eve);
                 }
             }
         }
         dropReplaced();
-        return new FinalParticles(dimension, size, values, logWeight, logLikelihood, index, eve);
+        return new FinalParticles(dimension, size, values, logWeight, logPrior, logLikelihood, index, eve);
     }
 
     /** Places a block's particles at their global indices (always a permutation of 0..N−1). */
-    private void copyOut(ParticleBlock block, double[] values, double[] logWeight, double[] logLikelihood,
-            long[] index, long[] eve) {
+    private void copyOut(ParticleBlock block, double[] values, double[] logWeight, double[] logPrior,
+            double[] logLikelihood, long[] index, long[] eve) {
         for (int i = 0; i < block.size(); i++) {
             int at = (int) block.index()[i];
             System.arraycopy(block.values(), i * dimension, values, at * dimension, dimension);
             logWeight[at] = block.logWeight()[i];
+            logPrior[at] = block.logPrior()[i];
             logLikelihood[at] = block.logLikelihood()[i];
             index[at] = block.index()[i];
             eve[at] = block.eve()[i];

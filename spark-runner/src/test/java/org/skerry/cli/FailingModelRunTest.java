@@ -85,10 +85,10 @@ class FailingModelRunTest {
         assertTrue(failing.size() > 0 && failing.get(0).get("iteration").equals("0"));
 
         Map<String, Object> summary = JsonTree.read(out.resolve("summary.json"));
-        assertEquals(invalid, summary.get("invalidEvaluations"));
-        assertEquals(0L, summary.get("retriedEvaluations"));
+        assertEquals(invalid, summary.get("invalid_evaluations"));
+        assertEquals(0L, summary.get("retried_evaluations"));
         @SuppressWarnings("unchecked")
-        Map<String, Object> first = (Map<String, Object>) summary.get("firstInvalid");
+        Map<String, Object> first = (Map<String, Object>) summary.get("first_invalid");
         assertEquals(0L, first.get("iteration"));
         assertEquals(Long.parseLong(failing.get(0).get("first_invalid_particle")), first.get("particle"));
         @SuppressWarnings("unchecked")
@@ -181,10 +181,10 @@ class FailingModelRunTest {
         assertEquals(withoutSeconds(threads.resolve("iterations.csv")), withoutSeconds(spark.resolve("iterations.csv")));
 
         Map<String, Object> summary = JsonTree.read(spark.resolve("summary.json"));
-        assertTrue((Long) summary.get("invalidEvaluations") > 0);
-        assertTrue((Long) summary.get("retriedEvaluations") > 0, "the flaky first calls were retried");
+        assertTrue((Long) summary.get("invalid_evaluations") > 0);
+        assertTrue((Long) summary.get("retried_evaluations") > 0, "the flaky first calls were retried");
         // Throwing and NaN regions fail on every retry too; the flaky calls never do.
-        assertEquals(summary.get("invalidEvaluations"), summary.get("failedAfterRetries"));
+        assertEquals(summary.get("invalid_evaluations"), summary.get("failed_after_retries"));
         String flakyReason = "simulator node busy";
         assertFalse(Files.readString(spark.resolve("iterations.csv")).contains(flakyReason));
     }

@@ -1,5 +1,6 @@
 package org.skerry.cli;
 
+import java.io.File;
 import java.io.IOException;
 import java.lang.management.ManagementFactory;
 import java.nio.file.Path;
@@ -14,6 +15,14 @@ public final class ProgramProcess {
 
     /** Starts {@code skerry args…}, standard output and error both going to {@code log}. */
     public static Process start(Path log, String... args) throws IOException {
+        return start(log, List.of(), args);
+    }
+
+    /**
+     * As {@link #start(Path, String...)} with {@code extraClassPath} after this JVM's class path,
+     * as {@code bin/skerry} puts {@code SKERRY_CLASSPATH} after its own jars.
+     */
+    public static Process start(Path log, List<Path> extraClassPath, String... args) throws IOException {
         List<String> command = new ArrayList<>(List.of(Path.of(System.getProperty("java.home"), "bin", "java").toString()));
         // The module options Spark needs (surefire's argLine gives them to this JVM; the launcher to the program).
         for (String option : ManagementFactory.getRuntimeMXBean().getInputArguments()) {
@@ -22,7 +31,11 @@ public final class ProgramProcess {
                 command.add(option);
             }
         }
-        command.addAll(List.of("-Xmx768m", "-cp", System.getProperty("java.class.path"), SkerryCommand.class.getName()));
+        StringBuilder classPath = new StringBuilder(System.getProperty("java.class.path"));
+        for (Path entry : extraClassPath) {
+            classPath.append(File.pathSeparator).append(entry);
+        }
+        command.addAll(List.of("-Xmx768m", "-cp", classPath.toString(), SkerryCommand.class.getName()));
         command.addAll(List.of(args));
         return new ProcessBuilder(command).redirectErrorStream(true).redirectOutput(log.toFile()).start();
     }

@@ -39,8 +39,8 @@ class RunFileResultsTest {
     }
 
     private static double logEvidenceOf(Path summary) throws IOException {
-        Matcher m = Pattern.compile("\"logEvidence\"\\s*:\\s*([-0-9.eE+]+)").matcher(Files.readString(summary));
-        assertTrue(m.find(), "logEvidence in summary.json");
+        Matcher m = Pattern.compile("\"log_evidence\"\\s*:\\s*([-0-9.eE+]+)").matcher(Files.readString(summary));
+        assertTrue(m.find(), "log_evidence in summary.json");
         return Double.parseDouble(m.group(1));
     }
 

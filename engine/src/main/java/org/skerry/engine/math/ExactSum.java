@@ -24,7 +24,11 @@ import java.util.Arrays;
  * <p>Mutable and not thread-safe; one accumulator per thread, merged with {@link #add(ExactSum)}.
  * {@link #equals} and {@link #hashCode} compare exact values (so a hash key must not be added to
  * afterwards); like the other readers they may propagate pending carries, which never changes the
- * value. Partial sums travel as {@link #toCompactArray()}.
+ * value. Partial sums travel between Spark executors and the driver as the object itself:
+ * Kryo's field serialiser (registered in {@code SkerryKryoRegistrator}) writes all 67 chunks,
+ * the add count and the special-value flags. {@link #toCompactArray()} is a smaller, canonical
+ * form (only the chunks in use) that no backend uses at present; it is kept, and tested, for a
+ * transport where the size matters.
  */
 public final class ExactSum {
 
@@ -179,7 +183,8 @@ public final class ExactSum {
     }
 
     /**
-     * This sum in a compact form for sending over the network: only the range of chunks in use,
+     * This sum in a compact form (not used by the backends, which send the object itself; see the
+     * class description): only the range of chunks in use,
      * two per {@code long}, after a header with the flags. Zero takes one {@code long}; a sum
      * whose terms span a few binades takes two to four.
      */

@@ -13,7 +13,8 @@ import org.skerry.engine.population.EvaluationTally;
  * @param ess                  effective sample size after reweighting, before any resampling
  * @param resampled            whether the population was resampled
  * @param distinctAncestors    particles with at least one offspring (N when not resampled)
- * @param particlesMoved       particles that changed block while rebalancing
+ * @param particlesMoved       particles sent to another block (partition) while rebalancing after
+ *                             resampling ({@code particles_sent_to_other_partitions} in iterations.csv)
  * @param acceptanceRate       MH acceptance rate over all steps of the iteration
  * @param mhSteps              MH steps made per particle
  * @param scale                random-walk scale λ used

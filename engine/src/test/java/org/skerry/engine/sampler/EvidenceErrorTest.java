@@ -18,7 +18,7 @@ class EvidenceErrorTest {
         for (int i = 0; i < n; i++) {
             index[i] = i;
         }
-        return new FinalParticles(1, n, new double[n], new double[n], new double[n], index, eve);
+        return new FinalParticles(1, n, new double[n], new double[n], new double[n], new double[n], index, eve);
     }
 
     @Test

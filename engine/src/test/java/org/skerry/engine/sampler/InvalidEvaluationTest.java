@@ -87,7 +87,7 @@ class InvalidEvaluationTest {
         assertFalse(Double.isNaN(result.evidence().logEvidence()));
         assertFalse(Double.isNaN(result.evidence().standardError()));
         for (ParameterSummary p : result.parameters()) {
-            assertFalse(Double.isNaN(p.mean()) || Double.isNaN(p.sd()) || Double.isNaN(p.q975()), p.toString());
+            assertFalse(Double.isNaN(p.mean()) || Double.isNaN(p.sd()) || Double.isNaN(p.q97_5()), p.toString());
         }
         for (double w : result.normalisedWeights()) {
             assertFalse(Double.isNaN(w));

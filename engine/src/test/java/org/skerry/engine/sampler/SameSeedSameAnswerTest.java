@@ -58,8 +58,8 @@ class SameSeedSameAnswerTest {
         List<String> lines = new ArrayList<>();
         lines.add(Double.toHexString(result.evidence().logEvidence()) + " " + Double.toHexString(result.evidence().relativeVariance()));
         for (ParameterSummary p : result.parameters()) {
-            lines.add(new ParameterSummary(p.name(), p.mean(), p.sd(), p.q025(), p.q050(), p.q250(), p.q500(),
-                    p.q750(), p.q950(), p.q975()).toString());
+            lines.add(new ParameterSummary(p.name(), p.mean(), p.sd(), p.q2_5(), p.q5(), p.q25(), p.q50(),
+                    p.q75(), p.q95(), p.q97_5()).toString());
         }
         for (IterationRecord r : result.iterations()) {
             lines.add(new IterationRecord(r.iteration(), r.temperature(), r.ess(), r.resampled(), r.distinctAncestors(),

@@ -109,9 +109,9 @@ class SamplerAccuracyTest {
         BetaBinomialExact exact = new BetaBinomialExact(17, 40, 2.0, 3.0);
         Replicates replicates = Replicates.run(model, base().resamplingScheme(ResamplingScheme.RESIDUAL).build(), SEEDS);
         assertEvidence(exact.logEvidence(), replicates);
-        assertWithin(exact.posteriorQuantile(0.025), replicates.quantile(0, ParameterSummary::q025), "2.5 % quantile");
-        assertWithin(exact.posteriorQuantile(0.5), replicates.quantile(0, ParameterSummary::q500), "median");
-        assertWithin(exact.posteriorQuantile(0.975), replicates.quantile(0, ParameterSummary::q975), "97.5 % quantile");
+        assertWithin(exact.posteriorQuantile(0.025), replicates.quantile(0, ParameterSummary::q2_5), "2.5 % quantile");
+        assertWithin(exact.posteriorQuantile(0.5), replicates.quantile(0, ParameterSummary::q50), "median");
+        assertWithin(exact.posteriorQuantile(0.975), replicates.quantile(0, ParameterSummary::q97_5), "97.5 % quantile");
     }
 
     @Test

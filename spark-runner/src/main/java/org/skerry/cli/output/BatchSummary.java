@@ -14,20 +14,22 @@ import org.apache.commons.csv.CSVPrinter;
  * Writes {@code batch-summary.csv} and {@code batch-summary.json}: one row per analysis of a
  * batch, in batch order, each file written whole or not at all.
  *
- * <p>CSV columns: {@code dataset, variant, status, logEvidence, logEvidenceError,
- * logBayesFactor, logBayesFactorError, iterations, likelihoodEvaluations}, then for each
- * parameter (in order of first appearance over the rows) {@code <name>.mean, <name>.q025,
- * <name>.q975}, then {@code seed, folder, wallSeconds, message}. The Bayes factor is the
+ * <p>CSV columns (snake_case, as in {@code summary.json}): {@code dataset, variant, status,
+ * log_evidence, log_evidence_error, log_bayes_factor, log_bayes_factor_error, iterations,
+ * likelihood_evaluations}, then for each parameter (in order of first appearance over the rows)
+ * {@code <name>.mean, <name>.q2_5, <name>.q97_5} (the dot separates the parameter's own name
+ * from the statistic, which a {@code _} could not: parameter names may hold one), then
+ * {@code seed, folder, wall_seconds, message}. The Bayes factor is the
  * variant's against the batch's reference variant on the same dataset (empty for the reference
  * itself and where either analysis failed); its error is the root sum of squares of the two
  * single-run evidence errors, treating the runs as independent. Absent values are empty fields
- * (CSV) or null (JSON). The JSON file holds {@code referenceVariant} and {@code analyses}, a list
- * of objects with the same fields, parameters as {@code {name: {mean, q025, q975}}}.
+ * (CSV) or null (JSON). The JSON file holds {@code reference_variant} and {@code analyses}, a list
+ * of objects with the same fields, parameters as {@code {name: {mean, q2_5, q97_5}}}.
  *
  * <p>{@code status} is {@code succeeded} or {@code failed}; in the files rewritten while a batch
  * runs (and left by an interrupted one) also {@code running} or {@code waiting}.
  *
- * <p>{@code wallSeconds} is the only field that differs between two runs of the same batch: it
+ * <p>{@code wall_seconds} is the only field that differs between two runs of the same batch: it
  * is measured, not computed from settings and seed.
  */
 public final class BatchSummary {
@@ -61,14 +63,14 @@ public final class BatchSummary {
     }
 
     private static void writeCsv(Path file, List<Row> rows, Set<String> parameters) throws IOException {
-        List<String> columns = new ArrayList<>(List.of("dataset", "variant", "status", "logEvidence",
-                "logEvidenceError", "logBayesFactor", "logBayesFactorError", "iterations", "likelihoodEvaluations"));
+        List<String> columns = new ArrayList<>(List.of("dataset", "variant", "status", "log_evidence",
+                "log_evidence_error", "log_bayes_factor", "log_bayes_factor_error", "iterations", "likelihood_evaluations"));
         for (String p : parameters) {
             columns.add(p + ".mean");
-            columns.add(p + ".q025");
-            columns.add(p + ".q975");
+            columns.add(p + ".q2_5");
+            columns.add(p + ".q97_5");
         }
-        columns.addAll(List.of("seed", "folder", "wallSeconds", "message"));
+        columns.addAll(List.of("seed", "folder", "wall_seconds", "message"));
         AtomicFile.writeText(file, out -> {
             CSVPrinter printer = new CSVPrinter(out, CsvOutput.withHeader(columns.toArray(new String[0])));
             for (Row r : rows) {
@@ -103,31 +105,31 @@ public final class BatchSummary {
         AtomicFile.write(file, out -> {
             JsonGenerator json = JsonOutput.open(out);
             json.writeStartObject();
-            JsonOutput.text(json, "referenceVariant", referenceVariant);
+            JsonOutput.text(json, "reference_variant", referenceVariant);
             json.writeArrayFieldStart("analyses");
             for (Row r : rows) {
                 json.writeStartObject();
                 json.writeStringField("dataset", r.dataset());
                 json.writeStringField("variant", r.variant());
                 json.writeStringField("status", r.status());
-                JsonOutput.number(json, "logEvidence", r.logEvidence());
-                JsonOutput.number(json, "logEvidenceError", r.logEvidenceError());
-                JsonOutput.number(json, "logBayesFactor", r.logBayesFactor());
-                JsonOutput.number(json, "logBayesFactorError", r.logBayesFactorError());
+                JsonOutput.number(json, "log_evidence", r.logEvidence());
+                JsonOutput.number(json, "log_evidence_error", r.logEvidenceError());
+                JsonOutput.number(json, "log_bayes_factor", r.logBayesFactor());
+                JsonOutput.number(json, "log_bayes_factor_error", r.logBayesFactorError());
                 count(json, "iterations", r.iterations());
-                count(json, "likelihoodEvaluations", r.likelihoodEvaluations());
+                count(json, "likelihood_evaluations", r.likelihoodEvaluations());
                 json.writeObjectFieldStart("parameters");
                 for (Map.Entry<String, double[]> p : r.parameters().entrySet()) {
                     json.writeObjectFieldStart(p.getKey());
                     JsonOutput.number(json, "mean", p.getValue()[0]);
-                    JsonOutput.number(json, "q025", p.getValue()[1]);
-                    JsonOutput.number(json, "q975", p.getValue()[2]);
+                    JsonOutput.number(json, "q2_5", p.getValue()[1]);
+                    JsonOutput.number(json, "q97_5", p.getValue()[2]);
                     json.writeEndObject();
                 }
                 json.writeEndObject();
                 json.writeNumberField("seed", r.seed());
                 json.writeStringField("folder", r.folder());
-                JsonOutput.number(json, "wallSeconds", r.wallSeconds());
+                JsonOutput.number(json, "wall_seconds", r.wallSeconds());
                 JsonOutput.text(json, "message", r.message());
                 json.writeEndObject();
             }

@@ -11,7 +11,7 @@ import org.skerry.engine.sampler.PhaseTimes;
  * Writes {@code iterations.csv}: one row per iteration record, iteration 0 (the initial draw)
  * first.
  *
- * <p>Columns: {@code iteration, temperature, ess, resampled, distinct_ancestors, particles_moved,
+ * <p>Columns: {@code iteration, temperature, ess, resampled, distinct_ancestors, particles_sent_to_other_partitions,
  * acceptance, mh_steps, scale, log_evidence_increment, log_evidence, evaluations,
  * zero_likelihood, invalid, first_invalid_particle, first_invalid_reason, seconds_evaluate,
  * seconds_temperature, seconds_reweight, seconds_resample, seconds_redistribute, seconds_fit,
@@ -31,7 +31,7 @@ public final class IterationsCsv {
     public static final String FILE_NAME = "iterations.csv";
 
     static final String[] COLUMNS = {
-        "iteration", "temperature", "ess", "resampled", "distinct_ancestors", "particles_moved",
+        "iteration", "temperature", "ess", "resampled", "distinct_ancestors", "particles_sent_to_other_partitions",
         "acceptance", "mh_steps", "scale", "log_evidence_increment", "log_evidence", "evaluations",
         "zero_likelihood", "invalid", "first_invalid_particle", "first_invalid_reason", "seconds_evaluate",
         "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_redistribute", "seconds_fit",

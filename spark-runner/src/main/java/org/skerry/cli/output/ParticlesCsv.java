@@ -11,8 +11,12 @@ import org.skerry.engine.population.FinalParticles;
 /**
  * Writes {@code particles.csv}: the final population, one row per particle in canonical order
  * (by global particle index), one column per parameter on the model's own scale, then
- * {@code weight}, the normalised weight (the weights sum to 1). Doubles are written by
- * {@link DoubleText}.
+ * {@code weight}, the normalised weight (the weights sum to 1), {@code log_likelihood}, the
+ * particle's untempered log-likelihood, and {@code log_prior}, the prior's normalised log-density
+ * at it — both as the sampler computed them when the particle was drawn or last moved (so
+ * {@code -Infinity} where the model returned a zero or an invalid value), carried with the
+ * particle through resampling; every backend and partitioning writes the same bytes. Doubles
+ * are written by {@link DoubleText}.
  */
 public final class ParticlesCsv {
 
@@ -21,6 +25,13 @@ public final class ParticlesCsv {
 
     /** The name of the weight column; no parameter may have it. */
     public static final String WEIGHT_COLUMN = "weight";
+    /** The name of the log-likelihood column; no parameter may have it. */
+    public static final String LOG_LIKELIHOOD_COLUMN = "log_likelihood";
+    /** The name of the log-prior column; no parameter may have it. */
+    public static final String LOG_PRIOR_COLUMN = "log_prior";
+
+    /** The columns after the parameters, in order. */
+    static final List<String> FIXED_COLUMNS = List.of(WEIGHT_COLUMN, LOG_LIKELIHOOD_COLUMN, LOG_PRIOR_COLUMN);
 
     private ParticlesCsv() {
     }
@@ -47,20 +58,38 @@ public final class ParticlesCsv {
                     + particles.size() + "), got " + (normalisedWeights == null ? "null" : normalisedWeights.length));
         }
         int d = particles.dimension();
+        double[] logLikelihood = particles.logLikelihood();
+        double[] logPrior = particles.logPrior();
         Path file = folder.resolve(FILE_NAME);
         AtomicFile.writeText(file, out -> {
             CSVPrinter printer = new CSVPrinter(out, CsvOutput.withHeader(header));
-            String[] row = new String[d + 1];
+            String[] row = new String[d + FIXED_COLUMNS.size()];
             for (int i = 0; i < particles.size(); i++) {
                 for (int k = 0; k < d; k++) {
                     row[k] = DoubleText.format(particles.value(i, k));
                 }
                 row[d] = DoubleText.format(normalisedWeights[i]);
+                row[d + 1] = DoubleText.format(logLikelihood[i]);
+                row[d + 2] = DoubleText.format(logPrior[i]);
                 printer.printRecord((Object[]) row);
             }
             printer.flush();
         });
         return file;
+    }
+
+    /**
+     * Checks that {@code names} can head the parameter columns: distinct, not empty, and none of
+     * them the name of a column that follows ({@link #FIXED_COLUMNS}). A run checks this before it
+     * starts, so that a model whose names clash fails at once rather than after the run.
+     *
+     * @throws IllegalArgumentException naming the offending name
+     */
+    public static void checkParameterNames(List<String> names) {
+        if (names == null) {
+            throw new IllegalArgumentException("parameterNames must not be null");
+        }
+        header(names, names.size());
     }
 
     private static String[] header(List<String> names, int dimension) {
@@ -69,22 +98,24 @@ public final class ParticlesCsv {
                     + "), got " + names);
         }
         Set<String> seen = new HashSet<>();
-        String[] header = new String[dimension + 1];
+        String[] header = new String[dimension + FIXED_COLUMNS.size()];
         for (int k = 0; k < dimension; k++) {
             String name = names.get(k);
             if (name == null || name.isEmpty()) {
                 throw new IllegalArgumentException("parameterNames[" + k + "] must not be empty, got " + names);
             }
-            if (name.equals(WEIGHT_COLUMN)) {
-                throw new IllegalArgumentException("parameter " + k + " is named '" + WEIGHT_COLUMN
-                        + "', which is the name of the weight column");
+            if (FIXED_COLUMNS.contains(name)) {
+                throw new IllegalArgumentException("parameter " + k + " is named '" + name
+                        + "', which is the name of a column of " + FILE_NAME + " " + FIXED_COLUMNS);
             }
             if (!seen.add(name)) {
                 throw new IllegalArgumentException("parameter name '" + name + "' appears twice in " + names);
             }
             header[k] = name;
         }
-        header[dimension] = WEIGHT_COLUMN;
+        for (int c = 0; c < FIXED_COLUMNS.size(); c++) {
+            header[dimension + c] = FIXED_COLUMNS.get(c);
+        }
         return header;
     }
 }

@@ -17,7 +17,7 @@ import java.util.Map;
  */
 public final class RunSummaryReader {
 
-    /** The parts of a run's summary a batch row shows; parameters map to {mean, q025, q975}. */
+    /** The parts of a run's summary a batch row shows; parameters map to {mean, q2_5, q97_5}. */
     public record RunSummary(double logEvidence, double logEvidenceError, int iterations, long likelihoodEvaluations,
             Map<String, double[]> parameters) {
     }
@@ -42,11 +42,11 @@ public final class RunSummaryReader {
                 String field = p.currentName();
                 p.nextToken();
                 switch (field) {
-                    case "logEvidence" -> logEvidence = number(p);
-                    case "logEvidenceError" -> error = number(p);
-                    case "logEvidenceErrorReliable" -> reliable = p.getBooleanValue();
+                    case "log_evidence" -> logEvidence = number(p);
+                    case "log_evidence_error" -> error = number(p);
+                    case "log_evidence_error_reliable" -> reliable = p.getBooleanValue();
                     case "iterations" -> iterations = p.getIntValue();
-                    case "likelihoodEvaluations" -> evaluations = p.getLongValue();
+                    case "likelihood_evaluations" -> evaluations = p.getLongValue();
                     case "parameters" -> readParameters(p, parameters);
                     default -> p.skipChildren();
                 }
@@ -67,7 +67,7 @@ public final class RunSummaryReader {
             while (p.nextToken() == JsonToken.FIELD_NAME) {
                 String field = p.currentName();
                 p.nextToken();
-                if (field.equals("wallSeconds")) {
+                if (field.equals("wall_seconds")) {
                     return number(p);
                 }
                 p.skipChildren();
@@ -88,8 +88,8 @@ public final class RunSummaryReader {
                 p.nextToken();
                 switch (key) {
                     case "mean" -> values[0] = number(p);
-                    case "q025" -> values[1] = number(p);
-                    case "q975" -> values[2] = number(p);
+                    case "q2_5" -> values[1] = number(p);
+                    case "q97_5" -> values[2] = number(p);
                     default -> p.skipChildren();
                 }
             }

@@ -12,26 +12,29 @@ import org.skerry.engine.sampler.ParameterSummary;
 import org.skerry.engine.sampler.SamplerResult;
 
 /**
- * Writes {@code summary.json}, the answer of a run: log evidence and its error, posterior
- * summaries per parameter, evaluation counts, population size, seed and model name. It holds
+ * Writes {@code summary.json}, the answer of a run: its name and model, log evidence and its
+ * error, posterior summaries per parameter, evaluation counts, population size and seed. It holds
  * nothing timing-dependent (that is {@link TimingJson}), so the same settings and seed give the
  * same bytes.
  *
- * <p>Keys, in this order: {@code logEvidence}, {@code logEvidenceError},
- * {@code logEvidenceErrorReliable}, {@code logEvidenceErrorWarning} (null when none),
- * {@code islands} (0 in global mode), {@code islandLogEvidenceError} (the error of log Z from the
- * islands' spread, null unless islands ran without interaction),
- * {@code distinctAncestorsAtEnd} (distinct iteration-0 ancestors among particles of positive
- * weight), {@code parameters} (an object with one entry per parameter, in parameter order, each
- * holding {@code mean, sd, q025, q050, q250, q500, q750, q950, q975}), {@code iterations}
- * (tempering iterations after the initial draw), {@code likelihoodEvaluations},
- * {@code zeroLikelihoodEvaluations}, {@code invalidEvaluations}, {@code retriedEvaluations}
- * (evaluations whose first call was invalid and that were retried), {@code failedAfterRetries}
- * (those still invalid after the last retry), {@code firstInvalid} (the earliest invalid
- * evaluation, of lowest particle index in its iteration: {@code {iteration, particle, reason,
- * parameters: {name: value}}}, {@code iteration} null when the result has no iteration records;
- * or null when every evaluation was valid), {@code particles}, {@code seed} and {@code model}. A number that is not finite (an
- * error that cannot be estimated, say) is written as null.
+ * <p>Keys (snake_case, as every column and key of the run outputs), in this order: {@code name}
+ * (the run file's {@code name}; null when written without one), {@code model},
+ * {@code log_evidence}, {@code log_evidence_error}, {@code log_evidence_error_reliable},
+ * {@code log_evidence_error_warning} (null when none), {@code distinct_ancestors_at_end}
+ * (distinct iteration-0 ancestors among particles of positive weight), {@code islands} (0 in
+ * global mode), {@code island_log_evidence_error} (the error of log Z from the islands' spread,
+ * null unless islands ran without interaction), {@code parameters} (an object with one entry per
+ * parameter, in parameter order, each holding {@code mean, sd, q2_5, q5, q25, q50, q75, q95,
+ * q97_5}: quantiles named after their percentage, {@code q2_5} the 2.5 % quantile, {@code q50}
+ * the median), {@code iterations} (tempering iterations after the initial draw),
+ * {@code likelihood_evaluations}, {@code zero_likelihood_evaluations},
+ * {@code invalid_evaluations}, {@code retried_evaluations} (evaluations whose first call was
+ * invalid and that were retried), {@code failed_after_retries} (those still invalid after the
+ * last retry), {@code first_invalid} (the earliest invalid evaluation, of lowest particle index
+ * in its iteration: {@code {iteration, particle, reason, parameters: {name: value}}},
+ * {@code iteration} null when the result has no iteration records; or null when every evaluation
+ * was valid), {@code particles} and {@code seed}. A number that is not finite (an error that
+ * cannot be estimated, say) is written as null.
  */
 public final class SummaryJson {
 
@@ -41,16 +44,23 @@ public final class SummaryJson {
     private SummaryJson() {
     }
 
+    /** As {@link #write(Path, String, String, long, SamplerResult)} for a run without a name. */
+    public static Path write(Path folder, String model, long seed, SamplerResult result) throws IOException {
+        return write(folder, null, model, seed, result);
+    }
+
     /**
      * Writes {@code summary.json} in {@code folder}, atomically.
      *
      * @param folder an existing folder
+     * @param name   the run's name (the run file's {@code name}), or null
      * @param model  the model's name as the user chose it
      * @param seed   the seed of the run
      * @param result what the sampler returned
      * @return the file written
      */
-    public static Path write(Path folder, String model, long seed, SamplerResult result) throws IOException {
+    public static Path write(Path folder, String name, String model, long seed, SamplerResult result)
+            throws IOException {
         if (folder == null) {
             throw new IllegalArgumentException("folder must not be null");
         }
@@ -73,42 +83,44 @@ public final class SummaryJson {
         AtomicFile.write(file, out -> {
             JsonGenerator json = JsonOutput.open(out);
             json.writeStartObject();
+            JsonOutput.text(json, "name", name);
+            json.writeStringField("model", model);
             EvidenceEstimate evidence = result.evidence();
-            JsonOutput.number(json, "logEvidence", evidence.logEvidence());
-            JsonOutput.number(json, "logEvidenceError", evidence.standardError());
-            json.writeBooleanField("logEvidenceErrorReliable", evidence.reliable());
-            JsonOutput.text(json, "logEvidenceErrorWarning", evidence.warning());
-            json.writeNumberField("distinctAncestorsAtEnd", evidence.distinctEves());
+            JsonOutput.number(json, "log_evidence", evidence.logEvidence());
+            JsonOutput.number(json, "log_evidence_error", evidence.standardError());
+            json.writeBooleanField("log_evidence_error_reliable", evidence.reliable());
+            JsonOutput.text(json, "log_evidence_error_warning", evidence.warning());
+            json.writeNumberField("distinct_ancestors_at_end", evidence.distinctEves());
             json.writeNumberField("islands", evidence.islands());
-            JsonOutput.number(json, "islandLogEvidenceError", evidence.islandStandardError());
+            JsonOutput.number(json, "island_log_evidence_error", evidence.islandStandardError());
             json.writeObjectFieldStart("parameters");
             for (ParameterSummary p : result.parameters()) {
                 json.writeObjectFieldStart(p.name());
                 JsonOutput.number(json, "mean", p.mean());
                 JsonOutput.number(json, "sd", p.sd());
-                JsonOutput.number(json, "q025", p.q025());
-                JsonOutput.number(json, "q050", p.q050());
-                JsonOutput.number(json, "q250", p.q250());
-                JsonOutput.number(json, "q500", p.q500());
-                JsonOutput.number(json, "q750", p.q750());
-                JsonOutput.number(json, "q950", p.q950());
-                JsonOutput.number(json, "q975", p.q975());
+                JsonOutput.number(json, "q2_5", p.q2_5());
+                JsonOutput.number(json, "q5", p.q5());
+                JsonOutput.number(json, "q25", p.q25());
+                JsonOutput.number(json, "q50", p.q50());
+                JsonOutput.number(json, "q75", p.q75());
+                JsonOutput.number(json, "q95", p.q95());
+                JsonOutput.number(json, "q97_5", p.q97_5());
                 json.writeEndObject();
             }
             json.writeEndObject();
             json.writeNumberField("iterations", result.iterationCount());
-            json.writeNumberField("iterationsAtStepCap", result.stepCap().iterationsAtCap());
-            JsonOutput.text(json, "stepCapWarning", result.stepCap().warning());
+            json.writeNumberField("iterations_at_step_cap", result.stepCap().iterationsAtCap());
+            JsonOutput.text(json, "step_cap_warning", result.stepCap().warning());
             EvaluationTally tally = result.evaluations();
-            json.writeNumberField("likelihoodEvaluations", tally.evaluations());
-            json.writeNumberField("zeroLikelihoodEvaluations", tally.zeroLikelihood());
-            json.writeNumberField("invalidEvaluations", tally.invalid());
-            json.writeNumberField("retriedEvaluations", tally.retried());
-            json.writeNumberField("failedAfterRetries", tally.failedAfterRetries());
+            json.writeNumberField("likelihood_evaluations", tally.evaluations());
+            json.writeNumberField("zero_likelihood_evaluations", tally.zeroLikelihood());
+            json.writeNumberField("invalid_evaluations", tally.invalid());
+            json.writeNumberField("retried_evaluations", tally.retried());
+            json.writeNumberField("failed_after_retries", tally.failedAfterRetries());
             if (tally.firstInvalidIndex() < 0) {
-                json.writeNullField("firstInvalid");
+                json.writeNullField("first_invalid");
             } else {
-                json.writeObjectFieldStart("firstInvalid");
+                json.writeObjectFieldStart("first_invalid");
                 Integer iteration = firstInvalidIteration(result.iterations());
                 if (iteration == null) {
                     json.writeNullField("iteration");
@@ -130,7 +142,6 @@ public final class SummaryJson {
             }
             json.writeNumberField("particles", result.particles().size());
             json.writeNumberField("seed", seed);
-            json.writeStringField("model", model);
             json.writeEndObject();
             JsonOutput.close(json);
         });

@@ -12,11 +12,11 @@ import org.skerry.engine.sampler.PhaseTimes;
  * Writes {@code timing.json}: how long a run took and where it ran, kept apart from
  * {@code summary.json} because none of it is determined by the seed.
  *
- * <p>Keys, in this order: {@code wallSeconds}; {@code phaseSeconds}, an object holding
+ * <p>Keys, in this order: {@code wall_seconds}; {@code phase_seconds}, an object holding
  * {@code evaluate, temperature, reweight, resample, redistribute, fit, move, checkpoint}, each summed
  * over all iterations;
- * {@code programVersion}, {@code javaVersion}, {@code javaVendor}, {@code host}, {@code backend}
- * (null where unknown); {@code startedAt}, ISO-8601 in UTC ({@code 2025-03-01T09:30:00.250Z}).
+ * {@code program_version}, {@code java_version}, {@code java_vendor}, {@code host}, {@code backend}
+ * (null where unknown); {@code started_at}, ISO-8601 in UTC ({@code 2025-03-01T09:30:00.250Z}).
  */
 public final class TimingJson {
 
@@ -65,8 +65,8 @@ public final class TimingJson {
         AtomicFile.write(file, out -> {
             JsonGenerator json = JsonOutput.open(out);
             json.writeStartObject();
-            JsonOutput.number(json, "wallSeconds", wallSeconds);
-            json.writeObjectFieldStart("phaseSeconds");
+            JsonOutput.number(json, "wall_seconds", wallSeconds);
+            json.writeObjectFieldStart("phase_seconds");
             JsonOutput.number(json, "evaluate", sums[0]);
             JsonOutput.number(json, "temperature", sums[1]);
             JsonOutput.number(json, "reweight", sums[2]);
@@ -76,12 +76,12 @@ public final class TimingJson {
             JsonOutput.number(json, "move", sums[6]);
             JsonOutput.number(json, "checkpoint", sums[7]);
             json.writeEndObject();
-            JsonOutput.text(json, "programVersion", environment.programVersion());
-            JsonOutput.text(json, "javaVersion", environment.javaVersion());
-            JsonOutput.text(json, "javaVendor", environment.javaVendor());
+            JsonOutput.text(json, "program_version", environment.programVersion());
+            JsonOutput.text(json, "java_version", environment.javaVersion());
+            JsonOutput.text(json, "java_vendor", environment.javaVendor());
             JsonOutput.text(json, "host", environment.host());
             JsonOutput.text(json, "backend", environment.backend());
-            json.writeStringField("startedAt", DateTimeFormatter.ISO_INSTANT.format(environment.startedAt()));
+            json.writeStringField("started_at", DateTimeFormatter.ISO_INSTANT.format(environment.startedAt()));
             json.writeEndObject();
             JsonOutput.close(json);
         });

@@ -15,11 +15,12 @@ import org.skerry.engine.sampler.IterationListener;
 import org.skerry.engine.sampler.IterationRecord;
 
 /**
- * Shows a run's progress after each iteration: iteration, temperature φ, ESS, acceptance rate,
- * likelihood evaluations per second, elapsed time and an estimate of the time left. On a terminal
- * ({@code interactive}) it keeps rewriting one line, ending it when φ reaches 1 or on
- * {@link #close()}; otherwise (a log file, a pipe) it prints one line per iteration, stamped with
- * the UTC time.
+ * Shows a run's progress after each iteration: iteration, temperature (φ, the {@code temperature}
+ * column of iterations.csv), ESS, acceptance rate, likelihood evaluations per second, elapsed time
+ * and an estimate of the time left. On a terminal ({@code interactive}) it keeps rewriting one
+ * line, ending it when the temperature reaches 1 or on {@link #close()}; otherwise (a log file, a
+ * pipe) it prints one line per iteration, stamped with the UTC time and, when it has one, the
+ * run's name. {@link #announce} says which analysis starts.
  *
  * <p>The estimate of time left assumes that log φ advances at a steady pace per second: adaptive
  * tempering takes small steps at first and grows φ roughly geometrically once the likelihood
@@ -27,7 +28,9 @@ import org.skerry.engine.sampler.IterationRecord;
  * is measured from the end of the first tempering iteration (the initial draw is left out, its
  * cost is different), so there is no estimate until the second. It is shown with a {@code ~}.
  *
- * <p>φ is shown rounded down to 4 decimals, so {@code 1.0000} appears only when the run is done.
+ * <p>φ is shown rounded down to 4 decimals, so {@code 1.0000} appears only when the run is done;
+ * below 0.001 (early iterations of a sharp likelihood) with three significant digits instead
+ * ({@code 2.31e-06}), so that it does not read as zero.
  * <p>After an iteration with invalid likelihood evaluations it writes one warning line (in both
  * forms) with their count and the lowest-indexed failing particle: its parameter values and the
  * reason.
@@ -43,6 +46,7 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
     private final Clock clock;
     private final Instant start;
     private final List<String> parameterNames;
+    private final String label;
 
     private long evaluations;
     private Instant paceStart;
@@ -74,6 +78,15 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
      *                       null to name values by position
      */
     public ProgressDisplay(PrintWriter out, boolean interactive, Clock clock, List<String> parameterNames) {
+        this(out, interactive, clock, parameterNames, null);
+    }
+
+    /**
+     * @param label the run's name, put on every line in log mode (a terminal line has no room for
+     *              it: {@link #announce} names the run before it starts), or null
+     */
+    public ProgressDisplay(PrintWriter out, boolean interactive, Clock clock, List<String> parameterNames,
+            String label) {
         if (out == null) {
             throw new IllegalArgumentException("out must not be null");
         }
@@ -85,6 +98,16 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
         this.clock = clock;
         this.start = clock.instant();
         this.parameterNames = parameterNames == null ? null : List.copyOf(parameterNames);
+        this.label = label == null || label.isEmpty() ? null : label;
+    }
+
+    /** Writes one line naming the analysis that starts (e.g. its name, model, N and run folder). */
+    public synchronized void announce(String text) {
+        if (lineOpen) {
+            endLine();
+        }
+        out.println(interactive ? text : STAMP.format(clock.instant().truncatedTo(ChronoUnit.SECONDS)) + " " + text);
+        out.flush();
     }
 
     @Override
@@ -111,7 +134,8 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
                 endLine();
             }
         } else {
-            out.println(STAMP.format(now.truncatedTo(ChronoUnit.SECONDS)) + " " + fields);
+            out.println(STAMP.format(now.truncatedTo(ChronoUnit.SECONDS)) + " " + (label == null ? "" : label + "  ")
+                    + fields);
         }
         if (record.invalidEvaluations() > 0) {
             if (lineOpen) {
@@ -171,14 +195,21 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
         String rate = seconds > 0 ? count(evaluations / seconds) : "-";
         String acceptance = Double.isNaN(record.acceptanceRate()) ? "-"
                 : String.format(Locale.ROOT, "%.0f%%", 100 * record.acceptanceRate());
-        return String.format(Locale.ROOT, "iter %d  phi %s  ESS %.0f  acc %s  %s eval/s  %s  %s",
+        return String.format(Locale.ROOT, "iter %d  temperature %s  ESS %.0f  acc %s  %s eval/s  %s  %s",
                 record.iteration(), temperature(record.temperature()), record.ess(), acceptance, rate,
                 clockTime(seconds), remaining);
     }
 
-    private static String temperature(double phi) {
+    /** 0, 2.31e-06 (below 0.001), 0.0230, 0.9999, 1.0000. */
+    static String temperature(double phi) {
         if (!Double.isFinite(phi)) {
             return String.valueOf(phi);
+        }
+        if (phi == 0) {
+            return "0";
+        }
+        if (Math.abs(phi) < 1e-3) {
+            return String.format(Locale.ROOT, "%.2e", phi);
         }
         return new BigDecimal(phi).setScale(4, RoundingMode.DOWN).toPlainString();
     }

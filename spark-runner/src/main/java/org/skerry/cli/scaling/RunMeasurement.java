@@ -25,7 +25,7 @@ import org.skerry.engine.sampler.PhaseTimes;
  * @param evaluations     likelihood evaluations of the run
  * @param wallSeconds     the whole run as {@code skerry run} times it (backend start-up included)
  * @param phases          seconds per phase, summed over iterations
- * @param particlesMoved  particles that changed block while rebalancing, summed over iterations
+ * @param particlesMoved  particles sent to another partition (block) while rebalancing, summed over iterations
  * @param loopBytes       bytes of task results the driver received, the final export excepted
  * @param exportBytes     bytes of task results of the final export of the particles
  * @param driverCpuSeconds CPU time of the driver thread over iterations 1 … T
@@ -51,7 +51,7 @@ public record RunMeasurement(int iterations, int particles, long partitions, lon
         map.put("particles", particles);
         map.put("partitions", partitions);
         map.put("evaluations", evaluations);
-        map.put("wallSeconds", wallSeconds);
+        map.put("wall_seconds", wallSeconds);
         Map<String, Object> phaseMap = new LinkedHashMap<>();
         phaseMap.put("evaluate", phases.evaluate());
         phaseMap.put("temperature", phases.temperature());
@@ -61,12 +61,12 @@ public record RunMeasurement(int iterations, int particles, long partitions, lon
         phaseMap.put("fit", phases.fit());
         phaseMap.put("move", phases.move());
         phaseMap.put("checkpoint", phases.checkpoint());
-        map.put("phaseSeconds", phaseMap);
-        map.put("particlesMoved", particlesMoved);
-        map.put("driverBytesReceived", loopBytes);
-        map.put("exportBytesReceived", exportBytes);
-        map.put("driverCpuSeconds", driverCpuSeconds);
-        map.put("loadAverage", loadAverage);
+        map.put("phase_seconds", phaseMap);
+        map.put("particles_sent_to_other_partitions", particlesMoved);
+        map.put("driver_bytes_received", loopBytes);
+        map.put("export_bytes_received", exportBytes);
+        map.put("driver_cpu_seconds", driverCpuSeconds);
+        map.put("load_average", loadAverage);
         map.put("backend", backend);
         String json = ConfigFactory.parseMap(map).root().render(ConfigRenderOptions.concise().setFormatted(true));
         AtomicFile.writeString(folder.resolve(FILE_NAME), json + "\n");
@@ -81,18 +81,18 @@ public record RunMeasurement(int iterations, int particles, long partitions, lon
         try {
             Config c = ConfigFactory.parseFile(file.toFile());
             return new RunMeasurement(c.getInt("iterations"), c.getInt("particles"), c.getLong("partitions"),
-                    c.getLong("evaluations"), c.getDouble("wallSeconds"), phases(c), c.getLong("particlesMoved"),
-                    c.getLong("driverBytesReceived"), c.getLong("exportBytesReceived"), c.getDouble("driverCpuSeconds"),
-                    c.getDouble("loadAverage"), c.getString("backend"));
+                    c.getLong("evaluations"), c.getDouble("wall_seconds"), phases(c),
+                    c.getLong("particles_sent_to_other_partitions"), c.getLong("driver_bytes_received"),
+                    c.getLong("export_bytes_received"), c.getDouble("driver_cpu_seconds"), c.getDouble("load_average"), c.getString("backend"));
         } catch (ConfigException e) {
             throw new IllegalStateException("cannot read " + file + " (remove the run folder to run it again): "
                     + e.getMessage(), e);
         }
     }
 
-    /** The {@code phaseSeconds} object of this file or of a run's {@code timing.json}. */
+    /** The {@code phase_seconds} object of this file or of a run's {@code timing.json}. */
     static PhaseTimes phases(Config file) {
-        Config p = file.getConfig("phaseSeconds");
+        Config p = file.getConfig("phase_seconds");
         return new PhaseTimes(p.getDouble("evaluate"), p.getDouble("temperature"), p.getDouble("reweight"),
                 p.getDouble("resample"), p.getDouble("redistribute"), p.getDouble("fit"), p.getDouble("move"),
                 p.hasPath("checkpoint") ? p.getDouble("checkpoint") : 0);

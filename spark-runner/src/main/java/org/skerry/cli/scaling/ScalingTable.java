@@ -97,7 +97,7 @@ final class ScalingTable {
         }
         columns.addAll(List.of("iterations", "evaluations", "wall_seconds", "loop_seconds", "evaluate_seconds",
                 "reduce_seconds", "resample_seconds", "redistribute_seconds", "move_seconds", "checkpoint_seconds",
-                "temperature_seconds", "reweight_seconds", "fit_seconds", "particles_moved", "driver_bytes_received",
+                "temperature_seconds", "reweight_seconds", "fit_seconds", "particles_sent_to_other_partitions", "driver_bytes_received",
                 "driver_bytes_per_iteration", "export_bytes_received", "driver_cpu_seconds_per_iteration",
                 "evaluations_per_second", "speedup", "efficiency", "load_average", "run_folder"));
         return columns;

@@ -127,7 +127,7 @@ final class StudyRunner {
             Config timing = ConfigFactory.parseFile(folder.resolve(TimingJson.FILE_NAME).toFile());
             Config summary = ConfigFactory.parseFile(folder.resolve(SummaryJson.FILE_NAME).toFile());
             return new RunMeasurement(summary.getInt("iterations"), point.spec().sampler().particles(), -1,
-                    summary.getLong("likelihoodEvaluations"), timing.getDouble("wallSeconds"),
+                    summary.getLong("likelihood_evaluations"), timing.getDouble("wall_seconds"),
                     RunMeasurement.phases(timing), -1, -1, -1, -1,
                     -1, timing.getString("backend"));
         } catch (ConfigException e) {

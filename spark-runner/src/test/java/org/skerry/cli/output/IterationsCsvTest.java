@@ -29,7 +29,7 @@ class IterationsCsvTest {
     private static List<CSVRecord> read(Path file) throws IOException {
         try (Reader in = Files.newBufferedReader(file);
                 CSVParser parser = CSVParser.parse(in, CSVFormat.RFC4180.builder().setHeader().setSkipHeaderRecord(true).get())) {
-            assertEquals(List.of("iteration", "temperature", "ess", "resampled", "distinct_ancestors", "particles_moved",
+            assertEquals(List.of("iteration", "temperature", "ess", "resampled", "distinct_ancestors", "particles_sent_to_other_partitions",
                     "acceptance", "mh_steps", "scale", "log_evidence_increment", "log_evidence", "evaluations",
                     "zero_likelihood", "invalid", "first_invalid_particle", "first_invalid_reason", "seconds_evaluate",
                     "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_redistribute", "seconds_fit",
@@ -49,7 +49,7 @@ class IterationsCsvTest {
         assertSameDouble(r.ess(), row.get("ess"));
         assertEquals(Boolean.toString(r.resampled()), row.get("resampled"));
         assertEquals(r.distinctAncestors(), Long.parseLong(row.get("distinct_ancestors")));
-        assertEquals(r.particlesMoved(), Long.parseLong(row.get("particles_moved")));
+        assertEquals(r.particlesMoved(), Long.parseLong(row.get("particles_sent_to_other_partitions")));
         assertSameDouble(r.acceptanceRate(), row.get("acceptance"));
         assertEquals(r.mhSteps(), Integer.parseInt(row.get("mh_steps")));
         assertSameDouble(r.scale(), row.get("scale"));

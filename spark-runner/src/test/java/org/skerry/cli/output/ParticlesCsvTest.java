@@ -39,12 +39,12 @@ class ParticlesCsvTest {
         FinalParticles particles = result.particles();
         Path file = ParticlesCsv.write(folder, List.of("mu_a", "mu \"b\", second"), particles, result.normalisedWeights());
         List<CSVRecord> records = read(file);
-        assertEquals(List.of("mu_a", "mu \"b\", second", "weight"), records.get(0).toList());
+        assertEquals(List.of("mu_a", "mu \"b\", second", "weight", "log_likelihood", "log_prior"), records.get(0).toList());
         assertEquals(particles.size() + 1, records.size());
         BigDecimal total = BigDecimal.ZERO;
         for (int i = 0; i < particles.size(); i++) {
             CSVRecord row = records.get(i + 1);
-            assertEquals(3, row.size());
+            assertEquals(5, row.size());
             for (int k = 0; k < 2; k++) {
                 assertEquals(Double.doubleToRawLongBits(particles.value(i, k)),
                         Double.doubleToRawLongBits(Double.parseDouble(row.get(k))), "row " + i + " column " + k);
@@ -52,6 +52,10 @@ class ParticlesCsvTest {
             double weight = Double.parseDouble(row.get(2));
             assertEquals(Double.doubleToRawLongBits(result.normalisedWeights()[i]), Double.doubleToRawLongBits(weight));
             total = total.add(new BigDecimal(row.get(2)));
+            assertEquals(Double.doubleToRawLongBits(particles.logLikelihood()[i]),
+                    Double.doubleToRawLongBits(Double.parseDouble(row.get(3))), "log_likelihood of row " + i);
+            assertEquals(Double.doubleToRawLongBits(particles.logPrior()[i]),
+                    Double.doubleToRawLongBits(Double.parseDouble(row.get(4))), "log_prior of row " + i);
         }
         assertEquals(1.0, total.doubleValue(), 1e-12);
     }
@@ -72,14 +76,17 @@ class ParticlesCsvTest {
     @DisplayName("names that do not fit the particles are refused before anything is written")
     void badNames() {
         FinalParticles particles = new FinalParticles(2, 1, new double[] {1, 2}, new double[] {0}, new double[] {0},
-                new long[] {0}, new long[] {0});
+                new double[] {0}, new long[] {0}, new long[] {0});
         double[] w = {1.0};
         assertTrue(assertThrows(IllegalArgumentException.class,
                 () -> ParticlesCsv.write(folder, List.of("a"), particles, w)).getMessage().contains("one name per parameter (2)"));
         assertTrue(assertThrows(IllegalArgumentException.class,
                 () -> ParticlesCsv.write(folder, List.of("a", "a"), particles, w)).getMessage().contains("'a' appears twice"));
         assertTrue(assertThrows(IllegalArgumentException.class,
-                () -> ParticlesCsv.write(folder, List.of("a", "weight"), particles, w)).getMessage().contains("weight column"));
+                () -> ParticlesCsv.write(folder, List.of("a", "weight"), particles, w)).getMessage().contains("named 'weight'"));
+        assertTrue(assertThrows(IllegalArgumentException.class,
+                () -> ParticlesCsv.write(folder, List.of("log_prior", "b"), particles, w)).getMessage()
+                .contains("named 'log_prior', which is the name of a column"));
         assertTrue(assertThrows(IllegalArgumentException.class,
                 () -> ParticlesCsv.write(folder, List.of("a", "b"), particles, new double[2])).getMessage().contains("one weight per particle (1), got 2"));
         assertTrue(!Files.exists(folder.resolve("particles.csv")));

@@ -35,21 +35,23 @@ class SummaryJsonTest {
     @DisplayName("summary.json of a real run reads back with Jackson to exactly the result's values")
     void readsBackExactly() throws IOException {
         SamplerResult result = EngineRuns.normalMean(5, 2);
-        Path file = SummaryJson.write(folder, "normal-mean", 5, result);
+        Path file = SummaryJson.write(folder, "beads", "normal-mean", 5, result);
         assertEquals(folder.resolve("summary.json"), file);
         Map<String, Object> json = JsonTree.read(file);
 
-        assertEquals(List.of("logEvidence", "logEvidenceError", "logEvidenceErrorReliable", "logEvidenceErrorWarning",
-                "distinctAncestorsAtEnd", "islands", "islandLogEvidenceError", "parameters", "iterations", "likelihoodEvaluations",
-                "zeroLikelihoodEvaluations", "invalidEvaluations", "retriedEvaluations", "failedAfterRetries", "firstInvalid",
-                "particles", "seed", "model"),
+        assertEquals(List.of("name", "model", "log_evidence", "log_evidence_error", "log_evidence_error_reliable", "log_evidence_error_warning",
+                "distinct_ancestors_at_end", "islands", "island_log_evidence_error", "parameters", "iterations", "likelihood_evaluations",
+                "zero_likelihood_evaluations", "invalid_evaluations", "retried_evaluations", "failed_after_retries", "first_invalid",
+                "particles", "seed"),
                 new ArrayList<>(json.keySet()));
+        assertEquals("beads", json.get("name"), "summary.json names its run");
+        assertEquals("normal-mean", json.get("model"));
         EvidenceEstimate evidence = result.evidence();
-        assertSameDouble(evidence.logEvidence(), json.get("logEvidence"), "logEvidence");
-        assertSameDouble(evidence.standardError(), json.get("logEvidenceError"), "logEvidenceError");
-        assertEquals(evidence.reliable(), json.get("logEvidenceErrorReliable"));
-        assertEquals(evidence.warning(), json.get("logEvidenceErrorWarning"));
-        assertEquals(evidence.distinctEves(), json.get("distinctAncestorsAtEnd"));
+        assertSameDouble(evidence.logEvidence(), json.get("log_evidence"), "log_evidence");
+        assertSameDouble(evidence.standardError(), json.get("log_evidence_error"), "log_evidence_error");
+        assertEquals(evidence.reliable(), json.get("log_evidence_error_reliable"));
+        assertEquals(evidence.warning(), json.get("log_evidence_error_warning"));
+        assertEquals(evidence.distinctEves(), json.get("distinct_ancestors_at_end"));
 
         @SuppressWarnings("unchecked")
         Map<String, Object> parameters = (Map<String, Object>) json.get("parameters");
@@ -61,9 +63,9 @@ class SummaryJsonTest {
         for (ParameterSummary p : result.parameters()) {
             @SuppressWarnings("unchecked")
             Map<String, Object> s = (Map<String, Object>) parameters.get(p.name());
-            assertEquals(List.of("mean", "sd", "q025", "q050", "q250", "q500", "q750", "q950", "q975"),
+            assertEquals(List.of("mean", "sd", "q2_5", "q5", "q25", "q50", "q75", "q95", "q97_5"),
                     new ArrayList<>(s.keySet()));
-            double[] expected = {p.mean(), p.sd(), p.q025(), p.q050(), p.q250(), p.q500(), p.q750(), p.q950(), p.q975()};
+            double[] expected = {p.mean(), p.sd(), p.q2_5(), p.q5(), p.q25(), p.q50(), p.q75(), p.q95(), p.q97_5()};
             int k = 0;
             for (Object value : s.values()) {
                 assertSameDouble(expected[k++], value, p.name());
@@ -71,13 +73,13 @@ class SummaryJsonTest {
         }
         assertEquals((long) result.iterationCount(), json.get("iterations"));
         assertEquals(result.iterations().size() - 1L, json.get("iterations"));
-        assertEquals(result.evaluations().evaluations(), json.get("likelihoodEvaluations"));
-        assertEquals(0L, json.get("zeroLikelihoodEvaluations"));
-        assertEquals(0L, json.get("invalidEvaluations"));
-        assertEquals(0L, json.get("retriedEvaluations"));
-        assertEquals(0L, json.get("failedAfterRetries"));
-        assertTrue(json.containsKey("firstInvalid"));
-        assertNull(json.get("firstInvalid"));
+        assertEquals(result.evaluations().evaluations(), json.get("likelihood_evaluations"));
+        assertEquals(0L, json.get("zero_likelihood_evaluations"));
+        assertEquals(0L, json.get("invalid_evaluations"));
+        assertEquals(0L, json.get("retried_evaluations"));
+        assertEquals(0L, json.get("failed_after_retries"));
+        assertTrue(json.containsKey("first_invalid"));
+        assertNull(json.get("first_invalid"));
         assertEquals(400L, json.get("particles"));
         assertEquals(5L, json.get("seed"));
         assertEquals("normal-mean", json.get("model"));
@@ -91,9 +93,9 @@ class SummaryJsonTest {
         EvaluationTally tally = result.evaluations();
         assertTrue(tally.invalid() > 0, "the run should meet invalid evaluations");
         Map<String, Object> json = JsonTree.read(SummaryJson.write(folder, "fragile \"test\" model", 11, result));
-        assertEquals(tally.invalid(), json.get("invalidEvaluations"));
+        assertEquals(tally.invalid(), json.get("invalid_evaluations"));
         @SuppressWarnings("unchecked")
-        Map<String, Object> first = (Map<String, Object>) json.get("firstInvalid");
+        Map<String, Object> first = (Map<String, Object>) json.get("first_invalid");
         assertNotNull(first);
         assertEquals(List.of("iteration", "particle", "reason", "parameters"), new ArrayList<>(first.keySet()));
         long firstIteration = result.iterations().stream().filter(r -> r.invalidEvaluations() > 0).findFirst()
@@ -128,7 +130,7 @@ class SummaryJsonTest {
     @DisplayName("numbers that are not finite are written as null; a warning is written as text")
     void nonFiniteAsNull() throws IOException {
         FinalParticles particles = new FinalParticles(1, 2, new double[] {0.5, 1.5}, new double[] {0, 0},
-                new double[] {0, 0}, new long[] {0, 1}, new long[] {0, 0});
+                new double[] {0, 0}, new double[] {0, 0}, new long[] {0, 1}, new long[] {0, 0});
         SamplerResult result = new SamplerResult(
                 new EvidenceEstimate(-3.25, Double.NaN, Double.NaN, 1, false, "only 1 distinct ancestor", 0, Double.NaN),
                 List.of(new ParameterSummary("x", 1.0, 0.5, 0.5, 0.5, 0.5, 0.5, 1.5, 1.5, Double.POSITIVE_INFINITY)),
@@ -136,14 +138,14 @@ class SummaryJsonTest {
                 new org.skerry.engine.sampler.StepCapReport(0, 0, 20));
         Path file = SummaryJson.write(folder, "m", -1, result);
         Map<String, Object> json = JsonTree.read(file);
-        assertTrue(json.containsKey("logEvidenceError"));
-        assertNull(json.get("logEvidenceError"));
-        assertEquals(Boolean.FALSE, json.get("logEvidenceErrorReliable"));
-        assertEquals("only 1 distinct ancestor", json.get("logEvidenceErrorWarning"));
+        assertTrue(json.containsKey("log_evidence_error"));
+        assertNull(json.get("log_evidence_error"));
+        assertEquals(Boolean.FALSE, json.get("log_evidence_error_reliable"));
+        assertEquals("only 1 distinct ancestor", json.get("log_evidence_error_warning"));
         @SuppressWarnings("unchecked")
         Map<String, Object> x = (Map<String, Object>) ((Map<String, Object>) json.get("parameters")).get("x");
-        assertNull(x.get("q975"));
-        assertTrue(x.containsKey("q975"));
+        assertNull(x.get("q97_5"));
+        assertTrue(x.containsKey("q97_5"));
         assertEquals(-1L, json.get("seed"));
         assertEquals(-1L, json.get("iterations"));
     }

@@ -36,11 +36,11 @@ class TimingJsonTest {
         Instant start = Instant.parse("2025-03-01T09:30:00.250Z");
         RunEnvironment environment = new RunEnvironment("0.1.0", "17.0.9", "Vendor \"X\"", null, "threads(4)", start);
         Map<String, Object> json = JsonTree.read(TimingJson.write(folder, environment, 12.75, records));
-        assertEquals(List.of("wallSeconds", "phaseSeconds", "programVersion", "javaVersion", "javaVendor", "host",
-                "backend", "startedAt"), new ArrayList<>(json.keySet()));
-        assertEquals(12.75, json.get("wallSeconds"));
+        assertEquals(List.of("wall_seconds", "phase_seconds", "program_version", "java_version", "java_vendor", "host",
+                "backend", "started_at"), new ArrayList<>(json.keySet()));
+        assertEquals(12.75, json.get("wall_seconds"));
         @SuppressWarnings("unchecked")
-        Map<String, Object> phases = (Map<String, Object>) json.get("phaseSeconds");
+        Map<String, Object> phases = (Map<String, Object>) json.get("phase_seconds");
         assertEquals(List.of("evaluate", "temperature", "reweight", "resample", "redistribute", "fit", "move",
                 "checkpoint"), new ArrayList<>(phases.keySet()));
         assertEquals(0.5, phases.get("evaluate"));
@@ -50,13 +50,13 @@ class TimingJsonTest {
         assertEquals(new BigDecimal("0.675").doubleValue(), (Double) phases.get("resample"), 1e-15);
         assertEquals(new BigDecimal("0.4625").doubleValue(), (Double) phases.get("fit"), 1e-15);
         assertEquals(new BigDecimal("2.2").doubleValue(), (Double) phases.get("move"), 1e-15);
-        assertEquals("0.1.0", json.get("programVersion"));
-        assertEquals("17.0.9", json.get("javaVersion"));
-        assertEquals("Vendor \"X\"", json.get("javaVendor"));
+        assertEquals("0.1.0", json.get("program_version"));
+        assertEquals("17.0.9", json.get("java_version"));
+        assertEquals("Vendor \"X\"", json.get("java_vendor"));
         assertNull(json.get("host"));
         assertEquals("threads(4)", json.get("backend"));
-        assertEquals(start, Instant.parse((String) json.get("startedAt")));
-        assertEquals("2025-03-01T09:30:00.250Z", json.get("startedAt"));
+        assertEquals(start, Instant.parse((String) json.get("started_at")));
+        assertEquals("2025-03-01T09:30:00.250Z", json.get("started_at"));
     }
 
     @Test

@@ -88,14 +88,14 @@ class ProgressDisplayTest {
         assertEquals(text.indexOf(NL), text.length() - NL.length(), "exactly one line end, at the end");
         List<String> shown = List.of(text.substring(1, text.length() - NL.length()).split("\r"));
         assertEquals(4, shown.size());
-        assertEquals("iter 0  phi 0.0000  ESS 1000  acc -  500 eval/s  0:00:02  left ?", shown.get(0));
+        assertEquals("iter 0  temperature 0  ESS 1000  acc -  500 eval/s  0:00:02  left ?", shown.get(0));
         // 4000 evaluations in 4 s; no pace measured before the end of iteration 1.
-        assertTrue(shown.get(1).startsWith("iter 1  phi 0.0010  ESS 499  acc 50%  1000 eval/s  0:00:04  left ?"),
+        assertTrue(shown.get(1).startsWith("iter 1  temperature 0.0010  ESS 499  acc 50%  1000 eval/s  0:00:04  left ?"),
                 shown.get(1));
         // log φ went from log 10⁻³ to log 10⁻² in 2 s; log 1 is as far again twice over: 4 s.
-        assertTrue(shown.get(2).startsWith("iter 2  phi 0.0100  ESS 512  acc 23%  1000 eval/s  0:00:06  left ~0:00:04"),
+        assertTrue(shown.get(2).startsWith("iter 2  temperature 0.0100  ESS 512  acc 23%  1000 eval/s  0:00:06  left ~0:00:04"),
                 shown.get(2));
-        assertTrue(shown.get(3).startsWith("iter 3  phi 1.0000  ESS 700  acc 25%  8000 eval/s  0:00:08  done"),
+        assertTrue(shown.get(3).startsWith("iter 3  temperature 1.0000  ESS 700  acc 25%  8000 eval/s  0:00:08  done"),
                 shown.get(3));
         for (int i = 1; i < shown.size(); i++) {
             assertTrue(shown.get(i).length() >= shown.get(i - 1).strip().length(),
@@ -128,10 +128,10 @@ class ProgressDisplayTest {
         assertFalse(text.contains("\r"));
         String[] lines = text.split(NL);
         assertEquals(4, lines.length);
-        assertEquals("2025-03-01T09:30:02Z iter 0  phi 0.0000  ESS 1000  acc -  500 eval/s  0:00:02  left ?", lines[0]);
-        assertEquals("2025-03-01T09:30:06Z iter 2  phi 0.0100  ESS 512  acc 23%  1000 eval/s  0:00:06  left ~0:00:04",
+        assertEquals("2025-03-01T09:30:02Z iter 0  temperature 0  ESS 1000  acc -  500 eval/s  0:00:02  left ?", lines[0]);
+        assertEquals("2025-03-01T09:30:06Z iter 2  temperature 0.0100  ESS 512  acc 23%  1000 eval/s  0:00:06  left ~0:00:04",
                 lines[2]);
-        assertEquals("2025-03-01T09:30:08Z iter 3  phi 1.0000  ESS 700  acc 25%  8000 eval/s  0:00:08  done", lines[3]);
+        assertEquals("2025-03-01T09:30:08Z iter 3  temperature 1.0000  ESS 700  acc 25%  8000 eval/s  0:00:08  done", lines[3]);
         assertTrue(text.endsWith(NL));
     }
 
@@ -145,8 +145,47 @@ class ProgressDisplayTest {
         display.iterationFinished(record(1, 0.99999, 10, 0.5, 0));
         String[] lines = text().split(NL);
         assertTrue(lines[0].contains("26.8k eval/s  1:02:05"), lines[0]);
-        assertTrue(lines[1].contains("phi 0.9999 "), lines[1]);
+        assertTrue(lines[1].contains("temperature 0.9999 "), lines[1]);
         assertEquals("12:00:00", ProgressDisplay.clockTime(43_200));
+    }
+
+    @Test
+    @DisplayName("temperatures below 0.001 show three significant digits, not 0.0000")
+    void tinyTemperatures() {
+        assertEquals("0", ProgressDisplay.temperature(0.0));
+        assertEquals("2.31e-06", ProgressDisplay.temperature(2.3149e-6));
+        assertEquals("9.99e-04", ProgressDisplay.temperature(0.000999));
+        assertEquals("0.0010", ProgressDisplay.temperature(0.001));
+        assertEquals("0.9999", ProgressDisplay.temperature(0.99999));
+        assertEquals("1.0000", ProgressDisplay.temperature(1.0));
+        ProgressDisplay display = new ProgressDisplay(out, false, clock);
+        clock.advance(1);
+        display.iterationFinished(record(1, 4.2e-9, 500, 0.3, 10));
+        assertTrue(text().contains("iter 1  temperature 4.20e-09  ESS 500"), text());
+    }
+
+    @Test
+    @DisplayName("log mode names the run on every line; announce() names the analysis before it starts")
+    void namesTheRun() {
+        ProgressDisplay display = new ProgressDisplay(out, false, clock, List.of("mu"), "beads");
+        display.announce("running beads: model normal-mean, 200 particles, seed 7; run folder r1");
+        clock.advance(2);
+        display.iterationFinished(record(0, 0.0, 1000, Double.NaN, 1000));
+        String[] lines = text().split(NL);
+        assertEquals("2025-03-01T09:30:00Z running beads: model normal-mean, 200 particles, seed 7; run folder r1",
+                lines[0]);
+        assertEquals("2025-03-01T09:30:02Z beads  iter 0  temperature 0  ESS 1000  acc -  500 eval/s  0:00:02  left ?",
+                lines[1]);
+    }
+
+    @Test
+    @DisplayName("interactive: the announcement stands on its own line before the live line")
+    void announceInteractive() {
+        ProgressDisplay display = new ProgressDisplay(out, true, clock, null, "beads");
+        display.announce("running beads");
+        clock.advance(2);
+        display.iterationFinished(record(0, 0.0, 1000, Double.NaN, 1000));
+        assertTrue(text().startsWith("running beads" + NL + "\riter 0  temperature 0  ESS 1000"), text());
     }
 
     private static IterationRecord failing(int iteration, double phi, long invalid, long retried, long stillInvalid) {

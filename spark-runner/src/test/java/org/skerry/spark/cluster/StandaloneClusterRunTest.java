@@ -112,7 +112,7 @@ class StandaloneClusterRunTest {
         run(local(runFile, dir.resolve("local-run")).toArray(new String[0]));
         assertSameFiles(dir.resolve("cluster-run"), dir.resolve("local-run"));
 
-        Matcher m = Pattern.compile("\"logEvidence\"\\s*:\\s*([-0-9.eE+]+)[\\s\\S]*\"logEvidenceError\"\\s*:\\s*([0-9.eE+-]+)")
+        Matcher m = Pattern.compile("\"log_evidence\"\\s*:\\s*([-0-9.eE+]+)[\\s\\S]*\"log_evidence_error\"\\s*:\\s*([0-9.eE+-]+)")
                 .matcher(Files.readString(dir.resolve("cluster-run/summary.json")));
         assertTrue(m.find());
         double logZ = Double.parseDouble(m.group(1));

@@ -43,6 +43,32 @@ public final class PriorSettings {
         return NAMES;
     }
 
+    /**
+     * What distribution {@code name} is, in one line: its density or definition, the range of its
+     * parameters and the values it takes (for {@code skerry models}); fails naming the known names.
+     */
+    public static String description(String name) {
+        switch (name) {
+            case "normal":
+                return "mean and standard deviation sd > 0; any real value";
+            case "lognormal":
+                return "the log of the value is normal(meanlog, sdlog), sdlog > 0; median exp(meanlog); values > 0";
+            case "uniform":
+                return "flat between finite bounds lower < upper; values in (lower, upper)";
+            case "gamma":
+                return "density rate^shape x^(shape-1) exp(-rate x) / Gamma(shape), shape, rate > 0; "
+                        + "mean shape/rate; values > 0";
+            case "beta":
+                return "density x^(a-1) (1-x)^(b-1) / B(a, b), a, b > 0; mean a/(a+b); values in (0, 1)";
+            case "half-normal":
+                return "|normal(0, sd)|, sd > 0; mean sd*sqrt(2/pi); values > 0";
+            case "exponential":
+                return "density rate exp(-rate x), rate > 0; mean 1/rate; values > 0";
+            default:
+                return parameterKeys(name).toString(); // fails with the known names
+        }
+    }
+
     /** The parameter keys of distribution {@code name}, or fails naming the known names. */
     public static List<String> parameterKeys(String name) {
         switch (name) {

@@ -86,6 +86,7 @@ final class ThreadPopulation implements Population {
     @Override
     public TemperingInputs temperingInputs() {
         double[] logWeight = new double[size];
+        double[] logPrior = new double[size];
         double[] logLikelihood = new double[size];
         int[] blockSizes = new int[blocks.size()];
         int offset = 0;
@@ -155,6 +156,7 @@ final class ThreadPopulation implements Population {
         int d = model.dimension();
         double[] values = new double[size * d];
         double[] logWeight = new double[size];
+        double[] logPrior = new double[size];
         double[] logLikelihood = new double[size];
         long[] index = new long[size];
         long[] eve = new long[size];
@@ -164,12 +166,13 @@ final class ThreadPopulation implements Population {
                 int at = (int) block.index()[i];
                 System.arraycopy(block.values(), i * d, values, at * d, d);
                 logWeight[at] = block.logWeight()[i];
+                logPrior[at] = block.logPrior()[i];
                 logLikelihood[at] = block.logLikelihood()[i];
                 index[at] = block.index()[i];
                 eve[at] = block.eve()[i];
             }
         }
-        return new FinalParticles(d, size, values, logWeight, logLikelihood, index, eve);
+        return new FinalParticles(d, size, values, logWeight, logPrior, logLikelihood, index, eve);
     }
 
     @Override

@@ -67,10 +67,10 @@ class PlanktonCalibrationTest {
                 invalid += result.evaluations().invalid();
                 for (int i = 0; i < d; i++) {
                     ParameterSummary s = result.parameters().get(i);
-                    if (s.q025() <= truth[i] && truth[i] <= s.q975()) {
+                    if (s.q2_5() <= truth[i] && truth[i] <= s.q97_5()) {
                         covered95[i]++;
                     }
-                    if (s.q250() <= truth[i] && truth[i] <= s.q750()) {
+                    if (s.q25() <= truth[i] && truth[i] <= s.q75()) {
                         covered50[i]++;
                     }
                 }
