@@ -69,6 +69,14 @@ class SlippedInputTest {
     }
 
     @Test
+    @DisplayName("sampler.moves.target-acceptance must be auto or a number in (0, 1)")
+    void targetAcceptance() throws IOException {
+        goodData();
+        expectBadRun(write("run.conf", GOOD + "sampler.moves.target-acceptance = fast\n"), "run.conf: line 7",
+                "sampler.moves.target-acceptance", "auto");
+    }
+
+    @Test
     @DisplayName("sampler.particles = 200.7 is refused, not truncated to 200")
     void fractionalParticles() throws IOException {
         goodData();
