@@ -58,7 +58,7 @@ class JavaVersionsTest {
         for (int version : VERSIONS) {
             Path out = dir.resolve("java-" + version);
             running.put(version, ProgramProcess.start(jdks.get(version), dir.resolve("java-" + version + ".log"),
-                    "run", DEMO_RUN.toString(), "--out", out.toString(), "--set", "sampler.particles=100",
+                    "run", DEMO_RUN.toString(), "--out", out.toString(), "--set", "sampler.particles=60",
                     "--set", "output.progress=log"));
         }
         for (Map.Entry<Integer, Process> entry : running.entrySet()) {

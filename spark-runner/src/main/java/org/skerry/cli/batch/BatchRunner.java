@@ -207,27 +207,41 @@ public final class BatchRunner {
             Analysis.Outcome outcome = resume ? continueUnfinished(folder, backend, stop, notices)
                     : startAfresh(p, folder, backend, stop, notices);
             progress.finished(label, outcome.wallSeconds());
-        } catch (RunEnded e) {
-            if (e.exitCode() == ExitCodes.STOPPED_RESUMABLE) {
-                progress.stopped(label);
-            } else {
-                String message = e.getMessage();
-                failures.put(label, message);
-                recordFailure(folder, message);
-                progress.failed(label, message);
-            }
         } catch (RuntimeException | LinkageError | StackOverflowError e) {
-            String message = describe(e);
-            failures.put(label, message);
-            recordFailure(folder, message);
-            progress.failed(label, message);
+            if (TerminationSignal.abandoning()) {
+                // The batch was abandoned on a signal and the process is exiting: what fails now is
+                // the shutdown (Spark's jobs cancelled), not the analysis, which stays resumable.
+                return;
+            }
+            recordEnd(label, folder, e, progress);
         } finally {
             running.remove(label);
             if (context != null) {
                 context.setLocalProperty("spark.scheduler.pool", null);
             }
         }
-        writeSummary();
+        if (!TerminationSignal.abandoning()) {
+            writeSummary();
+        }
+    }
+
+    private void recordEnd(String label, Path folder, Throwable e, BatchProgress progress) {
+        if (e instanceof RunEnded) {
+            RunEnded ended = (RunEnded) e;
+            if (ended.exitCode() == ExitCodes.STOPPED_RESUMABLE) {
+                progress.stopped(label);
+            } else {
+                String message = ended.getMessage();
+                failures.put(label, message);
+                recordFailure(folder, message);
+                progress.failed(label, message);
+            }
+            return;
+        }
+        String message = describe(e);
+        failures.put(label, message);
+        recordFailure(folder, message);
+        progress.failed(label, message);
     }
 
     private static Analysis.Outcome startAfresh(BatchSpec.Planned p, Path folder, PopulationBackend backend,
