@@ -147,9 +147,10 @@ public final class Analysis {
         return RunSpec.from(RunFile.load(conf, overrides));
     }
 
+    /** Whether there is a checkpoint to resume from (or a damaged one to report): not only unfinished writes. */
     private static boolean hasCheckpoints(CheckpointFolder checkpoints) {
         try {
-            return !checkpoints.list().isEmpty();
+            return checkpoints.list().stream().anyMatch(found -> !found.unfinished());
         } catch (java.io.IOException e) {
             throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot list the checkpoints in " + checkpoints.files().root()
                     + ": " + e.getMessage(), e);
@@ -181,6 +182,21 @@ public final class Analysis {
             ParticlesCsv.checkParameterNames(built.model().parameters().names());
         } catch (IllegalArgumentException e) {
             throw new RunFileException("model " + spec.modelLabel() + ": " + e.getMessage(), e);
+        }
+    }
+
+    /** Removes what interrupted checkpoint writes left, newer than {@code after}, and says so. */
+    private static void removeUnfinished(CheckpointFolder checkpoints, int after, PrintWriter notices) {
+        try {
+            List<String> removed = checkpoints.removeUnfinished(after);
+            if (!removed.isEmpty()) {
+                say(notices, "removed what an interrupted checkpoint write left in " + checkpoints.files().root()
+                        + ": " + String.join(", ", removed));
+            }
+        } catch (java.io.IOException e) {
+            // Harmless leftovers: the next write of that iteration replaces its folder.
+            say(notices, "could not remove the leftovers of an interrupted checkpoint write in "
+                    + checkpoints.files().root() + ": " + e.getMessage());
         }
     }
 
@@ -223,7 +239,7 @@ public final class Analysis {
             PrintWriter progressOut, boolean resume, IterationListener observer) {
         long start = System.nanoTime();
         try (TerminationSignal signal = TerminationSignal.install(spec.stopGraceSeconds(), progressOut,
-                        ExitCodes.STOPPED_RESUMABLE, System::exit);
+                        ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> whatIsKept(spec, runFolder));
                 Backends.Opened opened = Backends.open(spec, runFolder);
                 ProgressDisplay progress = announced(progress(spec, progressOut, built.model().parameters().names()),
                         spec, runFolder, resume)) {
@@ -239,6 +255,16 @@ public final class Analysis {
                 signal.runEnded();
             }
         }
+    }
+
+    /** For an abandoned run: the checkpoint it stops on, what is lost, and how to continue. */
+    private static String whatIsKept(RunSpec spec, Path runFolder) {
+        int last = spec.checkpointEnabled()
+                ? new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep()).newestComplete() : -1;
+        return (last >= 0 ? "The run stops on the checkpoint of iteration " + last
+                + "; the work since is lost and will be done again"
+                : "No checkpoint was written yet; the run will start again from the beginning")
+                + ". Continue with: skerry resume " + runFolder;
     }
 
     /**
@@ -275,6 +301,7 @@ public final class Analysis {
         if (resume && !hasCheckpoints(checkpoints)) {
             // Stopped before its first checkpoint: nothing is lost by starting again, and the seed
             // makes it the same run.
+            removeUnfinished(checkpoints, -1, notices);
             say(notices, "no checkpoint in " + runFolder + " yet: running it from the start");
             resume = false;
         }
@@ -298,6 +325,7 @@ public final class Analysis {
                     }
                     say(notices, "resuming " + runFolder + " after iteration " + restored.iteration()
                             + " (temperature " + restored.temperature() + ")");
+                    removeUnfinished(checkpoints, restored.iteration(), notices);
                     return restored;
                 });
             } else {

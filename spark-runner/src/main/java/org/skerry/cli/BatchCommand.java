@@ -60,7 +60,7 @@ final class BatchCommand implements Callable<Integer> {
                 + batch.folder().resolve(BatchSummary.JSON_NAME));
         stdout.flush();
         if (result.stopped()) {
-            stdout.println("stopped on a termination signal: unfinished analyses stopped at checkpoints; run the same "
+            stdout.println("stopped on a termination signal or Ctrl-C: unfinished analyses stopped at checkpoints; run the same "
                     + "command again to resume the batch");
             stdout.flush();
             return ExitCodes.STOPPED_RESUMABLE;

@@ -4,6 +4,7 @@ import java.io.PrintWriter;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.scaling.ScaleCommand;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.stop.TerminationSignal;
 import org.skerry.engine.sampler.InvalidEvaluationsException;
 import org.skerry.engine.sampler.SamplingFailedException;
 import picocli.CommandLine;
@@ -37,6 +38,11 @@ public final class SkerryCommand implements Runnable {
         line.setErr(err);
         line.setExecutionExceptionHandler((exception, commandLine, parseResult) -> {
             PrintWriter errors = commandLine.getErr();
+            if (TerminationSignal.abandoning()) {
+                // The run was abandoned on a signal, which said what is kept and how to continue;
+                // this is the shutdown cutting it short (Spark's jobs cancelled), not a failure.
+                return ExitCodes.STOPPED_RESUMABLE;
+            }
             if (exception instanceof RunFileException) {
                 errors.println("skerry: bad input: " + exception.getMessage());
                 errors.flush();

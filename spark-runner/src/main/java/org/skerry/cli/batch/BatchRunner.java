@@ -66,7 +66,7 @@ public final class BatchRunner {
 
     /**
      * What a batch did: the summary rows in batch order, how many analyses failed, ran and were
-     * kept, and whether it stopped on a termination signal (its unfinished analyses resumable).
+     * kept, and whether it stopped on a termination signal or Ctrl-C (its unfinished analyses resumable).
      */
     public record Result(List<BatchSummary.Row> rows, int failed, int ran, int kept, boolean stopped) {
     }
@@ -149,10 +149,12 @@ public final class BatchRunner {
         notices = progressOut;
         // FAIR shares the executors between concurrent analyses instead of letting the first
         // submitted job take every core until it ends (Spark's default, FIFO).
-        // One handler for the whole batch: on SIGTERM every running analysis stops at its next
+        // One handler for the whole batch: on SIGTERM or Ctrl-C every running analysis stops at its next
         // iteration boundary on a checkpoint, and no waiting analysis starts.
         try (TerminationSignal batchSignal = TerminationSignal.install(first.run().stopGraceSeconds(), progressOut,
-                        ExitCodes.STOPPED_RESUMABLE, System::exit);
+                        ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> "The running analyses stop on their "
+                                + "last checkpoints; the work since is lost and will be done again. Continue by running "
+                                + "the same skerry batch command again");
                 Backends.Opened opened = Backends.open(first.run(), spec.folder(), Map.of("spark.scheduler.mode", "FAIR"));
                 BatchProgress progress = new BatchProgress(spec.progress() == RunSpec.Progress.OFF
                         ? new PrintWriter(Writer.nullWriter()) : progressOut, interactive(), toRun.size(), kept,
@@ -205,27 +207,41 @@ public final class BatchRunner {
             Analysis.Outcome outcome = resume ? continueUnfinished(folder, backend, stop, notices)
                     : startAfresh(p, folder, backend, stop, notices);
             progress.finished(label, outcome.wallSeconds());
-        } catch (RunEnded e) {
-            if (e.exitCode() == ExitCodes.STOPPED_RESUMABLE) {
-                progress.stopped(label);
-            } else {
-                String message = e.getMessage();
-                failures.put(label, message);
-                recordFailure(folder, message);
-                progress.failed(label, message);
-            }
         } catch (RuntimeException | LinkageError | StackOverflowError e) {
-            String message = describe(e);
-            failures.put(label, message);
-            recordFailure(folder, message);
-            progress.failed(label, message);
+            if (TerminationSignal.abandoning()) {
+                // The batch was abandoned on a signal and the process is exiting: what fails now is
+                // the shutdown (Spark's jobs cancelled), not the analysis, which stays resumable.
+                return;
+            }
+            recordEnd(label, folder, e, progress);
         } finally {
             running.remove(label);
             if (context != null) {
                 context.setLocalProperty("spark.scheduler.pool", null);
             }
         }
-        writeSummary();
+        if (!TerminationSignal.abandoning()) {
+            writeSummary();
+        }
+    }
+
+    private void recordEnd(String label, Path folder, Throwable e, BatchProgress progress) {
+        if (e instanceof RunEnded) {
+            RunEnded ended = (RunEnded) e;
+            if (ended.exitCode() == ExitCodes.STOPPED_RESUMABLE) {
+                progress.stopped(label);
+            } else {
+                String message = ended.getMessage();
+                failures.put(label, message);
+                recordFailure(folder, message);
+                progress.failed(label, message);
+            }
+            return;
+        }
+        String message = describe(e);
+        failures.put(label, message);
+        recordFailure(folder, message);
+        progress.failed(label, message);
     }
 
     private static Analysis.Outcome startAfresh(BatchSpec.Planned p, Path folder, PopulationBackend backend,

@@ -14,6 +14,7 @@ import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.temper.AdaptiveTemperature;
 import org.skerry.engine.temper.FixedSchedule;
+import org.skerry.spark.checkpoint.CheckpointFileSystem;
 
 /**
  * The typed, checked content of a run file: which model and data, the sampler settings, the
@@ -137,6 +138,10 @@ public final class RunSpec {
                 new org.apache.hadoop.fs.Path(path);
             } catch (IllegalArgumentException e) {
                 throw r.error("checkpoint.path", "is not a path or URI: " + e.getMessage());
+            }
+            String unsupported = checkpointEnabled ? CheckpointFileSystem.unsupportedOnThisJava(path) : null;
+            if (unsupported != null) {
+                throw r.error("checkpoint.path", unsupported);
             }
         }
         this.checkpointPath = path;

@@ -32,7 +32,7 @@ public final class StopRules implements StopCondition {
     public String reasonToStop(SamplerState state, double predictedSeconds) {
         signal.iterationStarting(predictedSeconds);
         if (signal.received()) {
-            return "a termination signal (SIGTERM) arrived";
+            return signal.description() + " arrived";
         }
         if (maxWallTime != null) {
             double elapsed = (System.nanoTime() - startNanos) * 1e-9;

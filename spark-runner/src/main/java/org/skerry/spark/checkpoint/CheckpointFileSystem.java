@@ -10,12 +10,21 @@ import org.apache.hadoop.fs.FSDataOutputStream;
 import org.apache.hadoop.fs.FileSystem;
 import org.apache.hadoop.fs.LocalFileSystem;
 import org.apache.hadoop.fs.Path;
+import org.apache.hadoop.fs.RawLocalFileSystem;
 
 /**
  * How checkpoint code reaches a file system, on the driver and on executors alike: a URI plus the
  * Hadoop settings to open it with (the {@code spark.hadoop.*} entries of the run). The local file
  * system is used raw, without Hadoop's {@code .crc} side files: our manifest holds the checksums.
  * Immutable and serialisable, so it travels inside block stores.
+ *
+ * <p>The local file system ({@code file:} URIs and plain paths) is opened directly, not through
+ * {@link FileSystem#get}: that goes through Hadoop's file-system cache, whose key asks
+ * {@code UserGroupInformation} for the current user, and Hadoop 3.4.2 does that with
+ * {@code Subject.getSubject}, which Java 23 and newer refuse ("getSubject is not supported").
+ * The raw local file system needs no user, so checkpoints on local or shared folders work on every
+ * Java skerry supports; the bytes written are the same either way. Other schemes (HDFS, S3 …)
+ * still need {@code FileSystem.get}: {@link #unsupportedOnThisJava} says when they cannot work.
  */
 public final class CheckpointFileSystem implements Serializable {
 
@@ -59,15 +68,47 @@ public final class CheckpointFileSystem implements Serializable {
         return scheme == null ? "file" : scheme;
     }
 
-    /** The file system, opened once per JVM that holds this object. */
+    /** The file system, opened once per copy of this object (on executors: once per task). */
     public synchronized FileSystem fileSystem() throws IOException {
         if (fileSystem == null) {
             Configuration conf = new Configuration();
             hadoopSettings.forEach(conf::set);
-            FileSystem fs = FileSystem.get(URI.create(root), conf);
-            fileSystem = fs instanceof LocalFileSystem ? ((LocalFileSystem) fs).getRaw() : fs;
+            if (scheme().equals("file") && !hadoopSettings.containsKey("fs.file.impl")) {
+                RawLocalFileSystem local = new RawLocalFileSystem();
+                local.initialize(URI.create("file:///"), conf);
+                fileSystem = local;
+            } else {
+                FileSystem fs = FileSystem.get(URI.create(root), conf);
+                fileSystem = fs instanceof LocalFileSystem ? ((LocalFileSystem) fs).getRaw() : fs;
+            }
         }
         return fileSystem;
+    }
+
+    /**
+     * Why checkpoints under {@code root} cannot be written on the Java running now, or null when
+     * they can: a scheme other than {@code file} goes through Hadoop's user login, which needs
+     * {@code Subject.getSubject} — refused by Java 23 and newer (unless Java 23 runs with
+     * {@code -Djava.security.manager=allow}).
+     */
+    public static String unsupportedOnThisJava(String root) {
+        String scheme = new Path(root).toUri().getScheme();
+        if (scheme == null || scheme.equals("file") || subjectLookupWorks()) {
+            return null;
+        }
+        return scheme + ": file systems need Hadoop's user login, which calls Subject.getSubject, and Java "
+                + Runtime.version().feature() + " no longer supports it (nor does any Java from 23 on); run skerry on "
+                + "Java 17 to 22 for " + scheme + ": checkpoints, or put them in a local or shared folder (a plain path)";
+    }
+
+    @SuppressWarnings("removal")
+    private static boolean subjectLookupWorks() {
+        try {
+            javax.security.auth.Subject.getSubject(java.security.AccessController.getContext());
+            return true;
+        } catch (UnsupportedOperationException e) {
+            return false;
+        }
     }
 
     /**

@@ -34,8 +34,16 @@ public final class CheckpointFolder {
     private final CheckpointFileSystem files;
     private final int keep;
 
+    /** The problem of a checkpoint folder without a manifest: its write never finished. */
+    static final String NO_MANIFEST = "no manifest (the checkpoint was not finished)";
+
     /** A checkpoint found on disk: complete (a valid manifest) or with the reason it is not. */
     public record Found(int iteration, String folder, CheckpointManifest manifest, String problem) {
+
+        /** Whether this is a write that never finished (no manifest): it never existed as a checkpoint. */
+        public boolean unfinished() {
+            return NO_MANIFEST.equals(problem);
+        }
     }
 
     /** A checkpoint whose manifest and driver state read back. */
@@ -121,6 +129,38 @@ public final class CheckpointFolder {
         }
     }
 
+    /**
+     * Removes what interrupted checkpoint writes left behind (a process killed or abandoned while
+     * it wrote one), before a resumed run writes again: the checkpoint folders newer than
+     * {@code after} that have no manifest, and temporary files ({@code _…tmp}) in the others.
+     * Call it only while nothing writes checkpoints here.
+     *
+     * @param after the iteration the run resumes from, or −1 when it starts again from the beginning
+     * @return what was removed, for the log (empty when nothing was)
+     */
+    public List<String> removeUnfinished(int after) throws IOException {
+        FileSystem fs = files.fileSystem();
+        List<String> removed = new ArrayList<>();
+        int temporary = 0;
+        for (Found f : list()) {
+            if (f.unfinished() && f.iteration() > after) {
+                fs.delete(files.path(f.folder()), true);
+                removed.add(f.folder() + " (unfinished: no manifest)");
+                continue;
+            }
+            for (FileStatus entry : fs.listStatus(files.path(f.folder()))) {
+                String name = entry.getPath().getName();
+                if (entry.isFile() && name.startsWith("_") && name.endsWith(".tmp") && fs.delete(entry.getPath(), false)) {
+                    temporary++;
+                }
+            }
+        }
+        if (temporary > 0) {
+            removed.add(temporary + (temporary == 1 ? " temporary file" : " temporary files") + " of interrupted writes");
+        }
+        return removed;
+    }
+
     /** The newest complete checkpoint's iteration, or −1 (also when the folder cannot be listed). */
     public int newestComplete() {
         try {
@@ -163,7 +203,7 @@ public final class CheckpointFolder {
                     found.add(new Found(iteration, folder, manifest, null));
                 }
             } catch (FileNotFoundException e) {
-                found.add(new Found(iteration, folder, null, "no manifest (the checkpoint was not finished)"));
+                found.add(new Found(iteration, folder, null, NO_MANIFEST));
             } catch (IOException e) {
                 found.add(new Found(iteration, folder, null, e.getMessage()));
             }

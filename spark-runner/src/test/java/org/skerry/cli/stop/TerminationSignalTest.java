@@ -3,9 +3,13 @@ package org.skerry.cli.stop;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
+import static org.junit.jupiter.api.Assumptions.assumeFalse;
 
+import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
 import java.time.Duration;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
@@ -14,9 +18,9 @@ import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 
 /**
- * The grace-period decision on a real SIGTERM raised in this JVM (our handler replaces the JVM's,
- * so the test JVM keeps running): abandon at once when the iteration in flight cannot fit, wait
- * for it when it can, and abandon when the period runs out first.
+ * The grace-period decision on a real SIGTERM or SIGINT raised in this JVM (our handler replaces
+ * the JVM's, so the test JVM keeps running): abandon at once when the iteration in flight cannot
+ * fit, wait for it when it can, abandon when the period runs out first or a second signal comes.
  */
 @SuppressWarnings("restriction")
 class TerminationSignalTest {
@@ -29,11 +33,38 @@ class TerminationSignalTest {
         return TerminationSignal.install(graceSeconds, new PrintWriter(log, true), 75, code -> {
             exitCode.set(code);
             abandoned.countDown();
-        });
+        }, () -> "KEPT AND HOW TO CONTINUE");
     }
 
     private static void raise() {
-        sun.misc.Signal.raise(new sun.misc.Signal("TERM"));
+        raise("TERM");
+    }
+
+    private static void raise(String name) {
+        sun.misc.Signal.raise(new sun.misc.Signal(name));
+    }
+
+    /** Whether this JVM was started with SIGINT ignored (a background job of a non-interactive shell). */
+    static boolean interruptIgnored() throws IOException {
+        Path status = Path.of("/proc/self/status");
+        if (!Files.isReadable(status)) {
+            return true;
+        }
+        for (String line : Files.readAllLines(status)) {
+            if (line.startsWith("SigIgn:")) {
+                return (Long.parseUnsignedLong(line.substring(7).trim(), 16) & 2) != 0;
+            }
+        }
+        return true;
+    }
+
+    /** Waits until the handler, on its own thread, has said {@code text}. */
+    private void awaitLog(String text) throws InterruptedException {
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(10);
+        while (!log.toString().contains(text) && System.nanoTime() < deadline) {
+            Thread.sleep(5);
+        }
+        assertTrue(log.toString().contains(text), "the handler said \"" + text + "\": " + log);
     }
 
     private static void awaitReceived(TerminationSignal signal) throws InterruptedException {
@@ -52,7 +83,7 @@ class TerminationSignalTest {
             raise();
             assertTrue(abandoned.await(3, TimeUnit.SECONDS), "abandoned well before the grace period ends: " + log);
             assertEquals(75, exitCode.get());
-            assertTrue(log.toString().contains("abandoning it"), log.toString());
+            assertTrue(log.toString().contains("abandoning it. KEPT AND HOW TO CONTINUE"), log.toString());
         }
     }
 
@@ -83,6 +114,47 @@ class TerminationSignalTest {
             double seconds = (System.nanoTime() - start) * 1e-9;
             assertTrue(seconds >= 0.9 && seconds < 1.2, "abandoned at " + seconds + " s, before the 1.2 s period ends");
             assertTrue(log.toString().contains("grace period is nearly over"), log.toString());
+            assertTrue(log.toString().contains("KEPT AND HOW TO CONTINUE"), log.toString());
+        }
+    }
+
+    @Test
+    @DisplayName("a repeated SIGTERM changes nothing (schedulers may deliver one twice); Ctrl-C then abandons at once")
+    void repeatedTerminationSignal() throws Exception {
+        try (TerminationSignal signal = install(30)) {
+            signal.iterationStarting(20);
+            raise();
+            awaitReceived(signal);
+            raise();
+            assertFalse(abandoned.await(500, TimeUnit.MILLISECONDS), "a second SIGTERM abandons nothing: " + log);
+            if (!interruptIgnored()) {
+                raise("INT");
+                assertTrue(abandoned.await(3, TimeUnit.SECONDS), "Ctrl-C while stopping abandons at once: " + log);
+                assertTrue(log.toString().contains("interrupt (Ctrl-C) while stopping: abandoning the iteration in "
+                        + "flight at once. KEPT AND HOW TO CONTINUE"), log.toString());
+            }
+            signal.runEnded();
+        }
+    }
+
+    @Test
+    @DisplayName("Ctrl-C (SIGINT) stops as SIGTERM does, and says how to stop at once; a second Ctrl-C abandons at once")
+    void interrupt() throws Exception {
+        assumeFalse(interruptIgnored(), "this JVM was started with SIGINT ignored, so no handler can be installed; "
+                + "RunFaultTest covers Ctrl-C in a process started with SIGINT at its default");
+        try (TerminationSignal signal = install(30)) {
+            signal.iterationStarting(2);
+            raise("INT");
+            awaitLog("interrupt (Ctrl-C): finishing the iteration in flight");
+            StopRules rules = new StopRules(signal, null, System.nanoTime());
+            assertTrue(rules.urgent());
+            assertEquals("an interrupt (Ctrl-C, SIGINT) arrived", rules.reasonToStop(null, 0.1));
+            assertTrue(log.toString().contains("press Ctrl-C again to stop at once"), log.toString());
+            assertFalse(abandoned.await(300, TimeUnit.MILLISECONDS), log.toString());
+            raise("INT");
+            assertTrue(abandoned.await(3, TimeUnit.SECONDS), log.toString());
+            assertTrue(log.toString().contains("second interrupt (Ctrl-C): abandoning the iteration in flight at once. "
+                    + "KEPT AND HOW TO CONTINUE"), log.toString());
         }
     }
 
