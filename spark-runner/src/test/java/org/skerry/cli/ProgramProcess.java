@@ -57,7 +57,11 @@ public final class ProgramProcess {
 
     /** Whether {@code process} ignores SIGINT (read from /proc; true where that cannot be read). */
     public static boolean ignoresInterrupt(Process process) throws IOException {
-        Path status = Path.of("/proc", Long.toString(process.pid()), "status");
+        return interruptIgnoredIn(Path.of("/proc", Long.toString(process.pid()), "status"));
+    }
+
+    /** Whether the process whose /proc status file is {@code status} ignores SIGINT (true where it cannot be read). */
+    public static boolean interruptIgnoredIn(Path status) throws IOException {
         if (!Files.isReadable(status)) {
             return true;
         }

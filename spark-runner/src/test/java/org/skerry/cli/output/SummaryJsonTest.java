@@ -40,7 +40,8 @@ class SummaryJsonTest {
         Map<String, Object> json = JsonTree.read(file);
 
         assertEquals(List.of("name", "model", "log_evidence", "log_evidence_error", "log_evidence_error_reliable", "log_evidence_error_warning",
-                "distinct_ancestors_at_end", "islands", "island_log_evidence_error", "parameters", "iterations", "likelihood_evaluations",
+                "distinct_ancestors_at_end", "islands", "island_log_evidence_error", "parameters", "iterations", "iterations_at_step_cap", "step_cap_warning",
+                "likelihood_evaluations",
                 "zero_likelihood_evaluations", "invalid_evaluations", "retried_evaluations", "failed_after_retries", "first_invalid",
                 "particles", "seed"),
                 new ArrayList<>(json.keySet()));

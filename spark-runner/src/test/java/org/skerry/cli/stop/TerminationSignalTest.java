@@ -46,16 +46,7 @@ class TerminationSignalTest {
 
     /** Whether this JVM was started with SIGINT ignored (a background job of a non-interactive shell). */
     static boolean interruptIgnored() throws IOException {
-        Path status = Path.of("/proc/self/status");
-        if (!Files.isReadable(status)) {
-            return true;
-        }
-        for (String line : Files.readAllLines(status)) {
-            if (line.startsWith("SigIgn:")) {
-                return (Long.parseUnsignedLong(line.substring(7).trim(), 16) & 2) != 0;
-            }
-        }
-        return true;
+        return org.skerry.cli.ProgramProcess.interruptIgnoredIn(Path.of("/proc/self/status"));
     }
 
     /** Waits until the handler, on its own thread, has said {@code text}. */
