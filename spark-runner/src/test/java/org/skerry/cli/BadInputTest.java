@@ -17,14 +17,7 @@ class BadInputTest {
     @TempDir
     Path folder;
 
-    private static final String GOOD = String.join("\n",
-            "name = conjugate",
-            "model { name = normal-mean, settings { sigma = 2.0, prior { mean = 0, sd = 3 } } }",
-            "data { file = \"data.csv\" }",
-            "sampler { particles = 200, seed = 4 }",
-            "output.progress = off",
-            "backend.kind = threads",
-            "");
+    private static final String GOOD = ConjugateRun.RUN_FILE;
 
     private Path write(String name, String text) throws IOException {
         Path file = folder.resolve(name);
@@ -33,7 +26,7 @@ class BadInputTest {
     }
 
     private Path goodData() throws IOException {
-        return write("data.csv", "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n");
+        return write("data.csv", ConjugateRun.DATA);
     }
 
     private CommandRunner.Result expectBadInput(Path runFile, String... fragments) {

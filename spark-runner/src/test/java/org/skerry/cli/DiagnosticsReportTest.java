@@ -25,16 +25,9 @@ class DiagnosticsReportTest {
     Path folder;
 
     private Path runFile() throws IOException {
-        Files.writeString(folder.resolve("data.csv"), "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n");
+        Files.writeString(folder.resolve("data.csv"), ConjugateRun.DATA);
         Path file = folder.resolve("run.conf");
-        Files.writeString(file, String.join("\n",
-                "name = conjugate",
-                "model { name = normal-mean, settings { sigma = 2.0, prior { mean = 0, sd = 3 } } }",
-                "data { file = \"data.csv\" }",
-                "sampler { particles = 300, seed = 4 }",
-                "output.progress = off",
-                "backend.kind = threads",
-                ""));
+        Files.writeString(file, ConjugateRun.RUN_FILE + "sampler.particles = 300\n");
         return file;
     }
 

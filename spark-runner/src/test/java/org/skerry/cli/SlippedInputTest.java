@@ -25,14 +25,7 @@ class SlippedInputTest {
     @TempDir
     Path folder;
 
-    private static final String GOOD = String.join("\n",
-            "name = conjugate",
-            "model { name = normal-mean, settings { sigma = 2.0, prior { mean = 0, sd = 3 } } }",
-            "data { file = \"data.csv\" }",
-            "sampler { particles = 200, seed = 4 }",
-            "output.progress = off",
-            "backend.kind = threads",
-            "");
+    private static final String GOOD = ConjugateRun.RUN_FILE;
 
     private Path write(String name, String text) throws IOException {
         Path file = folder.resolve(name);
@@ -42,7 +35,7 @@ class SlippedInputTest {
     }
 
     private void goodData() throws IOException {
-        write("data.csv", "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n");
+        write("data.csv", ConjugateRun.DATA);
     }
 
     /** Runs {@code skerry run FILE --out out [more…]} and checks it is bad input that wrote nothing. */

@@ -34,9 +34,9 @@ public final class MoveAdaptation {
      * more than the target the largest step is taken, when every rung accepts less the smallest.
      * Rungs without proposals are skipped; with none at all the scale is kept.
      *
-     * @return {@code {scale, expected acceptance}}, the scale kept in [{@link #MIN_SCALE}, {@link #MAX_SCALE}]
+     * @return the scale, kept in [{@link #MIN_SCALE}, {@link #MAX_SCALE}], and the acceptance expected there
      */
-    public static double[] scaleFromLadder(double scale, long[] proposedByRung, long[] acceptedByRung,
+    public static LadderChoice scaleFromLadder(double scale, long[] proposedByRung, long[] acceptedByRung,
             double target) {
         if (proposedByRung == null || acceptedByRung == null || proposedByRung.length != LADDER.length
                 || acceptedByRung.length != LADDER.length) {
@@ -53,7 +53,7 @@ public final class MoveAdaptation {
             }
         }
         if (used == 0) {
-            return new double[] {scale, 0.0};
+            return new LadderChoice(scale, 0.0);
         }
         double chosenLog;
         double expected;
@@ -77,7 +77,7 @@ public final class MoveAdaptation {
             expected = target;
         }
         double next = scale * StrictMath.exp(chosenLog);
-        return new double[] {Math.min(MAX_SCALE, Math.max(MIN_SCALE, next)), expected};
+        return new LadderChoice(Math.min(MAX_SCALE, Math.max(MIN_SCALE, next)), expected);
     }
 
     /**

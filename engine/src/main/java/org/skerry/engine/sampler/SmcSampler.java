@@ -5,6 +5,7 @@ import java.util.List;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.Prior;
+import org.skerry.engine.move.LadderChoice;
 import org.skerry.engine.move.MoveAdaptation;
 import org.skerry.engine.move.MoveKernel;
 import org.skerry.engine.move.Proposal;
@@ -346,10 +347,11 @@ public final class SmcSampler {
                 // whose acceptance is nearest the target, and its step count follows from it.
                 MoveTally pilot = population.move(proposal.withRungs(MoveAdaptation.ladder()), temperature,
                         iteration, 0, 1);
-                double[] chosen = MoveAdaptation.scaleFromLadder(scale, pilot.proposedByRung(),
+                LadderChoice chosen = MoveAdaptation.scaleFromLadder(scale, pilot.proposedByRung(),
                         pilot.acceptedByRung(), target);
-                usedScale = chosen[0];
-                steps = MoveAdaptation.steps(chosen[1], settings.stayProbability(), settings.maxSteps());
+                usedScale = chosen.scale();
+                steps = MoveAdaptation.steps(chosen.expectedAcceptance(), settings.stayProbability(),
+                        settings.maxSteps());
                 moves = pilot;
                 if (steps > 1) {
                     Proposal tuned = ProposalFit.fit(settings.moveKernel(), moments, usedScale);

@@ -35,4 +35,28 @@ class MoveAdaptationTest {
         assertThrows(IllegalArgumentException.class, () -> MoveAdaptation.steps(0.5, 0.0, 10));
         assertThrows(IllegalArgumentException.class, () -> MoveAdaptation.steps(0.5, 0.01, 0));
     }
+
+    @Test
+    @DisplayName("ladder: the rungs bracketing the target are interpolated in log scale, by hand")
+    void ladderInterpolates() {
+        // Rungs 1/4, 1/2, 1, 2 accept 0.8, 0.6, 0.3, 0.1; the target 0.45 lies halfway between
+        // 1/2 and 1, so the factor is exp((log 1/2 + log 1) / 2) = 1/sqrt(2).
+        LadderChoice chosen = MoveAdaptation.scaleFromLadder(0.8, new long[] {100, 100, 100, 100},
+                new long[] {80, 60, 30, 10}, 0.45);
+        assertEquals(0.8 / Math.sqrt(2), chosen.scale(), 1e-12);
+        assertEquals(0.45, chosen.expectedAcceptance(), 0.0);
+    }
+
+    @Test
+    @DisplayName("ladder: beyond either end the end rung is taken, with its own acceptance")
+    void ladderEnds() {
+        LadderChoice small = MoveAdaptation.scaleFromLadder(1.0, new long[] {10, 10, 10, 10},
+                new long[] {1, 1, 0, 0}, 0.3);
+        assertEquals(0.25, small.scale(), 0.0);
+        assertEquals(0.1, small.expectedAcceptance(), 1e-15);
+        LadderChoice large = MoveAdaptation.scaleFromLadder(1.0, new long[] {10, 10, 10, 10},
+                new long[] {9, 9, 8, 7}, 0.3);
+        assertEquals(2.0, large.scale(), 0.0);
+        assertEquals(0.7, large.expectedAcceptance(), 1e-15);
+    }
 }
