@@ -1,28 +1,72 @@
 package org.skerry.spark;
 
+import java.lang.ref.Reference;
+import java.lang.ref.ReferenceQueue;
+import java.lang.ref.WeakReference;
+import java.util.Set;
 import java.util.concurrent.ConcurrentHashMap;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.ModelSource;
 
 /**
  * Executor side: one model per model source and JVM, built on first use, so a costly model set-up
- * (reading data, precomputing) happens once per executor, not once per task.
+ * (reading data, precomputing) happens once per executor, not once per task. A model is dropped
+ * when its analysis ends: at once in the driver's JVM ({@link #release}), and on executors when
+ * the source's broadcast is destroyed and collected, so a long batch does not keep every model
+ * and its data in every executor.
  */
 final class ModelCache {
 
     private static final ConcurrentHashMap<String, Model> MODELS = new ConcurrentHashMap<>();
+    /** The broadcast sources the models were built from, weakly: a collected one ends its model. */
+    private static final ReferenceQueue<ModelSource> COLLECTED = new ReferenceQueue<>();
+    private static final Set<Owner> OWNERS = ConcurrentHashMap.newKeySet();
 
     private ModelCache() {
     }
 
     static Model get(ModelSource source) {
+        dropCollected();
         return MODELS.computeIfAbsent(source.id(), id -> {
             try {
-                return source.create();
+                Model model = source.create();
+                OWNERS.add(new Owner(source, COLLECTED));
+                return model;
             } catch (RuntimeException | LinkageError e) {
                 throw failure(e, org.apache.spark.SparkEnv.get().executorId());
             }
         });
+    }
+
+    /** Drops the model of the source with this id from this JVM. */
+    static void release(String id) {
+        MODELS.remove(id);
+        OWNERS.removeIf(owner -> owner.id.equals(id));
+        dropCollected();
+    }
+
+    /** Number of models held in this JVM (for tests). */
+    static int size() {
+        dropCollected();
+        return MODELS.size();
+    }
+
+    private static void dropCollected() {
+        for (Reference<? extends ModelSource> gone = COLLECTED.poll(); gone != null; gone = COLLECTED.poll()) {
+            Owner owner = (Owner) gone;
+            OWNERS.remove(owner);
+            MODELS.remove(owner.id);
+        }
+    }
+
+    /** A weak reference to the source a model was built from, which remembers the model's key. */
+    private static final class Owner extends WeakReference<ModelSource> {
+        final String id;
+
+        Owner(ModelSource source, ReferenceQueue<ModelSource> queue) {
+            super(source, queue);
+            this.id = source.id();
+        }
     }
 
     /**

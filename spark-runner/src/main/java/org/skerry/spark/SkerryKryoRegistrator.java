@@ -1,6 +1,8 @@
 package org.skerry.spark;
 
 import com.esotericsoftware.kryo.Kryo;
+import com.esotericsoftware.kryo.serializers.JavaSerializer;
+import org.skerry.engine.population.BlockReports;
 import org.apache.spark.serializer.KryoRegistrator;
 import org.skerry.engine.math.ExactSum;
 import org.skerry.engine.move.MoveKernel;
@@ -25,6 +27,13 @@ public final class SkerryKryoRegistrator implements KryoRegistrator {
     public void registerClasses(Kryo kryo) {
         kryo.register(ParticleBlock.class, new ParticleBlockSerializer());
         kryo.register(PartitionState.class);
+        kryo.register(ModelShipment.class, new JavaSerializer());
+        kryo.register(BlockReports.Weights.class);
+        kryo.register(BlockReports.Drawn.class);
+        kryo.register(BlockReports.Moved.class);
+        kryo.register(BlockReports.Totals.class);
+        kryo.register(BlockReports.Resampled.class);
+        kryo.register(BlockReports.Increments.class);
         kryo.register(EvaluationTally.class);
         kryo.register(MoveTally.class);
         kryo.register(MomentSums.class);

@@ -7,7 +7,7 @@ import java.util.Map;
 import org.apache.spark.SparkConf;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.skerry.engine.model.ModelSource;
-import org.skerry.engine.population.Population;
+import org.skerry.engine.population.BlockExecutor;
 import org.skerry.engine.population.PopulationBackend;
 
 /**
@@ -70,17 +70,17 @@ public final class SparkBackend implements PopulationBackend {
     }
 
     @Override
-    public Population create(ModelSource source, int particles, long seed, int islands) {
-        if (islands < 0 || islands > particles) {
-            throw new IllegalArgumentException("islands must be in [0, " + particles + "], was " + islands);
+    public BlockExecutor open(ModelSource source, int particles, int blocks) {
+        if (blocks < 0 || blocks > particles) {
+            throw new IllegalArgumentException("blocks must be in [0, " + particles + "], was " + blocks);
         }
         if (!source.isPortable()) {
             throw new IllegalArgumentException("the Spark backend needs a model it can rebuild on executors: "
                     + "build it from a run file (model.name or model.class) or implement ModelSource");
         }
         checkSerialisable(source);
-        return new SparkPopulation(context, source, particles, seed,
-                islands > 0 ? islands : partitionsFor(particles));
+        return new SparkBlocks(context, source, source.create().dimension(),
+                blocks > 0 ? blocks : partitionsFor(particles));
     }
 
     private static void checkSerialisable(ModelSource source) {

@@ -1,84 +1,333 @@
 package org.skerry.engine.population;
 
+import java.util.ArrayList;
 import java.util.List;
 import org.skerry.engine.model.Prior;
+import org.skerry.engine.move.MetropolisHastingsMover;
 import org.skerry.engine.move.Proposal;
+import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.BlockReports.Drawn;
+import org.skerry.engine.population.BlockReports.Moved;
+import org.skerry.engine.population.BlockReports.Resampled;
+import org.skerry.engine.population.BlockReports.Totals;
+import org.skerry.engine.population.BlockReports.Weights;
+import org.skerry.engine.population.block.BlockReading;
+import org.skerry.engine.population.block.InitialDraw;
+import org.skerry.engine.population.block.LikelihoodEvaluator;
+import org.skerry.engine.population.block.MomentCollector;
+import org.skerry.engine.resample.BlockLayout;
+import org.skerry.engine.resample.BlockResamplingPlan;
+import org.skerry.engine.resample.IslandResampling;
+import org.skerry.engine.resample.OffspringCounter;
+import org.skerry.engine.resample.ParticleExpansion;
+import org.skerry.engine.resample.Redistribution;
+import org.skerry.engine.resample.ResamplingPlanner;
 import org.skerry.engine.resample.ResamplingScheme;
+import org.skerry.engine.resample.ResidualSplit;
+import org.skerry.engine.resample.ResidualTotals;
+import org.skerry.engine.resample.WeightQuantiser;
+import org.skerry.engine.target.Target;
 
 /**
- * A population of particles held by a backend, seen from the driver. The sampler loop
- * ({@link org.skerry.engine.sampler.SmcSampler}) is written once against this interface; each
- * backend decides where the blocks live (threads of this JVM, Spark executors) and runs the same
- * block-side code from {@code org.skerry.engine.population.block} on them.
+ * A population of particles, seen from the driver: each step of an iteration written once, as
+ * block steps a {@link BlockExecutor} runs where the blocks live. Every operation returns only
+ * scalars per particle or sums per block; parameter vectors stay with the blocks until
+ * {@link #export()}. Results do not depend on how particles are grouped into blocks or on the
+ * order in which blocks finish.
  *
- * <p>Every operation returns only scalars per particle or sums per block; parameter vectors stay
- * with the blocks until {@link #export()}. Results must not depend on how particles are grouped
- * into blocks or on the order in which blocks finish.
+ * <p>A change whose result the driver does not need at once (a reweighting) is held and run as
+ * part of the next block step, so it costs no round trip of its own.
  */
-public interface Population extends AutoCloseable {
+public final class Population implements AutoCloseable {
+
+    private final BlockExecutor blocks;
+    private final int size;
+    private final int dimension;
+    private final long seed;
+    private final int retries;
+    /** A change to run on every block before the next step, or null. */
+    private BlockStep<?> pending;
+
+    /**
+     * @param blocks    where the blocks live
+     * @param size      particles N
+     * @param dimension parameters d
+     * @param seed      the run's seed, which keys every random stream
+     * @param retries   how often an invalid likelihood evaluation is repeated
+     */
+    public Population(BlockExecutor blocks, int size, int dimension, long seed, int retries) {
+        if (size < 1) {
+            throw new IllegalArgumentException("size must be >= 1, was " + size);
+        }
+        if (retries < 0) {
+            throw new IllegalArgumentException("retries must be >= 0, was " + retries);
+        }
+        this.blocks = blocks;
+        this.size = size;
+        this.dimension = dimension;
+        this.seed = seed;
+        this.retries = retries;
+    }
 
     /** Number of particles N. */
-    int size();
+    public int size() {
+        return size;
+    }
+
+    /** Where the blocks live (for tests and diagnostics). */
+    public BlockExecutor executor() {
+        return blocks;
+    }
+
+    /** Number of blocks. */
+    public int blockCount() {
+        return blocks.blockCount();
+    }
+
+    /** The initial draw's counts and the tempering inputs of the drawn population. */
+    public record Start(EvaluationTally tally, TemperingInputs inputs) {
+    }
 
     /**
      * Draws the initial particles (from the prior, or from {@code proposal} with importance weights
-     * prior / proposal) and evaluates their log-likelihoods.
+     * prior / proposal) in blocks of ⌊N/K⌋ or ⌈N/K⌉ particles (the first N mod K larger), and
+     * evaluates the log-likelihood {@code target} uses.
      */
-    EvaluationTally initialise(Prior proposal);
+    public Start initialise(Prior proposal, Target target) {
+        int count = blocks.blockCount();
+        long[] first = new long[count];
+        int[] sizes = new int[count];
+        long running = 0;
+        for (int b = 0; b < count; b++) {
+            sizes[b] = size / count + (b < size % count ? 1 : 0);
+            first[b] = running;
+            running += sizes[b];
+        }
+        long streamSeed = seed;
+        int tries = retries;
+        List<Drawn> drawn = blocks.create(first, sizes, cursor -> {
+            ParticleBlock block = cursor.block();
+            EvaluationTally tally = InitialDraw.draw(block, proposal,
+                    new LikelihoodEvaluator(cursor.model(), streamSeed, tries, target), streamSeed);
+            return new Drawn(tally, Weights.of(block));
+        });
+        EvaluationTally total = EvaluationTally.NONE;
+        List<Weights> weights = new ArrayList<>(drawn.size());
+        for (Drawn block : drawn) {
+            total = total.plus(block.tally());
+            weights.add(block.weights());
+        }
+        return new Start(total, TemperingInputs.of(weights, size));
+    }
 
     /** Current log-weights and log-likelihoods of all particles (16 bytes a particle). */
-    TemperingInputs temperingInputs();
-
-    /** {@code log w += (toTemperature − fromTemperature)·log L} for every particle. */
-    void reweight(double fromTemperature, double toTemperature);
+    public TemperingInputs temperingInputs() {
+        return TemperingInputs.of(read(cursor -> Weights.of(cursor.current())), size);
+    }
 
     /**
-     * Resamples by normalised weight with the given scheme, gives every survivor weight 1 (log 0),
-     * renumbers particles canonically (ancestor order, then copy number) and rebalances the blocks.
+     * Holds {@code change} and runs it on every block at the start of the next step (it must
+     * not need the driver to see its result).
+     */
+    public void defer(BlockStep<?> change) {
+        pending = pending == null ? change : pending.then(change);
+    }
+
+    /** Runs {@code step} on every block (after any deferred change); results in block order. */
+    public <R> List<R> update(BlockStep<R> step) {
+        BlockStep<R> whole = pending == null ? step : pending.then(step);
+        pending = null;
+        return blocks.update(whole);
+    }
+
+    private <R> List<R> read(BlockStep<R> query) {
+        return pending == null ? blocks.read(query) : update(query);
+    }
+
+    /** Weighted moment sums on the unconstrained scale, weights normalised by {@code logTotal}. */
+    public MomentSums moments(double logTotal) {
+        MomentSums total = new MomentSums(dimension);
+        for (MomentSums part : read(cursor -> MomentCollector.collect(cursor.current(),
+                cursor.model().parameters(), logTotal))) {
+            total.merge(part);
+        }
+        return total;
+    }
+
+    /** What resampling did, and the moment sums of the survivors at their new log total. */
+    public record Resampling(ResamplingReport report, MomentSums moments) {
+    }
+
+    /**
+     * Resamples by normalised weight with {@code scheme}, gives every survivor weight 1 (log 0),
+     * renumbers particles canonically (ancestor order, then copy number) and rebalances the
+     * blocks. Blocks quantise their weights and report totals; the driver plans; blocks count
+     * offspring, expand and sum the survivors' moments at log N; only the runs of surplus
+     * copies then move between blocks.
      *
      * @param logTotal log of the current weight total, as computed by the driver
      */
-    ResamplingReport resample(ResamplingScheme scheme, double logTotal, int iteration);
+    public Resampling resample(ResamplingScheme scheme, double logTotal, int iteration) {
+        List<Totals> totals = read(cursor -> {
+            ParticleBlock block = cursor.current();
+            return new Totals(block.size() == 0 ? -1 : block.index()[0], block.size(),
+                    WeightQuantiser.quantise(block.logWeight(), block.size(), logTotal, new long[block.size()]));
+        });
+        int count = totals.size();
+        long[] first = new long[count];
+        int[] sizes = new int[count];
+        long[] weightTotals = new long[count];
+        long running = 0;
+        for (int b = 0; b < count; b++) {
+            Totals t = totals.get(b);
+            sizes[b] = t.size();
+            first[b] = t.size() == 0 ? running : t.firstIndex();
+            weightTotals[b] = t.weightTotal();
+            running = first[b] + sizes[b];
+        }
+        BlockLayout layout = BlockLayout.of(first, sizes);
+        BlockResamplingPlan[] plans;
+        ResidualSplit split = null;
+        if (scheme == ResamplingScheme.RESIDUAL) {
+            split = ResamplingPlanner.residualSplit(layout, weightTotals);
+            ResidualSplit residual = split;
+            List<ResidualTotals> parts = read(cursor -> {
+                ParticleBlock block = cursor.current();
+                long[] q = new long[block.size()];
+                WeightQuantiser.quantise(block.logWeight(), block.size(), logTotal, q);
+                return OffspringCounter.splitResidual(residual, q, block.size(), new int[block.size()]);
+            });
+            plans = ResamplingPlanner.planResidual(seed, iteration, layout, split, parts.toArray(new ResidualTotals[0]));
+        } else {
+            plans = ResamplingPlanner.plan(scheme, seed, iteration, layout, weightTotals);
+        }
+        BlockResamplingPlan[] sentPlans = plans;
+        ResidualSplit sentSplit = split;
+        double logN = StrictMath.log(size);
+        long start = System.nanoTime();
+        List<Resampled> expanded = update(cursor -> {
+            ParticleBlock block = cursor.current();
+            long[] q = new long[block.size()];
+            WeightQuantiser.quantise(block.logWeight(), block.size(), logTotal, q);
+            int[] offspring = new int[block.size()];
+            if (sentSplit != null) {
+                OffspringCounter.splitResidual(sentSplit, q, block.size(), offspring);
+            }
+            BlockResamplingPlan plan = sentPlans[cursor.number()];
+            OffspringCounter.count(plan, q, block.size(), offspring);
+            long distinct = ParticleExpansion.distinctAncestors(offspring, block.size());
+            ParticleBlock children = ParticleExpansion.expand(block, offspring, plan.firstNewIndex());
+            cursor.replace(children);
+            // Exact sums: the same before and after the survivors are rebalanced.
+            return new Resampled(distinct, MomentCollector.collect(children, cursor.model().parameters(), logN));
+        });
+        Redistribution redistribution = Redistribution.plan(ResamplingPlanner.expandedLayout(plans));
+        if (redistribution.transferCount() > 0) {
+            blocks.exchange(redistribution);
+        }
+        long distinct = 0;
+        MomentSums moments = new MomentSums(dimension);
+        for (Resampled block : expanded) {
+            distinct += block.distinctAncestors();
+            moments.merge(block.moments());
+        }
+        return new Resampling(new ResamplingReport(distinct, redistribution.movedCount(),
+                (System.nanoTime() - start) * 1e-9), moments);
+    }
 
     /**
      * Island resampling: every block (island) resamples its own particles by their weights within
      * the island, keeps its size and its run of global indices, and gives each survivor the
-     * island's mean weight, so the island's total weight — its island weight — is carried on
-     * (Vergé, Dubarry, Del Moral &amp; Moulines 2015). No particle changes block.
+     * island's mean weight, so the island's total weight is carried on (Vergé, Dubarry, Del Moral
+     * &amp; Moulines 2015, Statistics and Computing 25). No particle changes block.
+     *
+     * @param logTotal log of the weight total after island resampling, for the moment sums
      */
-    ResamplingReport resampleIslands(ResamplingScheme scheme, int iteration);
+    public Resampling resampleIslands(ResamplingScheme scheme, int iteration, double logTotal) {
+        long streamSeed = seed;
+        List<Resampled> islands = update(cursor -> {
+            IslandResampling.Result result = IslandResampling.resample(cursor.current(), scheme, streamSeed,
+                    iteration);
+            cursor.replace(result.block());
+            return new Resampled(result.distinctAncestors(),
+                    MomentCollector.collect(result.block(), cursor.model().parameters(), logTotal));
+        });
+        long distinct = 0;
+        MomentSums moments = new MomentSums(dimension);
+        for (Resampled island : islands) {
+            distinct += island.distinctAncestors();
+            moments.merge(island.moments());
+        }
+        return new Resampling(new ResamplingReport(distinct, 0), moments);
+    }
 
-    /** Weighted moment sums on the unconstrained scale, weights normalised by {@code logTotal}. */
-    MomentSums moments(double logTotal);
+    /** What moves did, and the tempering inputs afterwards when asked for (else null). */
+    public record Moves(MoveTally tally, TemperingInputs inputs) {
+    }
 
     /**
      * Metropolis–Hastings steps {@code firstStep … firstStep+steps−1} of every living particle,
-     * invariant for the target at {@code temperature}.
+     * invariant for {@code target}; with {@code withInputs} the blocks also send the tempering
+     * inputs the next target's choice needs, so they cost no round trip of their own.
      */
-    MoveTally move(Proposal proposal, double temperature, int iteration, int firstStep, int steps);
-
-    /**
-     * The iteration's last {@link #move}: the same steps, and a hint that the population does not
-     * change again before the next {@link #temperingInputs()}, so a distributed backend may gather
-     * those inputs with the moves' reports instead of in a pass of its own. The default is
-     * {@link #move}.
-     */
-    default MoveTally moveLast(Proposal proposal, double temperature, int iteration, int firstStep, int steps) {
-        return move(proposal, temperature, iteration, firstStep, steps);
+    public Moves move(Proposal proposal, Target target, int iteration, int firstStep, int steps, boolean withInputs) {
+        long streamSeed = seed;
+        int tries = retries;
+        List<Moved> moved = update(cursor -> {
+            ParticleBlock block = cursor.block();
+            MoveTally tally = MetropolisHastingsMover.move(block, proposal, target, iteration, firstStep, steps,
+                    new LikelihoodEvaluator(cursor.model(), streamSeed, tries, target), streamSeed);
+            return new Moved(tally, withInputs ? Weights.of(block) : null);
+        });
+        MoveTally total = MoveTally.NONE;
+        List<Weights> weights = new ArrayList<>(moved.size());
+        for (Moved block : moved) {
+            total = total.plus(block.tally());
+            weights.add(block.weights());
+        }
+        return new Moves(total, withInputs ? TemperingInputs.of(weights, size) : null);
     }
 
     /** All particles in canonical order. Used once, at the end of a run. */
-    FinalParticles export();
+    public FinalParticles export() {
+        if (pending != null) {
+            update(cursor -> null);
+        }
+        double[] values = new double[size * dimension];
+        double[] logWeight = new double[size];
+        double[] logPrior = new double[size];
+        double[] logLikelihood = new double[size];
+        long[] index = new long[size];
+        long[] eve = new long[size];
+        int d = dimension;
+        // Global indices are always a permutation of 0..N-1, so scattering by index sorts.
+        blocks.forEachBlock(block -> {
+            for (int i = 0; i < block.size(); i++) {
+                int at = (int) block.index()[i];
+                System.arraycopy(block.values(), i * d, values, at * d, d);
+                logWeight[at] = block.logWeight()[i];
+                logPrior[at] = block.logPrior()[i];
+                logLikelihood[at] = block.logLikelihood()[i];
+                index[at] = block.index()[i];
+                eve[at] = block.eve()[i];
+            }
+        });
+        return new FinalParticles(d, size, values, logWeight, logPrior, logLikelihood, index, eve);
+    }
 
     /**
-     * Writes every block through {@code store}, in parallel where the blocks live, and from then on
-     * treats those files as the population's origin: a distributed backend that loses a block
-     * reads it back instead of recomputing the run from its start.
+     * Writes every block through {@code store}, in parallel where the blocks live; from then on
+     * a lost block is read back from those files instead of being recomputed.
      *
      * @return one entry per block, in block order
      * @throws java.io.UncheckedIOException when a block cannot be written
      */
-    List<StoredBlock> writeBlocks(BlockStore store);
+    public List<StoredBlock> writeBlocks(BlockStore store) {
+        if (pending != null) {
+            update(cursor -> null);
+        }
+        return blocks.write(store);
+    }
 
     /**
      * Replaces the population with the blocks of a checkpoint, in the checkpoint's layout (block
@@ -88,15 +337,25 @@ public interface Population extends AutoCloseable {
      *         its file), empty when every block read back; when not empty the population is
      *         unchanged
      */
-    List<String> readBlocks(BlockStore store, List<StoredBlock> blocks);
+    public List<String> readBlocks(BlockStore store, List<StoredBlock> stored) {
+        long[] first = new long[stored.size()];
+        long running = 0;
+        for (int b = 0; b < stored.size(); b++) {
+            first[b] = running;
+            running += stored.get(b).particles();
+        }
+        if (running != size) {
+            return List.of("the checkpoint's blocks hold " + running + " particles; the run has " + size);
+        }
+        int d = dimension;
+        pending = null;
+        return blocks.read(stored, (number, block) -> BlockReading.read(store, block, first[number], d));
+    }
 
-    /** A copy of the population's state, from which {@link #restore} can continue bit for bit. */
-    PopulationSnapshot snapshot();
-
-    /** Replaces the population's state with a snapshot taken from a population of the same shape. */
-    void restore(PopulationSnapshot snapshot);
-
-    /** Releases the population's resources (cached blocks); the backend stays open. */
+    /** Releases the blocks; the backend stays open. */
     @Override
-    void close();
+    public void close() {
+        pending = null;
+        blocks.close();
+    }
 }

@@ -12,19 +12,11 @@ public interface PopulationBackend extends AutoCloseable {
     String description();
 
     /**
-     * Creates an empty population of {@code particles} particles of the model {@code source}
-     * builds, keyed by {@code seed}. Distributed backends send the source to their executors.
+     * Opens room for a population of {@code particles} particles of the model {@code source}
+     * builds, in exactly {@code blocks} blocks, or as many as the backend prefers when
+     * {@code blocks} is 0. Distributed backends send the source to their workers once.
      */
-    default Population create(ModelSource source, int particles, long seed) {
-        return create(source, particles, seed, 0);
-    }
-
-    /**
-     * As {@link #create(ModelSource, int, long)}, with exactly {@code islands} blocks of
-     * ⌊N/K⌋ or ⌈N/K⌉ particles (the first N mod K blocks larger) when {@code islands > 0}: in
-     * island mode each block is an island, whatever the number of threads or executors.
-     */
-    Population create(ModelSource source, int particles, long seed, int islands);
+    BlockExecutor open(ModelSource source, int particles, int blocks);
 
     @Override
     void close();

@@ -7,6 +7,27 @@ package org.skerry.engine.population;
  */
 public final class TemperingInputs {
 
+    /** The blocks' weights joined in block order, {@code size} particles in all. */
+    public static TemperingInputs of(java.util.List<BlockReports.Weights> blocks, int size) {
+        double[] logWeight = new double[size];
+        double[] logLikelihood = new double[size];
+        int[] blockSizes = new int[blocks.size()];
+        int offset = 0;
+        for (int b = 0; b < blocks.size(); b++) {
+            BlockReports.Weights block = blocks.get(b);
+            int count = block.logWeight().length;
+            if (offset + count > size) {
+                throw new IllegalArgumentException("the blocks hold more than " + size + " particles");
+            }
+            System.arraycopy(block.logWeight(), 0, logWeight, offset, count);
+            System.arraycopy(block.logLikelihood(), 0, logLikelihood, offset, count);
+            blockSizes[b] = count;
+            offset += count;
+        }
+        return new TemperingInputs(logWeight, logLikelihood, size, blockSizes);
+    }
+
+
     private final double[] logWeight;
     private final double[] logLikelihood;
     private final int size;

@@ -19,7 +19,9 @@ import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.population.ResamplingReport;
 import org.skerry.engine.population.TemperingInputs;
 import org.skerry.engine.resample.ResamplingThreshold;
-import org.skerry.engine.temper.TemperatureRule;
+import org.skerry.engine.target.Target;
+import org.skerry.engine.target.TargetSequence;
+import org.skerry.engine.temper.LikelihoodTempering;
 import org.skerry.engine.temper.TemperedTarget;
 import org.skerry.engine.weight.LogWeights;
 
@@ -39,12 +41,28 @@ import org.skerry.engine.weight.LogWeights;
 public final class SmcSampler {
 
     private final SamplerSettings settings;
+    private final TargetSequence sequence;
 
+    /** A sampler that walks likelihood-tempered targets with the settings' temperature rule. */
     public SmcSampler(SamplerSettings settings) {
+        this(settings, settings == null ? null : new LikelihoodTempering(settings.temperatureRule()));
+    }
+
+    /** A sampler that walks {@code sequence}. */
+    public SmcSampler(SamplerSettings settings, TargetSequence sequence) {
         if (settings == null) {
             throw new IllegalArgumentException("settings must not be null");
         }
+        if (sequence == null) {
+            throw new IllegalArgumentException("sequence must not be null");
+        }
         this.settings = settings;
+        this.sequence = sequence;
+    }
+
+    /** The sequence of targets the sampler walks. */
+    public TargetSequence sequence() {
+        return sequence;
     }
 
     public SamplerSettings settings() {
@@ -77,8 +95,7 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluationRetries()),
-                settings.particles(), settings.seed(), settings.islands())) {
+        try (Population population = open(source, model, backend)) {
             Walk walk = new Walk(model, population, listener, checkpointer, stop);
             walk.start();
             return walk.toEnd();
@@ -94,12 +111,20 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop, Resumption from) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluationRetries()),
-                settings.particles(), settings.seed(), settings.islands())) {
+        try (Population population = open(source, model, backend)) {
             Walk walk = new Walk(model, population, listener, checkpointer, stop);
             walk.restore(from.restore(population));
             return walk.toEnd();
         }
+    }
+
+    private Population open(ModelSource source, Model model, PopulationBackend backend) {
+        int islands = settings.islands();
+        if (islands < 0 || islands > settings.particles()) {
+            throw new IllegalArgumentException("islands must be in [0, " + settings.particles() + "], was " + islands);
+        }
+        return new Population(backend.open(source, settings.particles(), islands), settings.particles(),
+                model.dimension(), settings.seed(), settings.evaluationRetries());
     }
 
     private void checkModel(Model model) {
@@ -132,7 +157,7 @@ public final class SmcSampler {
 
         private TemperingInputs inputs;
         private int iteration;
-        private double temperature;
+        private Target target;
         private double scale;
         private double logEvidence;
         private double logTotal;
@@ -153,10 +178,12 @@ public final class SmcSampler {
         /** The initial draw: iteration 0. */
         void start() {
             long start = System.nanoTime();
-            total = population.initialise(settings.startProposal());
+            target = sequence.first();
+            Population.Start drawn = population.initialise(settings.startProposal(), target);
+            total = drawn.tally();
             double evaluateSeconds = seconds(start);
             InvalidEvaluationsException.check(settings, 0, total, model.parameters());
-            inputs = population.temperingInputs();
+            inputs = drawn.inputs();
             logTotal = LogWeights.logSum(inputs.logWeight(), n);
             if (logTotal == Double.NEGATIVE_INFINITY) {
                 throw new SamplingFailedException(0, "every particle's weight is zero after the initial draw ("
@@ -165,11 +192,10 @@ public final class SmcSampler {
             logEvidence = settings.startProposal() == null ? 0.0 : logTotal - logN;
             islands = settings.islands() > 0
                     ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.startProposal() != null) : null;
-            temperature = 0.0;
             scale = settings.initialScale();
             resamplings = 0;
             iteration = 0;
-            finishIteration(new IterationRecord(0, 0.0, LogWeights.effectiveSampleSize(inputs.logWeight(), n),
+            finishIteration(new IterationRecord(0, target.progress(), LogWeights.effectiveSampleSize(inputs.logWeight(), n),
                     false, n, 0, Double.NaN, 0, scale, logEvidence, logEvidence, total.evaluations(),
                     total.zeroLikelihood(), total.invalid(), total.firstInvalidIndex(), total.firstInvalidReason(),
                     new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0),
@@ -183,7 +209,7 @@ public final class SmcSampler {
                         + " islands; the settings ask for " + settings.islands());
             }
             iteration = state.iteration();
-            temperature = state.temperature();
+            target = sequence.at(state.temperature());
             scale = state.scale();
             logEvidence = state.logEvidence();
             logTotal = state.logTotal();
@@ -198,7 +224,7 @@ public final class SmcSampler {
 
         SamplerResult toEnd() {
             boolean progressed = false;
-            while (temperature < 1.0) {
+            while (!sequence.isLast(target)) {
                 String reason = stop.reasonToStop(state(), predictedSeconds());
                 // A resumed run makes at least one iteration before a wall-time stop, so that a job
                 // requeued again and again always gets further.
@@ -215,7 +241,7 @@ public final class SmcSampler {
         }
 
         private SamplerState state() {
-            return new SamplerState(iteration, temperature, scale, logEvidence, logTotal, resamplings, total, records,
+            return new SamplerState(iteration, target.progress(), scale, logEvidence, logTotal, resamplings, total, records,
                     islands == null ? null : islands.sizes(), islands == null ? null : islands.logEvidences(),
                     islands == null || islands.independent());
         }
@@ -232,7 +258,7 @@ public final class SmcSampler {
         /** Records an iteration, checkpoints when due (and at the end), then tells the listener. */
         private void finishIteration(IterationRecord record) {
             records.add(record);
-            if (checkpointer.due(iteration) || (temperature >= 1.0 && checkpointer.enabled())) {
+            if (checkpointer.due(iteration) || (sequence.isLast(target) && checkpointer.enabled())) {
                 long phase = System.nanoTime();
                 checkpointer.write(state(), population);
                 checkpointed = iteration;
@@ -250,45 +276,46 @@ public final class SmcSampler {
         private void step() {
             iteration++;
             if (iteration > settings.maxIterations()) {
-                throw new SamplingFailedException(iteration, "tempering reached only φ = " + temperature
+                throw new SamplingFailedException(iteration, (target instanceof TemperedTarget tempered
+                        ? "tempering reached only φ = " + tempered.temperature()
+                        : sequence.description() + " reached only " + target)
                         + " after " + settings.maxIterations() + " iterations (maxIterations)");
             }
             long phase = System.nanoTime();
             inputs = inputs != null ? inputs : population.temperingInputs();
-            TemperatureRule rule = settings.temperatureRule();
-            double next = rule.next(temperature, inputs, logTotal);
-            if (!(next > temperature && next <= 1.0)) {
-                throw new IllegalStateException("temperature rule " + rule + " returned " + next + " after " + temperature);
+            Target from = target;
+            TargetSequence.Step advance = sequence.advance(from, inputs, logTotal, population, iteration);
+            Target next = advance.next();
+            if (!(next.progress() > from.progress() && next.progress() <= 1.0)) {
+                throw new IllegalStateException(sequence.description() + " went from " + from + " to " + next);
             }
             double[] logWeight = inputs.logWeight();
-            double[] logLikelihood = inputs.logLikelihood();
+            double[] logIncrement = advance.logIncrement();
             inputs = null;
             double[] newLogWeight = new double[n];
-            double delta = next - temperature;
             for (int i = 0; i < n; i++) {
-                newLogWeight[i] = logWeight[i] + TemperedTarget.logIncrement(logLikelihood[i], delta);
+                newLogWeight[i] = logWeight[i] + logIncrement[i];
             }
             double newLogTotal = LogWeights.logSum(newLogWeight, n);
             double ess = LogWeights.effectiveSampleSize(newLogWeight, n);
             double temperatureSeconds = seconds(phase);
+            EvaluationTally stepEvaluations = advance.evaluations();
             if (newLogTotal == Double.NEGATIVE_INFINITY) {
-                throw new SamplingFailedException(iteration, "every particle's weight is zero at temperature " + next
-                        + " (" + n + " particles; " + total.invalid() + " invalid evaluations and "
-                        + total.zeroLikelihood() + " zero likelihoods so far"
-                        + (total.firstInvalidIndex() >= 0 ? "; first invalid: particle " + total.firstInvalidIndex()
-                                + ": " + total.firstInvalidReason() : "") + ")");
+                EvaluationTally sofar = total.followedBy(stepEvaluations);
+                throw new SamplingFailedException(iteration, "every particle's weight is zero at "
+                        + describeTarget(next) + " (" + n + " particles; " + sofar.invalid()
+                        + " invalid evaluations and " + sofar.zeroLikelihood() + " zero likelihoods so far"
+                        + (sofar.firstInvalidIndex() >= 0 ? "; first invalid: particle " + sofar.firstInvalidIndex()
+                                + ": " + sofar.firstInvalidReason() : "") + ")");
             }
             double increment = newLogTotal - logTotal;
             logEvidence += increment;
             if (islands != null) {
                 islands.advance(logWeight, newLogWeight);
             }
-
-            phase = System.nanoTime();
-            population.reweight(temperature, next);
-            double reweightSeconds = seconds(phase);
-            temperature = next;
+            target = next;
             logTotal = newLogTotal;
+            double reweightSeconds = 0;
 
             phase = System.nanoTime();
             long ancestors = LogWeights.countAlive(newLogWeight, n);
@@ -306,18 +333,21 @@ public final class SmcSampler {
                         || ResamplingThreshold.reached(islands.withinIslandEssFraction(newLogWeight), 1.0,
                                 settings.resampleThreshold());
             }
+            MomentSums moments = null;
             if (resample) {
-                ResamplingReport report;
+                Population.Resampling resampling;
                 if (global) {
-                    report = population.resample(settings.resamplingScheme(), logTotal, iteration);
+                    resampling = population.resample(settings.resamplingScheme(), logTotal, iteration);
                     logTotal = logN;
                     if (islands != null) {
                         islands.interacted();
                     }
                 } else {
-                    report = population.resampleIslands(settings.resamplingScheme(), iteration);
                     logTotal = LogWeights.logSum(islands.afterIslandResampling(newLogWeight), n);
+                    resampling = population.resampleIslands(settings.resamplingScheme(), iteration, logTotal);
                 }
+                ResamplingReport report = resampling.report();
+                moments = resampling.moments();
                 ancestors = report.distinctAncestors();
                 moved = report.particlesMoved();
                 redistributeSeconds = report.redistributeSeconds();
@@ -326,7 +356,9 @@ public final class SmcSampler {
             double resampleSeconds = seconds(phase) - redistributeSeconds;
 
             phase = System.nanoTime();
-            MomentSums moments = population.moments(logTotal);
+            if (moments == null) {
+                moments = population.moments(logTotal);
+            }
             Proposal proposal = ProposalFit.fit(settings.moveKernel(), moments, scale);
             double fitSeconds = seconds(phase);
 
@@ -335,49 +367,62 @@ public final class SmcSampler {
             int steps;
             double usedScale = scale;
             boolean randomWalk = settings.moveKernel() == MoveKernel.RANDOM_WALK;
-            double target = settings.targetAcceptance(model.parameters().dimension());
+            double targetAcceptance = settings.targetAcceptance(model.parameters().dimension());
+            boolean more = !sequence.isLast(target);
             if (settings.fixedSteps() > 0) {
                 steps = settings.fixedSteps();
-                moves = population.moveLast(proposal, temperature, iteration, 0, steps);
+                Population.Moves last = population.move(proposal, target, iteration, 0, steps, more);
+                moves = last.tally();
+                inputs = last.inputs();
                 if (randomWalk) {
-                    scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), target);
+                    scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), targetAcceptance);
                 }
             } else if (randomWalk) {
                 // The pilot step tries four scales at once; the rest of the iteration uses the one
                 // whose acceptance is nearest the target, and its step count follows from it.
-                MoveTally pilot = population.move(proposal.withRungs(MoveAdaptation.ladder()), temperature,
-                        iteration, 0, 1);
+                MoveTally pilot = population.move(proposal.withRungs(MoveAdaptation.ladder()), target,
+                        iteration, 0, 1, false).tally();
                 LadderChoice chosen = MoveAdaptation.scaleFromLadder(scale, pilot.proposedByRung(),
-                        pilot.acceptedByRung(), target);
+                        pilot.acceptedByRung(), targetAcceptance);
                 usedScale = chosen.scale();
                 steps = MoveAdaptation.steps(chosen.expectedAcceptance(), settings.stayProbability(),
                         settings.maxSteps());
                 moves = pilot;
                 if (steps > 1) {
                     Proposal tuned = ProposalFit.fit(settings.moveKernel(), moments, usedScale);
-                    MoveTally rest = population.moveLast(tuned, temperature, iteration, 1, steps - 1);
-                    moves = pilot.plus(rest);
-                    scale = MoveAdaptation.nextScale(usedScale, rest.acceptanceRate(), target);
+                    Population.Moves rest = population.move(tuned, target, iteration, 1, steps - 1, more);
+                    moves = pilot.plus(rest.tally());
+                    inputs = rest.inputs();
+                    scale = MoveAdaptation.nextScale(usedScale, rest.tally().acceptanceRate(), targetAcceptance);
                 } else {
                     scale = usedScale;
                 }
             } else {
-                MoveTally pilot = population.move(proposal, temperature, iteration, 0, 1);
+                MoveTally pilot = population.move(proposal, target, iteration, 0, 1, false).tally();
                 steps = MoveAdaptation.steps(pilot.acceptanceRate(), settings.stayProbability(), settings.maxSteps());
-                moves = steps > 1 ? pilot.plus(population.moveLast(proposal, temperature, iteration, 1, steps - 1)) : pilot;
+                moves = pilot;
+                if (steps > 1) {
+                    Population.Moves rest = population.move(proposal, target, iteration, 1, steps - 1, more);
+                    moves = pilot.plus(rest.tally());
+                    inputs = rest.inputs();
+                }
             }
             double moveSeconds = seconds(phase);
-            EvaluationTally evaluations = moves.evaluations();
+            EvaluationTally evaluations = stepEvaluations.followedBy(moves.evaluations());
             InvalidEvaluationsException.check(settings, iteration, evaluations, model.parameters());
             total = total.followedBy(evaluations);
 
-            finishIteration(new IterationRecord(iteration, temperature, ess, resample, ancestors, moved,
+            finishIteration(new IterationRecord(iteration, target.progress(), ess, resample, ancestors, moved,
                     moves.acceptanceRate(), steps, usedScale, increment, logEvidence, evaluations.evaluations(),
                     evaluations.zeroLikelihood(), evaluations.invalid(), evaluations.firstInvalidIndex(),
                     evaluations.firstInvalidReason(),
                     new PhaseTimes(0, temperatureSeconds, reweightSeconds, resampleSeconds, redistributeSeconds,
                             fitSeconds, moveSeconds, 0),
                     evaluations.retried(), evaluations.failedAfterRetries(), IterationRecord.valuesOf(evaluations)));
+        }
+
+        private String describeTarget(Target next) {
+            return next instanceof TemperedTarget tempered ? "temperature " + tempered.temperature() : next.toString();
         }
 
         private SamplerResult result() {

@@ -22,6 +22,7 @@ import org.skerry.engine.particle.ParticleBlock;
 import org.skerry.engine.particle.ParticleBlockCodec;
 import org.skerry.engine.population.BlockStore;
 import org.skerry.engine.population.Population;
+import org.skerry.engine.temper.TemperedTarget;
 import org.skerry.engine.population.StoredBlock;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
 
@@ -176,8 +177,10 @@ class ResumeFromCheckpointTest {
         bytes[bytes.length / 2] ^= 0x40;
         saved.store().files.remove("block-0");
         try (ThreadPoolBackend backend = new ThreadPoolBackend(2, 0);
-                Population population = backend.create(ModelSource.local(SameSeedSameAnswerTest.model()), 240, 31)) {
-            population.initialise(null);
+                Population population = new Population(
+                        backend.open(ModelSource.local(SameSeedSameAnswerTest.model()), 240, 0), 240,
+                        SameSeedSameAnswerTest.model().dimension(), 31, 0)) {
+            population.initialise(null, new TemperedTarget(0.0));
             double[] before = population.temperingInputs().logWeight();
             List<String> problems = population.readBlocks(saved.store(), saved.blocks());
             assertTrue(problems.stream().anyMatch(p -> p.contains("block-0")), problems.toString());

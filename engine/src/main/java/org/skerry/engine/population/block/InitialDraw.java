@@ -29,6 +29,7 @@ public final class InitialDraw {
      */
     public static EvaluationTally draw(ParticleBlock block, Prior proposal, LikelihoodEvaluator evaluator,
             long seed) {
+        boolean usesLikelihood = evaluator.target() == null || evaluator.target().usesLikelihood();
         Model model = evaluator.model();
         Prior prior = model.prior();
         ParameterSpace space = model.parameters();
@@ -55,7 +56,8 @@ public final class InitialDraw {
                 block.logWeight()[i] = Double.NEGATIVE_INFINITY;
                 continue;
             }
-            double logLikelihood = evaluator.evaluate(x, index, 0, 0);
+            // Before the first observation is added (data tempering) there is nothing to evaluate.
+            double logLikelihood = usesLikelihood ? evaluator.evaluate(x, index, 0, 0) : 0.0;
             block.logLikelihood()[i] = logLikelihood;
             // An invalid evaluation counts as a zero likelihood: the weight stays that of the
             // prior target at φ = 0 and drops to zero at the first reweighting, as for any zero.

@@ -6,6 +6,7 @@ import org.skerry.engine.model.Model;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.random.RandomStream;
 import org.skerry.engine.random.StreamPurpose;
+import org.skerry.engine.target.Target;
 
 /**
  * Executor side: calls a model's log-likelihood for one particle at a time, turning NaN,
@@ -26,6 +27,7 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
     private final long seed;
     private final RandomStream simulatorStream;
     private final int retries;
+    private final Target target;
     private long particleIndex;
     private int iteration;
     private int step;
@@ -45,19 +47,33 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
         this(model, seed, 0);
     }
 
-    /** An evaluator that repeats an invalid call up to {@code retries} times. */
+    /** An evaluator of the whole likelihood that repeats an invalid call up to {@code retries} times. */
     public LikelihoodEvaluator(Model model, long seed, int retries) {
+        this(model, seed, retries, null);
+    }
+
+    /**
+     * An evaluator of the log-likelihood {@code target} uses (the whole likelihood when null) that
+     * repeats an invalid call up to {@code retries} times.
+     */
+    public LikelihoodEvaluator(Model model, long seed, int retries, Target target) {
         if (retries < 0) {
             throw new IllegalArgumentException("retries must be >= 0, was " + retries);
         }
         this.model = model;
         this.seed = seed;
         this.retries = retries;
+        this.target = target == null || target.wholeLikelihood() ? null : target;
         this.simulatorStream = new RandomStream(seed, StreamPurpose.SIMULATOR, 0, 0, 0);
     }
 
     public Model model() {
         return model;
+    }
+
+    /** The target whose log-likelihood is evaluated, or null for the whole likelihood. */
+    public Target target() {
+        return target;
     }
 
     /**
@@ -74,7 +90,8 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
             // Each attempt restarts the simulator stream, so a retry sees the numbers the first call saw.
             this.streamReady = false;
             try {
-                double value = model.logLikelihood(parameters, this);
+                double value = target == null ? model.logLikelihood(parameters, this)
+                        : target.logLikelihood(model, parameters, this);
                 if (!Double.isNaN(value) && value != Double.POSITIVE_INFINITY) {
                     if (attempt > 0) {
                         retried++;
@@ -109,7 +126,7 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
             double[] out, double[] scratch) {
         int d = model.dimension();
         boolean batched = false;
-        if (model instanceof BatchedModel && count > 0) {
+        if (target == null && model instanceof BatchedModel && count > 0) {
             try {
                 ((BatchedModel) model).logLikelihoods(parameters, count, out);
                 batched = true;

@@ -10,7 +10,7 @@ import java.util.concurrent.ThreadFactory;
 import java.util.concurrent.atomic.AtomicInteger;
 import java.util.function.Function;
 import org.skerry.engine.model.ModelSource;
-import org.skerry.engine.population.Population;
+import org.skerry.engine.population.BlockExecutor;
 import org.skerry.engine.population.PopulationBackend;
 
 /**
@@ -61,13 +61,12 @@ public final class ThreadPoolBackend implements PopulationBackend {
     }
 
     @Override
-    public Population create(ModelSource source, int particles, long seed, int islands) {
-        if (islands < 0 || islands > particles) {
-            throw new IllegalArgumentException("islands must be in [0, " + particles + "], was " + islands);
+    public BlockExecutor open(ModelSource source, int particles, int blocks) {
+        if (blocks < 0 || blocks > particles) {
+            throw new IllegalArgumentException("blocks must be in [0, " + particles + "], was " + blocks);
         }
         int size = blockSize > 0 ? blockSize : Math.max(1, (particles + 4 * threads - 1) / (4 * threads));
-        int blocks = islands > 0 ? islands : (particles + size - 1) / size;
-        return new ThreadPopulation(this, source.create(), particles, seed, blocks, source.evaluationRetries());
+        return new ThreadBlocks(this, source.create(), blocks > 0 ? blocks : (particles + size - 1) / size);
     }
 
     /** Applies {@code task} to every item on the pool and returns the results in item order. */

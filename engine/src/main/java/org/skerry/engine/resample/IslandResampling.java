@@ -1,9 +1,6 @@
-package org.skerry.engine.population.block;
+package org.skerry.engine.resample;
 
 import org.skerry.engine.particle.ParticleBlock;
-import org.skerry.engine.resample.ParticleExpansion;
-import org.skerry.engine.resample.Resampling;
-import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.weight.LogWeights;
 
 /**

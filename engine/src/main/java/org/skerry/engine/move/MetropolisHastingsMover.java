@@ -1,18 +1,18 @@
-package org.skerry.engine.population.block;
+package org.skerry.engine.move;
 
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.model.Prior;
-import org.skerry.engine.move.Proposal;
 import org.skerry.engine.particle.ParticleBlock;
 import org.skerry.engine.population.MoveTally;
 import org.skerry.engine.random.RandomStream;
 import org.skerry.engine.random.StreamPurpose;
-import org.skerry.engine.temper.TemperedTarget;
+import org.skerry.engine.population.block.LikelihoodEvaluator;
+import org.skerry.engine.target.Target;
 
 /**
  * Executor side: Metropolis–Hastings steps for every living particle of a block, leaving the
- * tempered target {@code prior × likelihood^φ} invariant (Del Moral, Doucet &amp; Jasra 2006,
+ * current target of the sequence (e.g. {@code prior × likelihood^φ}) invariant (Del Moral, Doucet &amp; Jasra 2006,
  * JRSS-B 68(3)). Moves happen on the unconstrained scale, with the log-Jacobian in the
  * acceptance ratio, so they never leave the support. A proposal the prior rules out is rejected
  * without a likelihood call; an invalid evaluation counts as a zero likelihood there (rejected)
@@ -27,8 +27,8 @@ public final class MetropolisHastingsMover {
     private MetropolisHastingsMover() {
     }
 
-    /** Runs steps {@code firstStep … firstStep+steps−1} at temperature {@code temperature}. */
-    public static MoveTally move(ParticleBlock block, Proposal proposal, double temperature, int iteration,
+    /** Runs steps {@code firstStep … firstStep+steps−1}, invariant for {@code target}. */
+    public static MoveTally move(ParticleBlock block, Proposal proposal, Target target, int iteration,
             int firstStep, int steps, LikelihoodEvaluator evaluator, long seed) {
         Model model = evaluator.model();
         ParameterSpace space = model.parameters();
@@ -53,7 +53,7 @@ public final class MetropolisHastingsMover {
             System.arraycopy(values, i * d, x, 0, d);
             space.toUnconstrained(x, zi);
             System.arraycopy(zi, 0, z, i * d, d);
-            currentTarget[i] = TemperedTarget.logDensity(logPrior[i], logLikelihood[i], temperature)
+            currentTarget[i] = target.logDensity(logPrior[i], logLikelihood[i])
                     + space.logJacobian(zi);
         }
 
@@ -114,14 +114,14 @@ public final class MetropolisHastingsMover {
                 if (!alive[i] || candidatePrior[i] == Double.NEGATIVE_INFINITY) {
                     continue;
                 }
-                double target = TemperedTarget.logDensity(candidatePrior[i], candidateLikelihood[i], temperature)
+                double candidateTarget = target.logDensity(candidatePrior[i], candidateLikelihood[i])
                         + candidateJacobian[i];
                 System.arraycopy(z, i * d, zi, 0, d);
                 System.arraycopy(candidateZ, i * d, zNew, 0, d);
-                double logRatio = target - currentTarget[i] + proposal.logProposalRatio(zi, zNew, scratch);
+                double logRatio = candidateTarget - currentTarget[i] + proposal.logProposalRatio(zi, zNew, scratch);
                 random.reset(seed, StreamPurpose.MOVE_ACCEPT, iteration, index[i], step);
                 double u = random.nextOpenDouble();
-                if (target > Double.NEGATIVE_INFINITY && StrictMath.log(u) < logRatio) {
+                if (candidateTarget > Double.NEGATIVE_INFINITY && StrictMath.log(u) < logRatio) {
                     accepted++;
                     if (acceptedByRung != null) {
                         acceptedByRung[proposal.rungOf(index[i])]++;
@@ -130,7 +130,7 @@ public final class MetropolisHastingsMover {
                     System.arraycopy(candidateX, i * d, values, i * d, d);
                     logPrior[i] = candidatePrior[i];
                     logLikelihood[i] = candidateLikelihood[i];
-                    currentTarget[i] = target;
+                    currentTarget[i] = candidateTarget;
                 }
             }
         }

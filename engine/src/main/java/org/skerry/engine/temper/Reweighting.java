@@ -1,7 +1,6 @@
-package org.skerry.engine.population.block;
+package org.skerry.engine.temper;
 
 import org.skerry.engine.particle.ParticleBlock;
-import org.skerry.engine.temper.TemperedTarget;
 
 /**
  * Executor side: moves a block's weights from one tempered target to the next,

@@ -1,0 +1,193 @@
+package org.skerry.engine.population.threads;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.function.Consumer;
+import org.skerry.engine.model.Model;
+import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.BlockCursor;
+import org.skerry.engine.population.BlockExecutor;
+import org.skerry.engine.population.BlockStep;
+import org.skerry.engine.population.BlockStore;
+import org.skerry.engine.population.StoredBlock;
+import org.skerry.engine.population.block.BlockReading;
+import org.skerry.engine.resample.Redistribution;
+
+/**
+ * A population's blocks held in this JVM, one task per block on the backend's thread pool.
+ * Steps change blocks in place: nothing is cached that a failure would make stale.
+ */
+final class ThreadBlocks implements BlockExecutor {
+
+    private final ThreadPoolBackend backend;
+    private final Model model;
+    private final int count;
+    private List<ParticleBlock> blocks = new ArrayList<>();
+
+    ThreadBlocks(ThreadPoolBackend backend, Model model, int count) {
+        this.backend = backend;
+        this.model = model;
+        this.count = count;
+    }
+
+    @Override
+    public int blockCount() {
+        return blocks.isEmpty() ? count : blocks.size();
+    }
+
+    @Override
+    public <R> List<R> create(long[] first, int[] sizes, BlockStep<R> step) {
+        List<ParticleBlock> made = new ArrayList<>(sizes.length);
+        for (int b = 0; b < sizes.length; b++) {
+            ParticleBlock block = new ParticleBlock(model.dimension(), sizes[b]);
+            block.resize(sizes[b]);
+            for (int i = 0; i < sizes[b]; i++) {
+                block.index()[i] = first[b] + i;
+            }
+            made.add(block);
+        }
+        blocks = made;
+        return update(step);
+    }
+
+    @Override
+    public <R> List<R> update(BlockStep<R> step) {
+        List<ParticleBlock> current = blocks;
+        ParticleBlock[] next = current.toArray(new ParticleBlock[0]);
+        List<R> results = backend.map(numbers(current.size()), b -> step.apply(new Cursor(b, next)));
+        blocks = new ArrayList<>(List.of(next));
+        return results;
+    }
+
+    @Override
+    public <R> List<R> read(BlockStep<R> query) {
+        ParticleBlock[] current = blocks.toArray(new ParticleBlock[0]);
+        return backend.map(numbers(current.length), b -> query.apply(new ReadOnlyCursor(b, current)));
+    }
+
+    @Override
+    public void exchange(Redistribution plan) {
+        blocks = new ArrayList<>(List.of(plan.apply(blocks.toArray(new ParticleBlock[0]))));
+    }
+
+    @Override
+    public void forEachBlock(Consumer<ParticleBlock> sink) {
+        blocks.forEach(sink);
+    }
+
+    @Override
+    public List<StoredBlock> write(BlockStore store) {
+        List<ParticleBlock> current = blocks;
+        return backend.map(numbers(current.size()), b -> {
+            try {
+                return store.write(b, current.get(b));
+            } catch (IOException e) {
+                throw new UncheckedIOException("cannot write block " + b + " to " + store.location() + ": " + e, e);
+            }
+        });
+    }
+
+    @Override
+    public List<String> read(List<StoredBlock> stored, BlockReader reader) {
+        List<BlockReading.Outcome> outcomes = backend.map(numbers(stored.size()), b -> reader.read(b, stored.get(b)));
+        List<String> problems = new ArrayList<>();
+        List<ParticleBlock> read = new ArrayList<>(outcomes.size());
+        for (BlockReading.Outcome outcome : outcomes) {
+            if (outcome.problem() != null) {
+                problems.add(outcome.problem());
+            }
+            read.add(outcome.block());
+        }
+        if (problems.isEmpty()) {
+            blocks = read;
+        }
+        return problems;
+    }
+
+    @Override
+    public void close() {
+        blocks = new ArrayList<>();
+    }
+
+    private static List<Integer> numbers(int count) {
+        List<Integer> numbers = new ArrayList<>(count);
+        for (int b = 0; b < count; b++) {
+            numbers.add(b);
+        }
+        return numbers;
+    }
+
+    /** A block changed in place; a replacement goes into the next list of blocks. */
+    private final class Cursor implements BlockCursor {
+        private final int number;
+        private final ParticleBlock[] blocks;
+
+        Cursor(int number, ParticleBlock[] blocks) {
+            this.number = number;
+            this.blocks = blocks;
+        }
+
+        @Override
+        public int number() {
+            return number;
+        }
+
+        @Override
+        public ParticleBlock current() {
+            return blocks[number];
+        }
+
+        @Override
+        public ParticleBlock block() {
+            return blocks[number];
+        }
+
+        @Override
+        public void replace(ParticleBlock replacement) {
+            blocks[number] = replacement;
+        }
+
+        @Override
+        public Model model() {
+            return model;
+        }
+    }
+
+    /** A block for a query, which must not change it. */
+    private final class ReadOnlyCursor implements BlockCursor {
+        private final int number;
+        private final ParticleBlock[] blocks;
+
+        ReadOnlyCursor(int number, ParticleBlock[] blocks) {
+            this.number = number;
+            this.blocks = blocks;
+        }
+
+        @Override
+        public int number() {
+            return number;
+        }
+
+        @Override
+        public ParticleBlock current() {
+            return blocks[number];
+        }
+
+        @Override
+        public ParticleBlock block() {
+            throw new IllegalStateException("a query must not change block " + number);
+        }
+
+        @Override
+        public void replace(ParticleBlock replacement) {
+            throw new IllegalStateException("a query must not replace block " + number);
+        }
+
+        @Override
+        public Model model() {
+            return model;
+        }
+    }
+}

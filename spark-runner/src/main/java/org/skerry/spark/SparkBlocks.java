@@ -1,0 +1,332 @@
+package org.skerry.spark;
+
+import java.util.ArrayList;
+import java.util.Iterator;
+import java.util.List;
+import java.util.function.Consumer;
+import org.apache.spark.TaskContext;
+import org.apache.spark.api.java.JavaPairRDD;
+import org.apache.spark.api.java.JavaRDD;
+import org.apache.spark.api.java.JavaSparkContext;
+import org.apache.spark.broadcast.Broadcast;
+import org.apache.spark.storage.StorageLevel;
+import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ModelSource;
+import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.BlockCursor;
+import org.skerry.engine.population.BlockExecutor;
+import org.skerry.engine.population.BlockStep;
+import org.skerry.engine.population.BlockStore;
+import org.skerry.engine.population.StoredBlock;
+import org.skerry.engine.population.block.BlockReading;
+import org.skerry.engine.resample.Redistribution;
+import scala.Tuple2;
+
+/**
+ * A population's blocks held by Spark: a cached RDD with one {@link ParticleBlock} per partition.
+ * Each step is one job that maps the cached states to new ones and collects their typed results;
+ * the states it replaces are dropped once that job has computed the new ones. An exchange of
+ * particles between partitions is only defined, and computed (with its shuffle) by the next job.
+ * The model source reaches each executor once, as a broadcast.
+ */
+final class SparkBlocks implements BlockExecutor {
+
+    /** Partitions fetched per job by {@link #forEachBlock}: bounds the driver's extra memory. */
+    private static final int PARTITIONS_PER_FETCH = 16;
+
+    private final JavaSparkContext context;
+    private final Broadcast<ModelShipment> source;
+    private final int dimension;
+    private int partitions;
+    private JavaRDD<PartitionState<?>> states;
+    /** States that {@link #states} was defined from, dropped once a job has computed it. */
+    private final List<JavaRDD<PartitionState<?>>> replaced = new ArrayList<>();
+
+    SparkBlocks(JavaSparkContext context, ModelSource source, int dimension, int partitions) {
+        this.context = context;
+        this.source = context.broadcast(new ModelShipment(source));
+        this.dimension = dimension;
+        this.partitions = partitions;
+    }
+
+    @Override
+    public int blockCount() {
+        return partitions;
+    }
+
+    /** The current states' lineage, as Spark prints it (for tests). */
+    String lineage() {
+        return states.toDebugString();
+    }
+
+    @Override
+    public <R> List<R> create(long[] first, int[] sizes, BlockStep<R> step) {
+        List<long[]> runs = new ArrayList<>(sizes.length);
+        for (int b = 0; b < sizes.length; b++) {
+            runs.add(new long[] {first[b], sizes[b]});
+        }
+        int d = dimension;
+        Broadcast<ModelShipment> model = source;
+        JavaRDD<PartitionState<?>> next = context.parallelize(runs, runs.size()).mapPartitionsWithIndex((p, it) -> {
+            long[] run = it.next();
+            int count = (int) run[1];
+            ParticleBlock block = new ParticleBlock(d, count);
+            block.resize(count);
+            for (int i = 0; i < count; i++) {
+                block.index()[i] = run[0] + i;
+            }
+            return List.<PartitionState<?>>of(applyTo(p, block, true, step, model)).iterator();
+        }, true);
+        partitions = runs.size();
+        return commit(next);
+    }
+
+    @Override
+    public <R> List<R> update(BlockStep<R> step) {
+        Broadcast<ModelShipment> model = source;
+        return commit(states.mapPartitionsWithIndex((p, it) ->
+                List.<PartitionState<?>>of(applyTo(p, it.next().block, false, step, model)).iterator(), true));
+    }
+
+    @Override
+    public <R> List<R> read(BlockStep<R> query) {
+        Broadcast<ModelShipment> model = source;
+        List<R> results = states.mapPartitionsWithIndex((p, it) -> {
+            ParticleBlock block = it.next().block;
+            return List.of(query.apply(new Cursor(p, block, false, model, true))).iterator();
+        }, true).collect();
+        dropReplaced();
+        return results;
+    }
+
+    /** Executor side: runs {@code step} on a partition's block and keeps its result with the new state. */
+    private static <R> PartitionState<R> applyTo(int partition, ParticleBlock block, boolean owned, BlockStep<R> step,
+            Broadcast<ModelShipment> model) {
+        Cursor cursor = new Cursor(partition, block, owned, model, false);
+        R report = step.apply(cursor);
+        return new PartitionState<>(cursor.result(), report);
+    }
+
+    /** Defines {@code next} as the states, computes it in one job and returns its results in partition order. */
+    @SuppressWarnings("unchecked")
+    private <R> List<R> commit(JavaRDD<PartitionState<?>> next) {
+        define(next);
+        List<R> results = new ArrayList<>(partitions);
+        for (Object report : states.map(state -> state.report).collect()) {
+            results.add((R) report);
+        }
+        dropReplaced();
+        return results;
+    }
+
+    /**
+     * Makes {@code next} the states without running a job: it is cached when a job first
+     * computes it, and the states it replaces are dropped then.
+     */
+    private void define(JavaRDD<PartitionState<?>> next) {
+        next.persist(StorageLevel.MEMORY_ONLY());
+        if (states != null) {
+            replaced.add(states);
+        }
+        states = next;
+    }
+
+    private void dropReplaced() {
+        for (JavaRDD<PartitionState<?>> old : replaced) {
+            old.unpersist(false);
+        }
+        replaced.clear();
+    }
+
+    /**
+     * Only the runs the plan names move; each partition keeps the part of its run it will hold,
+     * and its last result.
+     */
+    @Override
+    public void exchange(Redistribution plan) {
+        JavaRDD<Tuple2<Integer, ParticleBlock>> outgoing = states.mapPartitionsWithIndex((p, iterator) -> {
+            ParticleBlock block = iterator.next().block;
+            List<Tuple2<Integer, ParticleBlock>> runs = new ArrayList<>();
+            for (int t = 0; t < plan.transferCount(); t++) {
+                if (plan.fromBlock(t) == p) {
+                    int from = (int) (plan.runFirstIndex(t) - block.index()[0]);
+                    runs.add(new Tuple2<>(plan.toBlock(t), BlockSlices.slice(block, from, plan.runCount(t))));
+                }
+            }
+            return runs.iterator();
+        }, true);
+        JavaRDD<ParticleBlock> incoming = JavaPairRDD.fromJavaRDD(outgoing).partitionBy(new BlockPartitioner(partitions))
+                .values();
+        int d = dimension;
+        define(states.zipPartitions(incoming, (Iterator<PartitionState<?>> own, Iterator<ParticleBlock> arriving) -> {
+            int p = TaskContext.getPartitionId();
+            PartitionState<?> state = own.next();
+            ParticleBlock block = state.block;
+            long targetFirst = plan.targetFirstIndex(p);
+            long targetEnd = targetFirst + plan.targetSize(p);
+            List<ParticleBlock> pieces = new ArrayList<>();
+            if (block.size() > 0) {
+                long keepFirst = Math.max(targetFirst, block.index()[0]);
+                long keepEnd = Math.min(targetEnd, block.index()[0] + block.size());
+                if (keepEnd > keepFirst) {
+                    pieces.add(BlockSlices.slice(block, (int) (keepFirst - block.index()[0]),
+                            (int) (keepEnd - keepFirst)));
+                }
+            }
+            arriving.forEachRemaining(pieces::add);
+            return List.<PartitionState<?>>of(new PartitionState<>(BlockSlices.join(d, pieces), state.report))
+                    .iterator();
+        }));
+    }
+
+    @Override
+    public void forEachBlock(Consumer<ParticleBlock> sink) {
+        // A few partitions per job, so the driver never holds every block at once.
+        JavaRDD<ParticleBlock> blocks = states.map(state -> state.block);
+        for (int from = 0; from < partitions; from += PARTITIONS_PER_FETCH) {
+            int[] ids = new int[Math.min(PARTITIONS_PER_FETCH, partitions - from)];
+            for (int k = 0; k < ids.length; k++) {
+                ids[k] = from + k;
+            }
+            for (List<ParticleBlock> part : blocks.collectPartitions(ids)) {
+                part.forEach(sink);
+            }
+        }
+        dropReplaced();
+    }
+
+    /**
+     * Executors write their own blocks in parallel (one job); then the states are redefined as
+     * those files read back, which cuts their lineage: a lost partition is read back from the
+     * checkpoint instead of being recomputed from the initial draw. The read-back is computed by
+     * the next job; the old states are dropped at once, since the files now hold the population.
+     */
+    @Override
+    public List<StoredBlock> write(BlockStore store) {
+        List<StoredBlock> stored = states.mapPartitionsWithIndex((p, iterator) ->
+                List.of(store.write(p, iterator.next().block)).iterator(), true).collect();
+        dropReplaced();
+        int d = dimension;
+        String location = store.location();
+        long[] first = firstIndices(stored);
+        define(fromFiles(stored, (number, block) -> BlockReading.read(store, block, first[number], d)).map(state -> {
+            if (state.report != null) {
+                throw new java.io.UncheckedIOException(new java.io.IOException("the checkpoint just written to "
+                        + location + " does not read back: " + state.report));
+            }
+            return state;
+        }));
+        dropReplaced();
+        partitions = stored.size();
+        return stored;
+    }
+
+    private static long[] firstIndices(List<StoredBlock> stored) {
+        long[] first = new long[stored.size()];
+        long running = 0;
+        for (int b = 0; b < stored.size(); b++) {
+            first[b] = running;
+            running += stored.get(b).particles();
+        }
+        return first;
+    }
+
+    @Override
+    public List<String> read(List<StoredBlock> stored, BlockReader reader) {
+        JavaRDD<PartitionState<?>> next = fromFiles(stored, reader);
+        next.persist(StorageLevel.MEMORY_ONLY());
+        List<String> problems = new ArrayList<>();
+        for (Object report : next.map(state -> state.report).collect()) {
+            if (report != null) {
+                problems.add((String) report);
+            }
+        }
+        if (!problems.isEmpty()) {
+            next.unpersist(false);
+            return problems;
+        }
+        define(next);
+        dropReplaced();
+        partitions = stored.size();
+        return problems;
+    }
+
+    /** The blocks in {@code stored} as states, each with what is wrong with its file as report (null when nothing). */
+    private JavaRDD<PartitionState<?>> fromFiles(List<StoredBlock> stored, BlockReader reader) {
+        return context.parallelize(stored, stored.size()).mapPartitionsWithIndex((p, iterator) -> {
+            BlockReading.Outcome outcome = reader.read(p, iterator.next());
+            return List.<PartitionState<?>>of(new PartitionState<>(outcome.block(), outcome.problem())).iterator();
+        }, true);
+    }
+
+    @Override
+    public void close() {
+        dropReplaced();
+        if (states != null) {
+            states.unpersist(false);
+            states = null;
+        }
+        ModelCache.release(source.value().source.id());
+        source.destroy();
+    }
+
+    /**
+     * Executor side: one partition's block for a step. A step that changes particles gets a
+     * private copy, so the cached state it came from stays as it was (Spark may recompute from it).
+     */
+    private static final class Cursor implements BlockCursor {
+        private final int number;
+        private final ParticleBlock original;
+        private final boolean owned;
+        private final Broadcast<ModelShipment> source;
+        private final boolean readOnly;
+        private ParticleBlock result;
+
+        Cursor(int number, ParticleBlock original, boolean owned, Broadcast<ModelShipment> source, boolean readOnly) {
+            this.number = number;
+            this.original = original;
+            this.owned = owned;
+            this.source = source;
+            this.readOnly = readOnly;
+            this.result = original;
+        }
+
+        @Override
+        public int number() {
+            return number;
+        }
+
+        @Override
+        public ParticleBlock current() {
+            return result;
+        }
+
+        @Override
+        public ParticleBlock block() {
+            if (readOnly) {
+                throw new IllegalStateException("a query must not change block " + number);
+            }
+            if (result == original && !owned) {
+                result = original.copy();
+            }
+            return result;
+        }
+
+        @Override
+        public void replace(ParticleBlock replacement) {
+            if (readOnly) {
+                throw new IllegalStateException("a query must not replace block " + number);
+            }
+            result = replacement;
+        }
+
+        @Override
+        public Model model() {
+            return ModelCache.get(source.value().source);
+        }
+
+        ParticleBlock result() {
+            return result;
+        }
+    }
+}
