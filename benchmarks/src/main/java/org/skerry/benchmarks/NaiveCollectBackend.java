@@ -2,13 +2,13 @@ package org.skerry.benchmarks;
 
 import org.apache.spark.api.java.JavaSparkContext;
 import org.skerry.engine.model.ModelSource;
-import org.skerry.engine.population.Population;
+import org.skerry.engine.population.BlockExecutor;
 import org.skerry.engine.population.PopulationBackend;
 
 /**
  * The baseline to beat: a Spark backend written the simple way, which keeps the whole population
  * on the driver and ships all of it to the executors for every likelihood pass (see
- * {@link NaiveCollectPopulation}). It runs on an existing Spark context (skerry's, so both use the
+ * {@link NaiveCollectBlocks}). It runs on an existing Spark context (skerry's, so both use the
  * same Kryo settings and executors) and does not stop it.
  */
 final class NaiveCollectBackend implements PopulationBackend {
@@ -28,11 +28,11 @@ final class NaiveCollectBackend implements PopulationBackend {
     }
 
     @Override
-    public Population create(ModelSource source, int particles, long seed, int islands) {
-        if (islands != 0) {
+    public BlockExecutor open(ModelSource source, int particles, int blocks) {
+        if (blocks != 0) {
             throw new IllegalArgumentException("the naive baseline has no island mode");
         }
-        return new NaiveCollectPopulation(context, source, particles, seed, Math.min(partitions, particles));
+        return new NaiveCollectBlocks(context, source, Math.min(partitions, particles));
     }
 
     @Override
