@@ -14,6 +14,9 @@ import org.apache.commons.math3.linear.RealVector;
  * {@code m_N = S_N(S₀⁻¹m₀ + Xᵀy/σ²)}. Evidence (ibid. §3.5.1, eq. 3.86 for the isotropic case;
  * in general the linear-Gaussian marginal of §2.3.3, eq. 2.115):
  * {@code y ~ N(Xm₀, σ²I + XS₀Xᵀ)}.
+ *
+ * <p>The likelihood of rows {@code [from, to)} is {@code log N(y_range; X_range·w, σ²I)}, by
+ * {@link Gaussians#logDensity} (Cholesky) with Commons Math's matrix product.
  */
 public final class LinearRegressionExact {
 
@@ -75,5 +78,13 @@ public final class LinearRegressionExact {
         double energy = 0.5 * beta * residual.dotProduct(residual) + 0.5 * alpha * mN.dotProduct(mN);
         return 0.5 * m * Math.log(alpha) + 0.5 * n * Math.log(beta) - energy - 0.5 * Math.log(lu.getDeterminant())
                 - 0.5 * n * Math.log(2.0 * Math.PI);
+    }
+
+    /** log N(y[from..to); X[from..to)·w, σ²I). */
+    public double logLikelihood(double[] w, int from, int to) {
+        int size = to - from;
+        RealMatrix rows = x.getSubMatrix(from, to - 1, 0, x.getColumnDimension() - 1);
+        double[][] covariance = MatrixUtils.createRealIdentityMatrix(size).scalarMultiply(sigma * sigma).getData();
+        return Gaussians.logDensity(y.getSubVector(from, size).toArray(), rows.operate(w), covariance);
     }
 }

@@ -10,6 +10,10 @@ package org.skerry.engine.reference;
  * Learning (2006), §2.3.3, eq. 2.115, marginal of a linear-Gaussian model):
  * {@code y ~ N(μ₀·1, σ²I + τ²11ᵀ)}, evaluated with Commons Math's Cholesky decomposition; over d
  * independent coordinates the evidence is the product of the d marginals.
+ *
+ * <p>The likelihood of a run of observations is the density of the stacked values under
+ * {@code N(μ, σ²I)}, evaluated by {@link Gaussians#logDensity} (Cholesky), not by summing
+ * per-observation terms as the model does.
  */
 public final class NormalMeanExact {
 
@@ -70,5 +74,20 @@ public final class NormalMeanExact {
             sum += logEvidence(k);
         }
         return sum;
+    }
+
+    /** log N(y_from..y_{to−1}; μ, σ²I): rows {@code [from, to)} stacked into one vector. */
+    public double logLikelihood(double[] mu, int from, int to) {
+        int d = dimension();
+        int size = (to - from) * d;
+        double[] values = new double[size];
+        double[] mean = new double[size];
+        double[][] covariance = new double[size][size];
+        for (int i = 0; i < size; i++) {
+            values[i] = rows[from + i / d][i % d];
+            mean[i] = mu[i % d];
+            covariance[i][i] = sigma * sigma;
+        }
+        return Gaussians.logDensity(values, mean, covariance);
     }
 }

@@ -3,7 +3,7 @@ package org.skerry.engine.model.builtin;
 import java.util.List;
 import org.apache.commons.math3.util.CombinatoricsUtils;
 import org.skerry.engine.model.LikelihoodContext;
-import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.model.Support;
@@ -15,8 +15,12 @@ import org.skerry.engine.model.prior.IndependentPrior;
  * prior {@code p ~ Beta(a, b)} (Gelman et al., Bayesian Data Analysis, 3rd ed., §2.4): posterior
  * {@code Beta(a + Σk, b + Σn − Σk)}. The log-likelihood keeps the binomial coefficients, so the
  * evidence is that of the counts themselves. Immutable and thread-safe.
+ *
+ * <p>Observation {@code i} is the count pair {@code (kᵢ, nᵢ)}, in the order given. A range sums
+ * its binomial coefficients in that order from 0 and its counts as whole numbers, which for the
+ * whole range is exactly the full likelihood's arithmetic: the two agree bit for bit.
  */
-public final class BetaBinomialModel implements Model {
+public final class BetaBinomialModel implements ObservationLikelihood {
 
     private static final ParameterSpace PARAMETERS =
             ParameterSpace.of(List.of("p"), List.of(Support.interval(0.0, 1.0)));
@@ -25,16 +29,24 @@ public final class BetaBinomialModel implements Model {
     private final long successes;
     private final long failures;
     private final double logCoefficients;
+    private final int[] successCounts;
+    private final int[] failureCounts;
+    private final double[] logCoefficient;
 
     private BetaBinomialModel(int[] k, int[] n, double a, double b) {
         this.prior = IndependentPrior.of(Beta.of(a, b));
+        this.successCounts = k;
+        this.failureCounts = new int[k.length];
+        this.logCoefficient = new double[k.length];
         long sumK = 0;
         long sumN = 0;
         double logC = 0.0;
         for (int i = 0; i < k.length; i++) {
             sumK += k[i];
             sumN += n[i];
-            logC += CombinatoricsUtils.binomialCoefficientLog(n[i], k[i]);
+            failureCounts[i] = n[i] - k[i];
+            logCoefficient[i] = CombinatoricsUtils.binomialCoefficientLog(n[i], k[i]);
+            logC += logCoefficient[i];
         }
         this.successes = sumK;
         this.failures = sumN - sumK;
@@ -100,6 +112,33 @@ public final class BetaBinomialModel implements Model {
             return Double.NEGATIVE_INFINITY;
         }
         return logCoefficients + successes * StrictMath.log(p) + failures * StrictMath.log1p(-p);
+    }
+
+    @Override
+    public int observationCount() {
+        return successCounts.length;
+    }
+
+    @Override
+    public double logLikelihood(double[] parameters, int fromObservation, int toObservation,
+            LikelihoodContext context) {
+        ObservationLikelihood.checkRange(fromObservation, toObservation, successCounts.length);
+        if (fromObservation == toObservation) {
+            return 0.0;
+        }
+        double p = parameters[0];
+        if (!(p > 0.0 && p < 1.0)) {
+            return Double.NEGATIVE_INFINITY;
+        }
+        long rangeSuccesses = 0;
+        long rangeFailures = 0;
+        double logC = 0.0;
+        for (int i = fromObservation; i < toObservation; i++) {
+            rangeSuccesses += successCounts[i];
+            rangeFailures += failureCounts[i];
+            logC += logCoefficient[i];
+        }
+        return logC + rangeSuccesses * StrictMath.log(p) + rangeFailures * StrictMath.log1p(-p);
     }
 
     @Override

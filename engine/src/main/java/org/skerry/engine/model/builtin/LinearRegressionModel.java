@@ -3,7 +3,7 @@ package org.skerry.engine.model.builtin;
 import java.util.ArrayList;
 import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
-import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.model.Support;
@@ -19,8 +19,13 @@ import org.skerry.engine.model.prior.MultivariateNormalPrior;
  * Matrix Computations, 4th ed., §5.2): {@code |y − Xw|² = |Rw − c|² + ρ} with {@code c} the first
  * p entries of {@code Qᵀy} and {@code ρ} the squared norm of the rest, which avoids the
  * cancellation of the normal-equations form. Otherwise it loops over the data.
+ *
+ * <p>Observation {@code i} is row {@code i} of X with response {@code yᵢ}, in the order given.
+ * The whole range is the full likelihood, bit for bit; a shorter range sums the squared
+ * residuals {@code (yᵢ − xᵢᵀw)²} over its rows, which agrees with the factorised whole range to
+ * the rounding of the factorisation (relative error of order ε times the condition number of X).
  */
-public final class LinearRegressionModel implements Model {
+public final class LinearRegressionModel implements ObservationLikelihood {
 
     // A diagonal entry of R this small relative to the largest one marks X as rank-deficient.
     private static final double RANK_TOLERANCE = 1e-10;
@@ -31,6 +36,7 @@ public final class LinearRegressionModel implements Model {
     private final int columns;
     private final double sigma;
     private final double logConstant;
+    private final double logScale;
     private final double halfPrecision;
     private final double[] design;
     private final double[] response;
@@ -50,7 +56,8 @@ public final class LinearRegressionModel implements Model {
         this.parameters = ParameterSpace.of(names, supports);
         this.prior = prior;
         this.sigma = sigma;
-        this.logConstant = -rows * (StrictMath.log(sigma) + 0.5 * StrictMath.log(2.0 * StrictMath.PI));
+        this.logScale = StrictMath.log(sigma) + 0.5 * StrictMath.log(2.0 * StrictMath.PI);
+        this.logConstant = -rows * logScale;
         this.halfPrecision = 0.5 / (sigma * sigma);
         this.design = new double[rows * columns];
         for (int i = 0; i < rows; i++) {
@@ -234,6 +241,33 @@ public final class LinearRegressionModel implements Model {
             }
         }
         return logConstant - halfPrecision * squares;
+    }
+
+    /** The number n of observations (rows of X). */
+    @Override
+    public int observationCount() {
+        return rows;
+    }
+
+    @Override
+    public double logLikelihood(double[] w, int fromObservation, int toObservation, LikelihoodContext context) {
+        ObservationLikelihood.checkRange(fromObservation, toObservation, rows);
+        if (fromObservation == toObservation) {
+            return 0.0;
+        }
+        if (fromObservation == 0 && toObservation == rows) {
+            return logLikelihood(w, context);
+        }
+        double squares = 0.0;
+        for (int i = fromObservation; i < toObservation; i++) {
+            double e = response[i];
+            int base = i * columns;
+            for (int j = 0; j < columns; j++) {
+                e -= design[base + j] * w[j];
+            }
+            squares += e * e;
+        }
+        return -(toObservation - fromObservation) * logScale - halfPrecision * squares;
     }
 
     @Override

@@ -2,7 +2,7 @@ package org.skerry.engine.model.builtin;
 
 import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
-import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.model.Support;
@@ -18,8 +18,12 @@ import org.skerry.engine.model.prior.Normal;
  * <p>The log-likelihood is the full product of normal densities, constants included, evaluated
  * from sufficient statistics: {@code Σⱼ|yⱼ − μ|² = S + n|ȳ − μ|²} with {@code S} the centred
  * sum of squares, computed once in two passes so that it does not suffer cancellation.
+ *
+ * <p>Observation {@code j} is row {@code j}, in the order given. The whole range is answered
+ * from the sufficient statistics, so it is the full likelihood bit for bit; a shorter range sums
+ * {@code |yⱼ − μ|²} over its rows, which agrees with the whole range to rounding.
  */
-public final class NormalMeanModel implements Model {
+public final class NormalMeanModel implements ObservationLikelihood {
 
     private final ParameterSpace parameters;
     private final IndependentPrior prior;
@@ -29,6 +33,8 @@ public final class NormalMeanModel implements Model {
     private final double centredSquares;
     private final double logConstant;
     private final double halfPrecision;
+    private final double[] rows;
+    private final double logScale;
 
     private NormalMeanModel(double[][] observations, double sigma, double priorMean, double priorSd) {
         int d = observations[0].length;
@@ -37,6 +43,10 @@ public final class NormalMeanModel implements Model {
         this.count = observations.length;
         this.sigma = sigma;
         this.sampleMean = new double[d];
+        this.rows = new double[count * d];
+        for (int j = 0; j < count; j++) {
+            System.arraycopy(observations[j], 0, rows, j * d, d);
+        }
         for (double[] row : observations) {
             for (int k = 0; k < d; k++) {
                 sampleMean[k] += row[k];
@@ -53,8 +63,8 @@ public final class NormalMeanModel implements Model {
             }
         }
         this.centredSquares = squares;
-        this.logConstant = -(double) count * d * (StrictMath.log(sigma)
-                + 0.5 * StrictMath.log(2.0 * StrictMath.PI));
+        this.logScale = StrictMath.log(sigma) + 0.5 * StrictMath.log(2.0 * StrictMath.PI);
+        this.logConstant = -(double) count * d * logScale;
         this.halfPrecision = 0.5 / (sigma * sigma);
     }
 
@@ -93,7 +103,8 @@ public final class NormalMeanModel implements Model {
         return prior;
     }
 
-    /** The number n of observations. */
+    /** The number n of observations (rows). */
+    @Override
     public int observationCount() {
         return count;
     }
@@ -110,6 +121,26 @@ public final class NormalMeanModel implements Model {
             distance += e * e;
         }
         return logConstant - halfPrecision * (centredSquares + count * distance);
+    }
+
+    @Override
+    public double logLikelihood(double[] mu, int fromObservation, int toObservation, LikelihoodContext context) {
+        ObservationLikelihood.checkRange(fromObservation, toObservation, count);
+        if (fromObservation == toObservation) {
+            return 0.0;
+        }
+        if (fromObservation == 0 && toObservation == count) {
+            return logLikelihood(mu, context);
+        }
+        int d = sampleMean.length;
+        double squares = 0.0;
+        for (int i = fromObservation * d; i < toObservation * d; i += d) {
+            for (int k = 0; k < d; k++) {
+                double e = rows[i + k] - mu[k];
+                squares += e * e;
+            }
+        }
+        return -(double) (toObservation - fromObservation) * d * logScale - halfPrecision * squares;
     }
 
     @Override

@@ -105,6 +105,21 @@ public final class OdeTrajectory {
      *     than {@link #maxEvaluations()} evaluations of the right-hand side
      */
     public double[][] solve(FirstOrderDifferentialEquations ode, double t0, double[] y0, double[] times) {
+        return solve(ode, t0, y0, times, times.length);
+    }
+
+    /**
+     * The states at the first {@code count} of {@code times}, bit for bit the first {@code count}
+     * rows of {@link #solve(FirstOrderDifferentialEquations, double, double[], double[])
+     * solve(ode, t0, y0, times)}, at less cost: the integration is set up for the whole span (the
+     * step-size limit and the last step's length depend on where it ends) and takes the same steps,
+     * but stops after the step that covers {@code times[count − 1]}.
+     *
+     * @throws IllegalArgumentException if the times, {@code count} or the state size are wrong
+     * @throws IllegalStateException as for the full solve
+     * @throws org.apache.commons.math3.exception.MaxCountExceededException as for the full solve
+     */
+    public double[][] solve(FirstOrderDifferentialEquations ode, double t0, double[] y0, double[] times, int count) {
         int dimension = ode.getDimension();
         if (absoluteTolerances.length != 1 && absoluteTolerances.length != dimension) {
             throw new IllegalArgumentException("this solver's tolerances are for " + absoluteTolerances.length
@@ -115,19 +130,26 @@ public final class OdeTrajectory {
                     + dimension + " equations");
         }
         checkTimes(t0, times);
-        double[][] out = new double[times.length][];
+        if (count < 0 || count > times.length) {
+            throw new IllegalArgumentException("count must lie in [0, " + times.length + "], was " + count);
+        }
+        double[][] out = new double[count][];
         int next = 0;
-        while (next < times.length && times[next] == t0) {
+        while (next < count && times[next] == t0) {
             out[next++] = y0.clone();
         }
-        if (next < times.length) {
+        if (next < count) {
             double end = times[times.length - 1];
             DormandPrince853Integrator integrator = absoluteTolerances.length == 1
                     ? new DormandPrince853Integrator(0.0, end - t0, absoluteTolerances[0], relativeTolerances[0])
                     : new DormandPrince853Integrator(0.0, end - t0, absoluteTolerances, relativeTolerances);
             integrator.setMaxEvaluations(maxEvaluations);
             integrator.addStepHandler(new Recorder(times, next, out));
-            integrator.integrate(ode, t0, y0.clone(), end, new double[dimension]);
+            try {
+                integrator.integrate(ode, t0, y0.clone(), end, new double[dimension]);
+            } catch (Recorder.OutputsComplete stop) {
+                // Every requested output is recorded; the rest of the span is not needed.
+            }
         }
         for (int k = 0; k < out.length; k++) {
             if (out[k] == null) {
@@ -165,7 +187,11 @@ public final class OdeTrajectory {
                 + Arrays.toString(relativeTolerances) + ", maxEvaluations=" + maxEvaluations + ")";
     }
 
-    /** Copies the dense output at each pending output time the current step has reached. */
+    /**
+     * Copies the dense output at each pending output time the current step has reached, and
+     * stops the integration once {@code out} is full: a step handler has no call to end a solve,
+     * and an event handler could, but at the cost of a root search in every step.
+     */
     private static final class Recorder implements StepHandler {
 
         private final double[] times;
@@ -191,9 +217,22 @@ public final class OdeTrajectory {
                 throw new IllegalStateException("integration broke down after t="
                         + interpolator.getPreviousTime());
             }
-            while (next < times.length && (times[next] <= reached || isLast)) {
+            while (next < out.length && (times[next] <= reached || isLast)) {
                 interpolator.setInterpolatedTime(times[next]);
                 out[next++] = interpolator.getInterpolatedState().clone();
+            }
+            if (next == out.length && !isLast) {
+                throw new OutputsComplete();
+            }
+        }
+
+        /** Thrown to end a solve early; no stack trace, as it is caught at once. */
+        private static final class OutputsComplete extends RuntimeException {
+
+            private static final long serialVersionUID = 1L;
+
+            OutputsComplete() {
+                super(null, null, false, false);
             }
         }
     }

@@ -111,6 +111,21 @@ public final class PlanktonDynamics {
         return solver.solve(equations(parameters), constants.initialDay(), y0, days);
     }
 
+    /**
+     * The solved states {@code (N, ln P, ln Z)} at the first {@code count} output days: bit for bit
+     * the first {@code count} rows of {@link #integratedStates(double[])}, from a solve that stops
+     * after the step covering day {@code count − 1} (see {@link OdeTrajectory#solve(
+     * org.apache.commons.math3.ode.FirstOrderDifferentialEquations, double, double[], double[], int)}).
+     *
+     * @throws IllegalArgumentException if {@code count} is not in {@code [0, size()]}
+     * @throws IllegalStateException or a Commons Math exception if the solve fails
+     */
+    public double[][] integratedStates(double[] parameters, int count) {
+        double[] y0 = NpzEquations.toIntegrated(constants.initialNutrient(), constants.initialPhytoplankton(),
+                constants.initialZooplankton());
+        return solver.solve(equations(parameters), constants.initialDay(), y0, days, count);
+    }
+
     /** The states (N, P, Z) at each output day, one row per day (a fresh array). */
     public double[][] states(double[] parameters) {
         double[][] states = integratedStates(parameters);

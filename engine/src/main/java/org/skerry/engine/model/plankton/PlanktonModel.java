@@ -3,7 +3,7 @@ package org.skerry.engine.model.plankton;
 import java.util.ArrayList;
 import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
-import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.model.Support;
@@ -25,8 +25,12 @@ import org.skerry.engine.model.prior.UnivariateDistribution;
  * directly and P cannot reach zero. A failed solve (more steps than the solver allows, a
  * non-finite state) throws, and the sampler counts the exception as an invalid evaluation with
  * its message as the reason. Immutable and thread-safe.
+ *
+ * <p>Observations are in time order (the days increase). A range of observations solves only up
+ * to its last day, taking the very steps of the season's solve, so its terms are those of the
+ * full solve bit for bit; the full likelihood is the whole range, so the two agree bit for bit.
  */
-public final class PlanktonModel implements Model {
+public final class PlanktonModel implements ObservationLikelihood {
 
     /** Index of μ_max, the maximum phytoplankton growth rate. */
     public static final int MU_MAX = 0;
@@ -52,7 +56,6 @@ public final class PlanktonModel implements Model {
     private final double[] chlorophyll;
     private final double[] logChlorophyll;
     private final double logRatio;
-    private final double logConstant;
 
     private PlanktonModel(PlanktonDynamics dynamics, IndependentPrior prior, double[] chlorophyll) {
         this.dynamics = dynamics;
@@ -64,13 +67,10 @@ public final class PlanktonModel implements Model {
         this.parameters = ParameterSpace.of(PARAMETER_NAMES, supports);
         this.chlorophyll = chlorophyll.clone();
         this.logChlorophyll = new double[chlorophyll.length];
-        double sumLog = 0.0;
         for (int j = 0; j < chlorophyll.length; j++) {
             logChlorophyll[j] = StrictMath.log(chlorophyll[j]);
-            sumLog += logChlorophyll[j];
         }
         this.logRatio = StrictMath.log(dynamics.constants().chlorophyllPerNitrogen());
-        this.logConstant = -sumLog - chlorophyll.length * LOG_SQRT_2PI;
     }
 
     /**
@@ -150,14 +150,50 @@ public final class PlanktonModel implements Model {
 
     @Override
     public double logLikelihood(double[] theta, LikelihoodContext context) {
-        double sigma = theta[SIGMA];
-        double[][] states = dynamics.integratedStates(theta);
+        return logLikelihood(theta, 0, chlorophyll.length, context);
+    }
+
+    @Override
+    public int observationCount() {
+        return chlorophyll.length;
+    }
+
+    @Override
+    public double logLikelihood(double[] theta, int fromObservation, int toObservation, LikelihoodContext context) {
+        ObservationLikelihood.checkRange(fromObservation, toObservation, chlorophyll.length);
+        if (fromObservation == toObservation) {
+            return 0.0;
+        }
+        double[][] states = dynamics.integratedStates(theta, toObservation);
+        // The log data and the squares are summed in one pass in day order from 0, which for the
+        // whole season is the arithmetic the likelihood has always used, bit for bit.
+        double sumLog = 0.0;
         double squares = 0.0;
-        for (int j = 0; j < states.length; j++) {
+        for (int j = fromObservation; j < toObservation; j++) {
+            sumLog += logChlorophyll[j];
             double residual = logChlorophyll[j] - logRatio - states[j][1];
             squares += residual * residual;
         }
-        return logConstant - states.length * StrictMath.log(sigma) - 0.5 * squares / (sigma * sigma);
+        return value(toObservation - fromObservation, sumLog, squares, theta[SIGMA]);
+    }
+
+    /** One solve up to the last day of the range, whatever its length. */
+    @Override
+    public void logLikelihoodTerms(double[] theta, int fromObservation, int toObservation, double[] terms,
+            LikelihoodContext context) {
+        ObservationLikelihood.checkTerms(fromObservation, toObservation, chlorophyll.length, terms);
+        if (fromObservation == toObservation) {
+            return;
+        }
+        double[][] states = dynamics.integratedStates(theta, toObservation);
+        for (int j = fromObservation; j < toObservation; j++) {
+            double residual = logChlorophyll[j] - logRatio - states[j][1];
+            terms[j - fromObservation] = value(1, logChlorophyll[j], residual * residual, theta[SIGMA]);
+        }
+    }
+
+    private static double value(int count, double sumLog, double squares, double sigma) {
+        return -sumLog - count * LOG_SQRT_2PI - count * StrictMath.log(sigma) - 0.5 * squares / (sigma * sigma);
     }
 
     @Override
