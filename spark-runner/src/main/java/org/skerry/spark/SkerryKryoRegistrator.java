@@ -1,13 +1,17 @@
 package org.skerry.spark;
 
 import com.esotericsoftware.kryo.Kryo;
+import com.esotericsoftware.kryo.KryoException;
+import com.esotericsoftware.kryo.Serializer;
+import com.esotericsoftware.kryo.io.Input;
+import com.esotericsoftware.kryo.io.Output;
 import com.esotericsoftware.kryo.serializers.JavaSerializer;
-import org.skerry.engine.population.BlockReports;
 import org.apache.spark.serializer.KryoRegistrator;
 import org.skerry.engine.math.ExactSum;
 import org.skerry.engine.move.MoveKernel;
 import org.skerry.engine.move.Proposal;
 import org.skerry.engine.particle.ParticleBlock;
+import org.skerry.engine.population.BlockReports;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.population.MomentSums;
 import org.skerry.engine.population.MoveTally;
@@ -36,7 +40,7 @@ public final class SkerryKryoRegistrator implements KryoRegistrator {
         kryo.register(BlockReports.Increments.class);
         kryo.register(EvaluationTally.class);
         kryo.register(MoveTally.class);
-        kryo.register(MomentSums.class);
+        kryo.register(MomentSums.class, new MomentSumsSerializer());
         kryo.register(ExactSum.class);
         kryo.register(ExactSum[].class);
         kryo.register(Proposal.class);
@@ -52,5 +56,29 @@ public final class SkerryKryoRegistrator implements KryoRegistrator {
         kryo.register(Object[].class);
         kryo.register(ParticleBlock[].class);
         kryo.register(StoredBlock.class);
+    }
+
+    /**
+     * Moment sums in their compact form ({@link MomentSums#toCompactArray()}): Kryo's field
+     * serialiser would write all 67 chunks of every exact sum.
+     */
+    static final class MomentSumsSerializer extends Serializer<MomentSums> {
+
+        @Override
+        public void write(Kryo kryo, Output output, MomentSums sums) {
+            long[] compact = sums.toCompactArray();
+            output.writeInt(compact.length, true);
+            output.writeLongs(compact);
+        }
+
+        @Override
+        public MomentSums read(Kryo kryo, Input input, Class<MomentSums> type) {
+            int length = input.readInt(true);
+            try {
+                return MomentSums.fromCompactArray(input.readLongs(length));
+            } catch (IllegalArgumentException e) {
+                throw new KryoException(e.getMessage(), e);
+            }
+        }
     }
 }
