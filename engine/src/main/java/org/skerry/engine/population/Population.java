@@ -140,7 +140,8 @@ public final class Population implements AutoCloseable {
         return blocks.update(whole);
     }
 
-    private <R> List<R> read(BlockStep<R> query) {
+    /** Runs {@code query}, which changes nothing, on every block (after any deferred change). */
+    public <R> List<R> read(BlockStep<R> query) {
         return pending == null ? blocks.read(query) : update(query);
     }
 

@@ -4,6 +4,7 @@ import org.skerry.engine.model.Prior;
 import org.skerry.engine.move.MoveKernel;
 import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.temper.AdaptiveTemperature;
+import org.skerry.engine.target.SequenceSettings;
 import org.skerry.engine.temper.TemperatureRule;
 
 /**
@@ -19,6 +20,7 @@ public final class SamplerSettings {
     private final double resampleThreshold;
     private final boolean resampleEveryIteration;
     private final TemperatureRule temperatureRule;
+    private final SequenceSettings targets;
     private final MoveKernel moveKernel;
     private final int fixedSteps;
     private final double stayProbability;
@@ -41,6 +43,7 @@ public final class SamplerSettings {
         this.resampleThreshold = b.resampleThreshold;
         this.resampleEveryIteration = b.resampleEveryIteration;
         this.temperatureRule = b.temperatureRule;
+        this.targets = b.targets;
         this.moveKernel = b.moveKernel;
         this.fixedSteps = b.fixedSteps;
         this.stayProbability = b.stayProbability;
@@ -73,6 +76,7 @@ public final class SamplerSettings {
         b.resampleThreshold = resampleThreshold;
         b.resampleEveryIteration = resampleEveryIteration;
         b.temperatureRule = temperatureRule;
+        b.targets = targets;
         b.moveKernel = moveKernel;
         b.fixedSteps = fixedSteps;
         b.stayProbability = stayProbability;
@@ -115,6 +119,11 @@ public final class SamplerSettings {
 
     public TemperatureRule temperatureRule() {
         return temperatureRule;
+    }
+
+    /** Which sequence of targets to walk: likelihood tempering unless data tempering is asked for. */
+    public SequenceSettings targets() {
+        return targets;
     }
 
     public MoveKernel moveKernel() {
@@ -220,6 +229,7 @@ public final class SamplerSettings {
         private double resampleThreshold = 0.5;
         private boolean resampleEveryIteration;
         private TemperatureRule temperatureRule = new AdaptiveTemperature(AdaptiveTemperature.DEFAULT_TARGET);
+        private SequenceSettings targets = SequenceSettings.LIKELIHOOD_TEMPERING;
         private MoveKernel moveKernel = MoveKernel.RANDOM_WALK;
         private int fixedSteps;
         private double stayProbability = 0.01;
@@ -309,6 +319,11 @@ public final class SamplerSettings {
 
         public Builder resampleEveryIteration(boolean value) {
             resampleEveryIteration = value;
+            return this;
+        }
+
+        public Builder targets(SequenceSettings value) {
+            targets = require("targets", value);
             return this;
         }
 

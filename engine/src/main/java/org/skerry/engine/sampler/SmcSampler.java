@@ -21,7 +21,6 @@ import org.skerry.engine.population.TemperingInputs;
 import org.skerry.engine.resample.ResamplingThreshold;
 import org.skerry.engine.target.Target;
 import org.skerry.engine.target.TargetSequence;
-import org.skerry.engine.temper.LikelihoodTempering;
 import org.skerry.engine.temper.TemperedTarget;
 import org.skerry.engine.weight.LogWeights;
 
@@ -41,28 +40,12 @@ import org.skerry.engine.weight.LogWeights;
 public final class SmcSampler {
 
     private final SamplerSettings settings;
-    private final TargetSequence sequence;
 
-    /** A sampler that walks likelihood-tempered targets with the settings' temperature rule. */
     public SmcSampler(SamplerSettings settings) {
-        this(settings, settings == null ? null : new LikelihoodTempering(settings.temperatureRule()));
-    }
-
-    /** A sampler that walks {@code sequence}. */
-    public SmcSampler(SamplerSettings settings, TargetSequence sequence) {
         if (settings == null) {
             throw new IllegalArgumentException("settings must not be null");
         }
-        if (sequence == null) {
-            throw new IllegalArgumentException("sequence must not be null");
-        }
         this.settings = settings;
-        this.sequence = sequence;
-    }
-
-    /** The sequence of targets the sampler walks. */
-    public TargetSequence sequence() {
-        return sequence;
     }
 
     public SamplerSettings settings() {
@@ -95,8 +78,9 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop) {
         Model model = source.create();
         checkModel(model);
+        TargetSequence sequence = sequenceFor(model);
         try (Population population = open(source, model, backend)) {
-            Walk walk = new Walk(model, population, listener, checkpointer, stop);
+            Walk walk = new Walk(model, sequence, population, listener, checkpointer, stop);
             walk.start();
             return walk.toEnd();
         }
@@ -111,11 +95,23 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop, Resumption from) {
         Model model = source.create();
         checkModel(model);
+        TargetSequence sequence = sequenceFor(model);
         try (Population population = open(source, model, backend)) {
-            Walk walk = new Walk(model, population, listener, checkpointer, stop);
+            Walk walk = new Walk(model, sequence, population, listener, checkpointer, stop);
             walk.restore(from.restore(population));
             return walk.toEnd();
         }
+    }
+
+    /**
+     * The sequence of targets the settings ask for on {@code model}.
+     *
+     * @throws IllegalArgumentException when the model cannot walk it (data tempering needs a
+     *     likelihood per observation range)
+     */
+    public TargetSequence sequenceFor(Model model) {
+        return settings.targets().create(model, settings.temperatureRule(), settings.seed(),
+                settings.evaluationRetries());
     }
 
     private Population open(ModelSource source, Model model, PopulationBackend backend) {
@@ -147,6 +143,7 @@ public final class SmcSampler {
     private final class Walk {
 
         private final Model model;
+        private final TargetSequence sequence;
         private final Population population;
         private final IterationListener listener;
         private final Checkpointer checkpointer;
@@ -166,9 +163,10 @@ public final class SmcSampler {
         private IslandLedger islands;
         private int checkpointed = -1;
 
-        Walk(Model model, Population population, IterationListener listener, Checkpointer checkpointer,
-                StopCondition stop) {
+        Walk(Model model, TargetSequence sequence, Population population, IterationListener listener,
+                Checkpointer checkpointer, StopCondition stop) {
             this.model = model;
+            this.sequence = sequence;
             this.population = population;
             this.listener = listener;
             this.checkpointer = checkpointer;

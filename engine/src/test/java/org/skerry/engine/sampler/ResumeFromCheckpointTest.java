@@ -17,6 +17,7 @@ import java.util.Map;
 import java.util.concurrent.ConcurrentHashMap;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
+import org.skerry.engine.model.Model;
 import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.particle.ParticleBlock;
 import org.skerry.engine.particle.ParticleBlockCodec;
@@ -102,10 +103,14 @@ class ResumeFromCheckpointTest {
     }
 
     private static void resumeFromEvery(SamplerSettings settings) {
+        resumeFromEvery(settings, SameSeedSameAnswerTest.model());
+    }
+
+    static void resumeFromEvery(SamplerSettings settings, Model model) {
         MemoryCheckpointer checkpoints = new MemoryCheckpointer();
         SamplerResult undisturbed;
         try (ThreadPoolBackend backend = new ThreadPoolBackend(2, 0)) {
-            undisturbed = new SmcSampler(settings).run(ModelSource.local(SameSeedSameAnswerTest.model()), backend,
+            undisturbed = new SmcSampler(settings).run(ModelSource.local(model), backend,
                     IterationListener.NONE, checkpoints, StopCondition.NEVER);
         }
         assertEquals(undisturbed.iterations().size(), checkpoints.saved.size(), "a checkpoint after every iteration");
@@ -113,7 +118,7 @@ class ResumeFromCheckpointTest {
         for (Saved saved : checkpoints.saved) {
             try (ThreadPoolBackend other = new ThreadPoolBackend(3, 17)) {
                 SamplerResult resumed = new SmcSampler(settings).resume(
-                        ModelSource.local(SameSeedSameAnswerTest.model()), other, IterationListener.NONE,
+                        ModelSource.local(model), other, IterationListener.NONE,
                         Checkpointer.NONE, StopCondition.NEVER, saved::restoreInto);
                 assertSameRun(undisturbed, resumed, "resumed after iteration " + saved.state().iteration());
             }

@@ -29,7 +29,7 @@ public final class InitialDraw {
      */
     public static EvaluationTally draw(ParticleBlock block, Prior proposal, LikelihoodEvaluator evaluator,
             long seed) {
-        boolean usesLikelihood = evaluator.target() == null || evaluator.target().usesLikelihood();
+        boolean usesLikelihood = !evaluator.nothingToEvaluate();
         Model model = evaluator.model();
         Prior prior = model.prior();
         ParameterSpace space = model.parameters();

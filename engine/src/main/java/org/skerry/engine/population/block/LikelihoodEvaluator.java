@@ -6,6 +6,7 @@ import org.skerry.engine.model.Model;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.random.RandomStream;
 import org.skerry.engine.random.StreamPurpose;
+import org.skerry.engine.target.LikelihoodTerm;
 import org.skerry.engine.target.Target;
 
 /**
@@ -27,7 +28,7 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
     private final long seed;
     private final RandomStream simulatorStream;
     private final int retries;
-    private final Target target;
+    private final LikelihoodTerm term;
     private long particleIndex;
     private int iteration;
     private int step;
@@ -53,17 +54,17 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
     }
 
     /**
-     * An evaluator of the log-likelihood {@code target} uses (the whole likelihood when null) that
-     * repeats an invalid call up to {@code retries} times.
+     * An evaluator of {@code term} (the whole likelihood when null) that repeats an invalid call
+     * up to {@code retries} times.
      */
-    public LikelihoodEvaluator(Model model, long seed, int retries, Target target) {
+    public LikelihoodEvaluator(Model model, long seed, int retries, LikelihoodTerm term) {
         if (retries < 0) {
             throw new IllegalArgumentException("retries must be >= 0, was " + retries);
         }
         this.model = model;
         this.seed = seed;
         this.retries = retries;
-        this.target = target == null || target.wholeLikelihood() ? null : target;
+        this.term = term;
         this.simulatorStream = new RandomStream(seed, StreamPurpose.SIMULATOR, 0, 0, 0);
     }
 
@@ -71,9 +72,9 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
         return model;
     }
 
-    /** The target whose log-likelihood is evaluated, or null for the whole likelihood. */
-    public Target target() {
-        return target;
+    /** Whether the evaluations are of a target that does not use the likelihood yet (nothing observed). */
+    public boolean nothingToEvaluate() {
+        return term instanceof Target target && !target.usesLikelihood();
     }
 
     /**
@@ -90,8 +91,8 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
             // Each attempt restarts the simulator stream, so a retry sees the numbers the first call saw.
             this.streamReady = false;
             try {
-                double value = target == null ? model.logLikelihood(parameters, this)
-                        : target.logLikelihood(model, parameters, this);
+                double value = term == null || term.wholeLikelihood() ? model.logLikelihood(parameters, this)
+                        : term.logLikelihood(model, parameters, this);
                 if (!Double.isNaN(value) && value != Double.POSITIVE_INFINITY) {
                     if (attempt > 0) {
                         retried++;
@@ -126,7 +127,7 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
             double[] out, double[] scratch) {
         int d = model.dimension();
         boolean batched = false;
-        if (target == null && model instanceof BatchedModel && count > 0) {
+        if ((term == null || term.wholeLikelihood()) && model instanceof BatchedModel && count > 0) {
             try {
                 ((BatchedModel) model).logLikelihoods(parameters, count, out);
                 batched = true;
