@@ -28,6 +28,7 @@ import org.skerry.engine.sampler.ParameterSummary;
 import org.skerry.engine.sampler.SamplerResult;
 import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.sampler.SmcSampler;
+import org.skerry.engine.target.SequenceSettings;
 
 /** The Spark backend in local mode against the thread backend, bit for bit, and against closed forms. */
 class SparkLocalModeTest {
@@ -84,6 +85,32 @@ class SparkLocalModeTest {
             assertArrayEquals(reference.particles().values(), spark.particles().values());
             assertArrayEquals(reference.normalisedWeights(), spark.normalisedWeights());
         }
+    }
+
+    @Test
+    @DisplayName("data tempering: bit-identical to the thread backend for 1, 3 and 8 partitions")
+    void dataTemperingBitIdentical() {
+        SamplerSettings settings = SamplerSettings.builder().particles(240).seed(19)
+                .targets(SequenceSettings.adaptiveBatches(5, 0.5)).build();
+        SamplerResult reference = onThreads(settings);
+        assertTrue(reference.iterations().size() > 2, "several batches: " + reference.iterations().size());
+        for (int partitions : new int[] {1, 3, 8}) {
+            SamplerResult spark = onSpark(settings, partitions);
+            assertEquals(fingerprint(reference), fingerprint(spark), partitions + " partitions");
+            assertArrayEquals(reference.particles().values(), spark.particles().values());
+            assertArrayEquals(reference.normalisedWeights(), spark.normalisedWeights());
+        }
+    }
+
+    @Test
+    @DisplayName("a model is dropped from the workers when its population closes")
+    void modelDroppedAtEnd() {
+        ModelSource source = new NormalMeanSource(DATA, 1.25, 0.0, 2.0);
+        int before = ModelCache.size();
+        SamplerResult result = new SmcSampler(SamplerSettings.builder().particles(120).seed(5).build())
+                .run(source, SparkBackend.on(context, 3), IterationListener.NONE);
+        assertTrue(result.iterations().size() > 1);
+        assertEquals(before, ModelCache.size(), "the run's model is no longer cached");
     }
 
     @Test
