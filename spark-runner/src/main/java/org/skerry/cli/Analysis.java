@@ -35,14 +35,14 @@ import org.skerry.engine.sampler.SamplerState;
 import org.skerry.engine.sampler.SmcSampler;
 import org.skerry.engine.sampler.StopCondition;
 import org.skerry.spark.SparkBackend;
-import org.skerry.spark.checkpoint.CheckpointFileSystem;
-import org.skerry.spark.checkpoint.CheckpointFolder;
-import org.skerry.spark.checkpoint.CheckpointResumption;
-import org.skerry.spark.checkpoint.CheckpointVisibility;
-import org.skerry.spark.checkpoint.CheckpointWriteException;
-import org.skerry.spark.checkpoint.FileCheckpointer;
-import org.skerry.spark.checkpoint.NoUsableCheckpointException;
-import org.skerry.spark.checkpoint.SettingsChangedException;
+import org.skerry.checkpoint.CheckpointFileSystem;
+import org.skerry.checkpoint.CheckpointFolder;
+import org.skerry.checkpoint.CheckpointResumption;
+import org.skerry.spark.CheckpointVisibility;
+import org.skerry.checkpoint.CheckpointWriteException;
+import org.skerry.checkpoint.FileCheckpointer;
+import org.skerry.checkpoint.NoUsableCheckpointException;
+import org.skerry.checkpoint.SettingsChangedException;
 
 /**
  * Runs one analysis on the driver: builds the model, prepares the run folder (refusing one that

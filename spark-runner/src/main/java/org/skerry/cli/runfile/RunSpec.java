@@ -14,7 +14,7 @@ import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.temper.AdaptiveTemperature;
 import org.skerry.engine.temper.FixedSchedule;
-import org.skerry.spark.checkpoint.CheckpointFileSystem;
+import org.skerry.checkpoint.CheckpointFileSystem;
 
 /**
  * The typed, checked content of a run file: which model and data, the sampler settings, the

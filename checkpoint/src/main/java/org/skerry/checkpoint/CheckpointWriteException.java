@@ -1,4 +1,4 @@
-package org.skerry.spark.checkpoint;
+package org.skerry.checkpoint;
 
 /**
  * A checkpoint could not be written (a full or read-only file system, lost permissions). The

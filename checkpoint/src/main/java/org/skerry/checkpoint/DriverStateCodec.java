@@ -1,4 +1,4 @@
-package org.skerry.spark.checkpoint;
+package org.skerry.checkpoint;
 
 import java.io.ByteArrayInputStream;
 import java.io.ByteArrayOutputStream;

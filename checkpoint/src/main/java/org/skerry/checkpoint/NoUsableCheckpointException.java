@@ -1,4 +1,4 @@
-package org.skerry.spark.checkpoint;
+package org.skerry.checkpoint;
 
 /**
  * A resume found nothing to continue from: no checkpoint folder could be listed, or every

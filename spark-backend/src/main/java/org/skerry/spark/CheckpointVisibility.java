@@ -1,4 +1,4 @@
-package org.skerry.spark.checkpoint;
+package org.skerry.spark;
 
 import java.io.IOException;
 import java.net.InetAddress;
@@ -7,6 +7,8 @@ import java.util.List;
 import java.util.TreeSet;
 import java.util.UUID;
 import org.apache.hadoop.fs.Path;
+import org.skerry.checkpoint.CheckpointFileSystem;
+import org.skerry.checkpoint.CheckpointFolder;
 import org.apache.spark.api.java.JavaSparkContext;
 
 /**

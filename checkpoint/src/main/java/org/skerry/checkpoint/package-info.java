@@ -4,4 +4,4 @@
  * checkpoint without a complete, valid manifest does not exist. Resuming picks the newest valid
  * checkpoint and reports the damaged ones it skips.
  */
-package org.skerry.spark.checkpoint;
+package org.skerry.checkpoint;

@@ -1,4 +1,4 @@
-package org.skerry.spark.checkpoint;
+package org.skerry.checkpoint;
 
 import java.util.Map;
 import java.util.TreeMap;

@@ -30,9 +30,9 @@ import org.skerry.engine.sampler.SamplerState;
 import org.skerry.engine.sampler.SmcSampler;
 import org.skerry.engine.sampler.StopCondition;
 import org.skerry.engine.temper.FixedSchedule;
-import org.skerry.spark.checkpoint.CheckpointFileSystem;
-import org.skerry.spark.checkpoint.CheckpointFolder;
-import org.skerry.spark.checkpoint.FileCheckpointer;
+import org.skerry.checkpoint.CheckpointFileSystem;
+import org.skerry.checkpoint.CheckpointFolder;
+import org.skerry.checkpoint.FileCheckpointer;
 
 /**
  * How many Spark jobs one iteration starts, counted by a {@link SparkListener}: each small job
