@@ -16,7 +16,7 @@ import org.apache.spark.scheduler.StageInfo;
  * directly or fetched from an executor's block manager). It counts the results of collected jobs
  * — per-particle scalars for tempering, per-block reports, sums and tallies — and not shuffle
  * data (surplus particles go executor to executor), broadcasts or Spark's own heartbeats.
- * Stages started from {@code SparkPopulation.export} (the final particles, N × d values once per
+ * Stages started from {@code SparkBlocks.forEachBlock} (the final particles, N × d values once per
  * run) are counted apart, so the per-iteration figure shows what the sampler loop costs.
  *
  * <p>Spark creates it from {@code spark.extraListeners}; the study, which runs one point at a time
@@ -46,7 +46,7 @@ public final class DriverTraffic extends SparkListener {
     @Override
     public void onStageSubmitted(SparkListenerStageSubmitted event) {
         StageInfo stage = event.stageInfo();
-        boolean export = stage.details() != null && stage.details().contains("SparkPopulation.export");
+        boolean export = stage.details() != null && stage.details().contains("SparkBlocks.forEachBlock");
         exportStages.put(stage.stageId(), export);
         maxTasksPerStage.accumulateAndGet(stage.numTasks(), Math::max);
     }
