@@ -16,6 +16,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeSet;
+import org.skerry.engine.settings.Origins;
 
 /**
  * A run file read with Typesafe Config: the user's HOCON file, then {@code --set key=value}
@@ -315,23 +316,14 @@ public final class RunFile {
         }
     }
 
+    /** As {@link Origins#describe}. */
     public static String describe(ConfigOrigin origin) {
-        if (origin.filename() != null) {
-            Path file = shorten(Path.of(origin.filename()));
-            return origin.lineNumber() > 0 ? file + ": line " + origin.lineNumber() : file.toString();
-        }
-        if (origin.resource() != null) {
-            return origin.resource() + (origin.lineNumber() > 0 ? ": line " + origin.lineNumber() : "");
-        }
-        // "--set key=value: 1": the line number of a one-line override says nothing.
-        return origin.description().replaceFirst(": \\d+(-\\d+)?$", "");
+        return Origins.describe(origin);
     }
 
-    /** The path relative to the working folder when it lies below it, else as it is. */
+    /** As {@link Origins#shorten}. */
     public static Path shorten(Path file) {
-        Path here = Path.of("").toAbsolutePath();
-        Path absolute = file.toAbsolutePath().normalize();
-        return absolute.startsWith(here) ? here.relativize(absolute) : absolute;
+        return Origins.shorten(file);
     }
 
     /** The run file as read. */

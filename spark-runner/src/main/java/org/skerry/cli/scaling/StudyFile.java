@@ -23,7 +23,8 @@ import org.skerry.cli.runfile.KeySuggestion;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
-import org.skerry.cli.runfile.TypedReader;
+import org.skerry.engine.settings.SettingsException;
+import org.skerry.engine.settings.SettingsReader;
 
 /**
  * A scaling study file read with Typesafe Config over the defaults in {@code study-defaults.conf}:
@@ -59,15 +60,15 @@ public final class StudyFile {
     private StudyFile(Path path, Config config) {
         this.path = path;
         this.config = config;
-        TypedReader r = new TypedReader(config);
+        SettingsReader r = SettingsReader.of(config);
         String fileName = path.getFileName().toString();
-        String named = r.getString("name");
+        String named = r.text("name");
         this.name = named != null ? named : fileName.endsWith(".conf") ? fileName.substring(0, fileName.length() - 5)
                 : fileName;
         if (!name.matches("[A-Za-z0-9][A-Za-z0-9._-]*")) {
             throw r.error("name", "must be letters, digits, '.', '_' or '-' (it names the study folder)");
         }
-        String baseName = r.getString("base");
+        String baseName = r.text("base");
         if (baseName == null || baseName.isBlank()) {
             throw r.error("base", "name the run file to scale, relative to the study file");
         }
@@ -75,11 +76,11 @@ public final class StudyFile {
         if (!Files.isRegularFile(base)) {
             throw r.error("base", "no such run file: " + base);
         }
-        this.scaling = Scaling.valueOf(r.getChoice("scaling", List.of("strong", "weak")).toUpperCase(Locale.ROOT));
-        this.particlesPerCore = r.getInt("particles-per-core", 0, 100_000_000);
-        this.repeats = r.getInt("repeats", 1, 1000);
-        this.warmUp = r.getBoolean("warm-up");
-        String folder = r.getString("output.folder");
+        this.scaling = Scaling.valueOf(r.choice("scaling", List.of("strong", "weak")).toUpperCase(Locale.ROOT));
+        this.particlesPerCore = r.integer("particles-per-core", 0, 100_000_000);
+        this.repeats = r.integer("repeats", 1, 1000);
+        this.warmUp = r.bool("warm-up");
+        String folder = r.text("output.folder");
         if (folder == null || folder.isBlank()) {
             throw r.error("output.folder", "must name a folder");
         }
@@ -132,6 +133,8 @@ public final class StudyFile {
         checkKnownKeys(user, defaults);
         try {
             return new StudyFile(path, user.withFallback(defaults).resolve());
+        } catch (SettingsException e) {
+            throw new RunFileException(e.getMessage(), e);
         } catch (ConfigException e) {
             throw new RunFileException(RunFile.located(e), e);
         }
@@ -161,7 +164,7 @@ public final class StudyFile {
     }
 
     /** The leaves under {@code section} as run-file overrides (path → HOCON value text). */
-    private static Map<String, String> flatten(TypedReader r, String section) {
+    private static Map<String, String> flatten(SettingsReader r, String section) {
         Map<String, String> out = new TreeMap<>();
         Config object;
         try {
@@ -175,7 +178,7 @@ public final class StudyFile {
         return out;
     }
 
-    private Map<String, List<ConfigValue>> axesOf(TypedReader r) {
+    private Map<String, List<ConfigValue>> axesOf(SettingsReader r) {
         Config object;
         try {
             object = r.config().getConfig("axes");
