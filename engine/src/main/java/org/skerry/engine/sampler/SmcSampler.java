@@ -77,8 +77,8 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluationRetries()),
-                settings.particles(), settings.seed(), settings.islands())) {
+        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluation().retries()),
+                settings.population().particles(), settings.population().seed(), settings.islands().count())) {
             Walk walk = new Walk(model, population, listener, checkpointer, stop);
             walk.start();
             return walk.toEnd();
@@ -94,8 +94,8 @@ public final class SmcSampler {
             Checkpointer checkpointer, StopCondition stop, Resumption from) {
         Model model = source.create();
         checkModel(model);
-        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluationRetries()),
-                settings.particles(), settings.seed(), settings.islands())) {
+        try (Population population = backend.create(source.withEvaluationRetries(settings.evaluation().retries()),
+                settings.population().particles(), settings.population().seed(), settings.islands().count())) {
             Walk walk = new Walk(model, population, listener, checkpointer, stop);
             walk.restore(from.restore(population));
             return walk.toEnd();
@@ -111,7 +111,7 @@ public final class SmcSampler {
             throw new IllegalArgumentException("the prior has " + model.prior().dimension()
                     + " dimensions but the model has " + d + " parameters " + model.parameters().names());
         }
-        Prior proposal = settings.startProposal();
+        Prior proposal = settings.population().startProposal();
         if (proposal != null && proposal.dimension() != d) {
             throw new IllegalArgumentException("the start proposal has " + proposal.dimension()
                     + " dimensions but the model has " + d + " parameters " + model.parameters().names());
@@ -126,7 +126,7 @@ public final class SmcSampler {
         private final IterationListener listener;
         private final Checkpointer checkpointer;
         private final StopCondition stop;
-        private final int n = settings.particles();
+        private final int n = settings.population().particles();
         private final double logN = StrictMath.log(n);
         private final List<IterationRecord> records = new ArrayList<>();
 
@@ -153,7 +153,7 @@ public final class SmcSampler {
         /** The initial draw: iteration 0. */
         void start() {
             long start = System.nanoTime();
-            total = population.initialise(settings.startProposal());
+            total = population.initialise(settings.population().startProposal());
             double evaluateSeconds = seconds(start);
             InvalidEvaluationsException.check(settings, 0, total, model.parameters());
             inputs = population.temperingInputs();
@@ -162,11 +162,11 @@ public final class SmcSampler {
                 throw new SamplingFailedException(0, "every particle's weight is zero after the initial draw ("
                         + n + " particles; " + total + ")");
             }
-            logEvidence = settings.startProposal() == null ? 0.0 : logTotal - logN;
-            islands = settings.islands() > 0
-                    ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.startProposal() != null) : null;
+            logEvidence = settings.population().startProposal() == null ? 0.0 : logTotal - logN;
+            islands = settings.islands().count() > 0
+                    ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.population().startProposal() != null) : null;
             temperature = 0.0;
-            scale = settings.initialScale();
+            scale = settings.moves().initialScale();
             resamplings = 0;
             iteration = 0;
             finishIteration(new IterationRecord(0, 0.0, LogWeights.effectiveSampleSize(inputs.logWeight(), n),
@@ -178,9 +178,9 @@ public final class SmcSampler {
 
         /** Continues from a saved state, the population already holding the saved blocks. */
         void restore(SamplerState state) {
-            if (state.islandSizes() != null && settings.islands() != state.islandSizes().length) {
+            if (state.islandSizes() != null && settings.islands().count() != state.islandSizes().length) {
                 throw new IllegalArgumentException("the checkpoint has " + state.islandSizes().length
-                        + " islands; the settings ask for " + settings.islands());
+                        + " islands; the settings ask for " + settings.islands().count());
             }
             iteration = state.iteration();
             temperature = state.temperature();
@@ -249,13 +249,13 @@ public final class SmcSampler {
 
         private void step() {
             iteration++;
-            if (iteration > settings.maxIterations()) {
+            if (iteration > settings.tempering().maxIterations()) {
                 throw new SamplingFailedException(iteration, "tempering reached only φ = " + temperature
-                        + " after " + settings.maxIterations() + " iterations (maxIterations)");
+                        + " after " + settings.tempering().maxIterations() + " iterations (maxIterations)");
             }
             long phase = System.nanoTime();
             inputs = inputs != null ? inputs : population.temperingInputs();
-            TemperatureRule rule = settings.temperatureRule();
+            TemperatureRule rule = settings.tempering().rule();
             double next = rule.next(temperature, inputs, logTotal);
             if (!(next > temperature && next <= 1.0)) {
                 throw new IllegalStateException("temperature rule " + rule + " returned " + next + " after " + temperature);
@@ -297,25 +297,25 @@ public final class SmcSampler {
             boolean resample;
             boolean global;
             if (islands == null) {
-                resample = settings.resampleEveryIteration() || ResamplingThreshold.reached(ess, n, settings.resampleThreshold());
+                resample = settings.resampling().everyIteration() || ResamplingThreshold.reached(ess, n, settings.resampling().threshold());
                 global = true;
             } else {
-                global = (settings.islandInteractionEvery() > 0 && iteration % settings.islandInteractionEvery() == 0)
-                        || islands.islandWeightEssFraction(newLogWeight) < settings.islandInteractionThreshold();
-                resample = global || settings.resampleEveryIteration()
+                global = (settings.islands().interactionEvery() > 0 && iteration % settings.islands().interactionEvery() == 0)
+                        || islands.islandWeightEssFraction(newLogWeight) < settings.islands().interactionThreshold();
+                resample = global || settings.resampling().everyIteration()
                         || ResamplingThreshold.reached(islands.withinIslandEssFraction(newLogWeight), 1.0,
-                                settings.resampleThreshold());
+                                settings.resampling().threshold());
             }
             if (resample) {
                 ResamplingReport report;
                 if (global) {
-                    report = population.resample(settings.resamplingScheme(), logTotal, iteration);
+                    report = population.resample(settings.resampling().scheme(), logTotal, iteration);
                     logTotal = logN;
                     if (islands != null) {
                         islands.interacted();
                     }
                 } else {
-                    report = population.resampleIslands(settings.resamplingScheme(), iteration);
+                    report = population.resampleIslands(settings.resampling().scheme(), iteration);
                     logTotal = LogWeights.logSum(islands.afterIslandResampling(newLogWeight), n);
                 }
                 ancestors = report.distinctAncestors();
@@ -327,17 +327,17 @@ public final class SmcSampler {
 
             phase = System.nanoTime();
             MomentSums moments = population.moments(logTotal);
-            Proposal proposal = ProposalFit.fit(settings.moveKernel(), moments, scale);
+            Proposal proposal = ProposalFit.fit(settings.moves().kernel(), moments, scale);
             double fitSeconds = seconds(phase);
 
             phase = System.nanoTime();
             MoveTally moves;
             int steps;
             double usedScale = scale;
-            boolean randomWalk = settings.moveKernel() == MoveKernel.RANDOM_WALK;
-            double target = settings.targetAcceptance(model.parameters().dimension());
-            if (settings.fixedSteps() > 0) {
-                steps = settings.fixedSteps();
+            boolean randomWalk = settings.moves().kernel() == MoveKernel.RANDOM_WALK;
+            double target = settings.moves().targetAcceptance(model.parameters().dimension());
+            if (settings.moves().fixedSteps() > 0) {
+                steps = settings.moves().fixedSteps();
                 moves = population.moveLast(proposal, temperature, iteration, 0, steps);
                 if (randomWalk) {
                     scale = MoveAdaptation.nextScale(scale, moves.acceptanceRate(), target);
@@ -350,11 +350,11 @@ public final class SmcSampler {
                 LadderChoice chosen = MoveAdaptation.scaleFromLadder(scale, pilot.proposedByRung(),
                         pilot.acceptedByRung(), target);
                 usedScale = chosen.scale();
-                steps = MoveAdaptation.steps(chosen.expectedAcceptance(), settings.stayProbability(),
-                        settings.maxSteps());
+                steps = MoveAdaptation.steps(chosen.expectedAcceptance(), settings.moves().stayProbability(),
+                        settings.moves().maxSteps());
                 moves = pilot;
                 if (steps > 1) {
-                    Proposal tuned = ProposalFit.fit(settings.moveKernel(), moments, usedScale);
+                    Proposal tuned = ProposalFit.fit(settings.moves().kernel(), moments, usedScale);
                     MoveTally rest = population.moveLast(tuned, temperature, iteration, 1, steps - 1);
                     moves = pilot.plus(rest);
                     scale = MoveAdaptation.nextScale(usedScale, rest.acceptanceRate(), target);
@@ -363,7 +363,7 @@ public final class SmcSampler {
                 }
             } else {
                 MoveTally pilot = population.move(proposal, temperature, iteration, 0, 1);
-                steps = MoveAdaptation.steps(pilot.acceptanceRate(), settings.stayProbability(), settings.maxSteps());
+                steps = MoveAdaptation.steps(pilot.acceptanceRate(), settings.moves().stayProbability(), settings.moves().maxSteps());
                 moves = steps > 1 ? pilot.plus(population.moveLast(proposal, temperature, iteration, 1, steps - 1)) : pilot;
             }
             double moveSeconds = seconds(phase);
@@ -387,8 +387,8 @@ public final class SmcSampler {
             LogWeights.normalise(particles.logWeight(), n, finalLogTotal, weights);
             List<ParameterSummary> summaries = PosteriorSummaries.summarise(particles, weights, model.parameters());
             EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights,
-                    settings.resamplingScheme(), resamplings,
-                    settings.minimumDistinctEves());
+                    settings.resampling().scheme(), resamplings,
+                    settings.population().minimumDistinctEves());
             if (islands != null) {
                 evidence = evidence.withIslands(islands.islands(), islands.standardError());
             }
