@@ -32,7 +32,6 @@ import org.skerry.cli.output.RunSummaryReader;
 import org.skerry.cli.output.SummaryJson;
 import org.skerry.cli.progress.BatchProgress;
 import org.skerry.cli.runfile.BatchSpec;
-import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
 import org.skerry.cli.stop.StopRules;

@@ -4,7 +4,6 @@ import com.typesafe.config.Config;
 import com.typesafe.config.ConfigException;
 import com.typesafe.config.ConfigFactory;
 import com.typesafe.config.ConfigObject;
-import com.typesafe.config.ConfigParseOptions;
 import com.typesafe.config.ConfigRenderOptions;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
@@ -51,7 +50,9 @@ public final class BatchSpec {
     /** The name of the variant of a batch file that lists none. */
     public static final String DEFAULT_VARIANT = "base";
 
-    private static final List<String> FREE_FORM = List.of("settings", "datasets.settings", "variants");
+    /** Batch files: defaults and known keys in batch-reference.conf. */
+    private static final SettingsFile KIND = new SettingsFile("batch file", "batch-reference.conf",
+            List.of("settings", "datasets.settings", "variants"), "");
     /** Run-file keys the batch sets itself for every analysis. */
     private static final List<String> SET_BY_BATCH = List.of("name", "data.file", "data.inline", "sampler.seed");
     private static final String NAME_PATTERN = "[A-Za-z0-9][A-Za-z0-9._-]*";
@@ -120,16 +121,7 @@ public final class BatchSpec {
      * @throws RunFileException naming the file, line, key and value of the first problem found
      */
     public static BatchSpec load(Path path, Path folderOverride) {
-        Config user = RunFile.parse(path, "batch file");
-        Config reference = ConfigFactory.parseResources(BatchSpec.class.getClassLoader(), "batch-reference.conf",
-                ConfigParseOptions.defaults().setAllowMissing(false));
-        RunFile.checkKnownKeys(user, reference, FREE_FORM);
-        Config resolved;
-        try {
-            resolved = user.withFallback(reference).resolve();
-        } catch (ConfigException e) {
-            throw new RunFileException(RunFile.located(e), e);
-        }
+        Config resolved = KIND.load(path);
         try {
             return new BatchSpec(path, resolved, folderOverride);
         } catch (SettingsException e) {

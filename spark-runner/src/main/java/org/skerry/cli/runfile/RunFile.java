@@ -26,8 +26,9 @@ import org.skerry.engine.settings.Origins;
  */
 public final class RunFile {
 
-    /** Sections whose keys are the user's own (model settings, role bindings, inline data). */
-    private static final List<String> FREE_FORM = List.of("model.settings", "data.columns", "data.inline", "backend.spark");
+    /** Run files: defaults in reference.conf; the user's own keys in model settings, role bindings, inline data. */
+    static final SettingsFile KIND = new SettingsFile("run file", "reference.conf",
+            List.of("model.settings", "data.columns", "data.inline", "backend.spark"), "");
 
     private final Path path;
     private final Config config;
@@ -54,18 +55,11 @@ public final class RunFile {
      * then appear in any error they cause.
      */
     public static RunFile load(Path path, Config settings, List<String> overrides) {
-        Config user = settings.withFallback(parse(path, "run file"));
+        Config layers = settings;
         for (int i = overrides.size() - 1; i >= 0; i--) {
-            user = parseOverride(overrides.get(i)).withFallback(user);
+            layers = parseOverride(overrides.get(i)).withFallback(layers);
         }
-        Config reference = ConfigFactory.parseResources(RunFile.class.getClassLoader(), "reference.conf",
-                ConfigParseOptions.defaults().setAllowMissing(false));
-        checkKnownKeys(user, reference, FREE_FORM);
-        try {
-            return new RunFile(path, user.withFallback(reference).resolve());
-        } catch (ConfigException e) {
-            throw new RunFileException(located(e), e);
-        }
+        return new RunFile(path, KIND.load(path, layers));
     }
 
     /**
@@ -215,7 +209,7 @@ public final class RunFile {
     }
 
     /** Refuses the first key of {@code user} that {@code reference} lacks, outside the free-form sections. */
-    static void checkKnownKeys(Config user, Config reference, List<String> freeForm) {
+    static void checkKnownKeys(Config user, Config reference, List<String> freeForm, String unknownHint) {
         TreeSet<String> known = new TreeSet<>();
         collectPaths(reference.root(), "", known);
         List<String> unknown = new ArrayList<>();
@@ -245,7 +239,7 @@ public final class RunFile {
             }
             String suggestion = KeySuggestion.closest(key, known);
             throw new RunFileException(where(user, key) + ": unknown setting '" + key + "'"
-                    + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?"));
+                    + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?") + unknownHint);
         }
     }
 

@@ -4,10 +4,8 @@ import com.typesafe.config.Config;
 import com.typesafe.config.ConfigException;
 import com.typesafe.config.ConfigFactory;
 import com.typesafe.config.ConfigList;
-import com.typesafe.config.ConfigObject;
 import com.typesafe.config.ConfigParseOptions;
 import com.typesafe.config.ConfigRenderOptions;
-import com.typesafe.config.ConfigUtil;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
 import java.nio.file.Files;
@@ -18,11 +16,10 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
-import java.util.TreeSet;
-import org.skerry.cli.runfile.KeySuggestion;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.runfile.SettingsFile;
 import org.skerry.engine.settings.SettingsException;
 import org.skerry.engine.settings.SettingsReader;
 
@@ -38,7 +35,10 @@ public final class StudyFile {
     /** The axis that sets the number of cores rather than a run-file key. */
     public static final String CORES = "cores";
 
-    private static final List<String> FREE_FORM = List.of("settings", "axes");
+    /** Study files: defaults and known keys in study-defaults.conf; run-file settings go in settings and axes. */
+    private static final SettingsFile KIND = new SettingsFile("study file", "study-defaults.conf",
+            List.of("settings", "axes"), " (study-defaults.conf lists them; run-file settings go under settings { } "
+                    + "or axes { })");
 
     /** Strong scaling keeps N fixed; weak scaling keeps N per core fixed. */
     public enum Scaling { STRONG, WEAK }
@@ -127,39 +127,11 @@ public final class StudyFile {
      * @throws RunFileException naming the file, line, key and value of the first problem found
      */
     public static StudyFile load(Path path) {
-        Config user = RunFile.parse(path, "study file");
-        Config defaults = ConfigFactory.parseResources(StudyFile.class.getClassLoader(), "study-defaults.conf",
-                ConfigParseOptions.defaults().setAllowMissing(false));
-        checkKnownKeys(user, defaults);
+        Config resolved = KIND.load(path);
         try {
-            return new StudyFile(path, user.withFallback(defaults).resolve());
+            return new StudyFile(path, resolved);
         } catch (SettingsException e) {
             throw new RunFileException(e.getMessage(), e);
-        } catch (ConfigException e) {
-            throw new RunFileException(RunFile.located(e), e);
-        }
-    }
-
-    private static void checkKnownKeys(Config user, Config defaults) {
-        TreeSet<String> known = new TreeSet<>();
-        for (Map.Entry<String, ConfigValue> entry : defaults.root().entrySet()) {
-            known.add(entry.getKey());
-            if (entry.getValue() instanceof ConfigObject && !FREE_FORM.contains(entry.getKey())) {
-                for (String child : ((ConfigObject) entry.getValue()).keySet()) {
-                    known.add(entry.getKey() + "." + child);
-                }
-            }
-        }
-        for (Map.Entry<String, ConfigValue> entry : user.entrySet()) {
-            String key = entry.getKey();
-            String top = ConfigUtil.splitPath(key).get(0);
-            if (FREE_FORM.contains(top) || known.contains(key)) {
-                continue;
-            }
-            String suggestion = KeySuggestion.closest(key, known);
-            throw new RunFileException(RunFile.describe(entry.getValue().origin()) + ": unknown study setting '" + key
-                    + "'" + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?")
-                    + " (study-defaults.conf lists them; run-file settings go under settings { } or axes { })");
         }
     }
 
