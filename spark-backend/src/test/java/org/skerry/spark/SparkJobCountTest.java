@@ -104,7 +104,7 @@ class SparkJobCountTest {
         for (IterationRecord record : result.iterations()) {
             counts.add(COUNTER.jobs.getOrDefault(run + record.iteration(), 0));
         }
-        System.out.println("jobs per iteration (" + settings.resamplingScheme() + ", " + partitions + " partitions, "
+        System.out.println("jobs per iteration (" + settings.resampling().scheme() + ", " + partitions + " partitions, "
                 + (checkpointer.enabled() ? "checkpoints" : "no checkpoints") + "): " + counts + "; resampled "
                 + records.stream().map(r -> r.resampled() ? "y" : "n").toList() + "; MH steps "
                 + records.stream().map(IterationRecord::mhSteps).toList());
@@ -173,7 +173,7 @@ class SparkJobCountTest {
         List<Integer> counts = jobsPerIteration(settings, 0, Checkpointer.NONE, records);
         assertTrue(records.stream().anyMatch(IterationRecord::resampled), "the run resamples at least once");
         for (int k = 1; k < counts.size(); k++) {
-            int allowed = allowed(records, k, false, settings.resamplingScheme(), false, true);
+            int allowed = allowed(records, k, false, settings.resampling().scheme(), false, true);
             assertTrue(counts.get(k) <= allowed, "iteration " + k + " started " + counts.get(k) + " jobs, more than "
                     + allowed + ": " + counts);
         }
@@ -201,7 +201,7 @@ class SparkJobCountTest {
         List<IterationRecord> records = new ArrayList<>();
         List<Integer> counts = jobsPerIteration(settings, 3, watched, records);
         for (int k = 1; k < counts.size(); k++) {
-            int allowed = allowed(records, k, false, settings.resamplingScheme(), true);
+            int allowed = allowed(records, k, false, settings.resampling().scheme(), true);
             assertTrue(counts.get(k) <= allowed, "iteration " + k + " started " + counts.get(k) + " jobs, more than "
                     + allowed + ": " + counts);
         }

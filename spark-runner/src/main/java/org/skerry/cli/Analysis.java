@@ -60,6 +60,23 @@ public final class Analysis {
     public record Outcome(Path folder, RunSpec spec, SamplerResult result, double wallSeconds) {
     }
 
+    /**
+     * One analysis about to run: its settings and built model, its run folder, when it started
+     * (the clock time for the outputs, the nanosecond count for its wall time), and whether it
+     * continues from a checkpoint or starts afresh.
+     */
+    private record Job(RunSpec spec, ModelBuilder.Built built, Path runFolder, Instant started, long startNanos,
+            Start start) {
+
+        /** The same job started afresh (a resume that found no checkpoint yet). */
+        Job afresh() {
+            return new Job(spec, built, runFolder, started, startNanos, Start.AFRESH);
+        }
+    }
+
+    /** Whether a job starts afresh or continues from its newest valid checkpoint. */
+    private enum Start { AFRESH, FROM_CHECKPOINT }
+
     private Analysis() {
     }
 
@@ -84,7 +101,8 @@ public final class Analysis {
         prepare(runFolder);
         try {
             RunOutputs.writeSettings(runFolder, forRunFolder(spec).render());
-            return execute(spec, built, runFolder, started, progressOut, false, observer);
+            return execute(new Job(spec, built, runFolder, started, System.nanoTime(), Start.AFRESH), progressOut,
+                    observer);
         } catch (RunFileException e) {
             // Bad input found only now (an unreachable master, a model class missing on the
             // executors): nothing ran, so nothing of this run is left behind.
@@ -131,8 +149,8 @@ public final class Analysis {
      */
     public static Outcome resume(Path runFolder, List<String> overrides, PrintWriter progressOut) {
         RunSpec spec = savedSpec(runFolder, overrides);
-        return execute(spec, ModelBuilder.build(spec), runFolder, Instant.now(), progressOut, true,
-                IterationListener.NONE);
+        return execute(new Job(spec, ModelBuilder.build(spec), runFolder, Instant.now(), System.nanoTime(),
+                Start.FROM_CHECKPOINT), progressOut, IterationListener.NONE);
     }
 
     /** The run folder's saved settings with {@code overrides} on top. */
@@ -235,22 +253,23 @@ public final class Analysis {
         return new CheckpointFileSystem(root, hadoop);
     }
 
-    private static Outcome execute(RunSpec spec, ModelBuilder.Built built, Path runFolder, Instant started,
-            PrintWriter progressOut, boolean resume, IterationListener observer) {
-        long start = System.nanoTime();
+    private static Outcome execute(Job job, PrintWriter progressOut, IterationListener observer) {
+        RunSpec spec = job.spec();
+        Path runFolder = job.runFolder();
         try (TerminationSignal signal = TerminationSignal.install(spec.stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> whatIsKept(spec, runFolder));
                 Backends.Opened opened = Backends.open(spec, runFolder);
-                ProgressDisplay progress = announced(progress(spec, progressOut, built.model().parameters().names()),
-                        spec, runFolder, resume)) {
+                ProgressDisplay progress = announced(progress(spec, progressOut,
+                        job.built().model().parameters().names()), spec, runFolder,
+                        job.start() == Start.FROM_CHECKPOINT)) {
             IterationListener shown = progress == null ? IterationListener.NONE : progress;
             IterationListener listener = observer == IterationListener.NONE ? shown : record -> {
                 shown.iterationFinished(record);
                 observer.iterationFinished(record);
             };
             try {
-                return core(spec, built, runFolder, started, start, progressOut, resume, opened.backend, listener,
-                        new StopRules(signal, spec.maxWallTime(), start));
+                return core(job, opened.backend, listener, new StopRules(signal, spec.maxWallTime(), job.startNanos()),
+                        progressOut);
             } finally {
                 signal.runEnded();
             }
@@ -279,7 +298,8 @@ public final class Analysis {
         Instant started = Instant.now();
         prepare(folder);
         RunOutputs.writeSettings(folder, forRunFolder(spec).render());
-        return core(spec, built, folder, started, System.nanoTime(), notices, false, backend, listener, stop);
+        return core(new Job(spec, built, folder, started, System.nanoTime(), Start.AFRESH), backend, listener, stop,
+                notices);
     }
 
     /**
@@ -289,21 +309,23 @@ public final class Analysis {
     public static Outcome resume(Path folder, PopulationBackend backend, IterationListener listener,
             StopCondition stop, PrintWriter notices) {
         RunSpec spec = savedSpec(folder, List.of());
-        return core(spec, ModelBuilder.build(spec), folder, Instant.now(), System.nanoTime(), notices, true, backend,
-                listener, stop);
+        return core(new Job(spec, ModelBuilder.build(spec), folder, Instant.now(), System.nanoTime(),
+                Start.FROM_CHECKPOINT), backend, listener, stop, notices);
     }
 
     /** The run itself, on an open backend: checkpoints, resume, stop rules, results, and what each failure means. */
-    private static Outcome core(RunSpec spec, ModelBuilder.Built built, Path runFolder, Instant started, long start,
-            PrintWriter notices, boolean resume, PopulationBackend backend, IterationListener listener,
-            StopCondition stop) {
+    private static Outcome core(Job job, PopulationBackend backend, IterationListener listener, StopCondition stop,
+            PrintWriter notices) {
+        RunSpec spec = job.spec();
+        ModelBuilder.Built built = job.built();
+        Path runFolder = job.runFolder();
         CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
-        if (resume && !hasCheckpoints(checkpoints)) {
+        if (job.start() == Start.FROM_CHECKPOINT && !hasCheckpoints(checkpoints)) {
             // Stopped before its first checkpoint: nothing is lost by starting again, and the seed
             // makes it the same run.
             removeUnfinished(checkpoints, -1, notices);
             say(notices, "no checkpoint in " + runFolder + " yet: running it from the start");
-            resume = false;
+            job = job.afresh();
         }
         SortedMap<String, String> answer = AnswerSettings.of(spec);
         if (spec.checkpointEnabled()) {
@@ -316,7 +338,7 @@ public final class Analysis {
         SmcSampler sampler = new SmcSampler(spec.sampler());
         SamplerResult result;
         try {
-            if (resume) {
+            if (job.start() == Start.FROM_CHECKPOINT) {
                 CheckpointResumption from = new CheckpointResumption(checkpoints, answer);
                 result = sampler.resume(built.source(), backend, listener, checkpointer, stop, population -> {
                     SamplerState restored = from.restore(population);
@@ -352,10 +374,10 @@ public final class Analysis {
             }
             throw e;
         }
-        double wall = (System.nanoTime() - start) * 1e-9;
+        double wall = (System.nanoTime() - job.startNanos()) * 1e-9;
         try {
-            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.modelLabel(), spec.sampler().seed(),
-                    built.model().parameters().names(), result, wall, started, backend.description()));
+            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.modelLabel(), spec.sampler().population().seed(),
+                    built.model().parameters().names(), result, wall, job.started(), backend.description()));
         } catch (java.io.UncheckedIOException e) {
             throw outputFailed(e, checkpoints, runFolder);
         }
@@ -403,7 +425,7 @@ public final class Analysis {
     private static ProgressDisplay announced(ProgressDisplay progress, RunSpec spec, Path runFolder, boolean resume) {
         if (progress != null) {
             progress.announce((resume ? "continuing " : "running ") + spec.name() + ": model " + spec.modelLabel()
-                    + ", " + spec.sampler().particles() + " particles, seed " + spec.sampler().seed() + "; run folder "
+                    + ", " + spec.sampler().population().particles() + " particles, seed " + spec.sampler().population().seed() + "; run folder "
                     + runFolder);
         }
         return progress;

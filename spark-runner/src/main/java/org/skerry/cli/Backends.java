@@ -130,28 +130,45 @@ public final class Backends {
         }
     }
 
-    /** skerry's own jars, which executors need besides Spark's (found beside the runner jar). */
+    /**
+     * Classes that executors load, one from each jar they need besides Spark's: the Spark
+     * backend's (its block steps' plumbing), the checkpoint module's (block stores), the engine,
+     * and the engine's libraries (Commons Math for priors and models, Typesafe Config for
+     * rebuilding a model from its settings). Never this program's own jar: executors run no
+     * command-line code. A jar is found through a class it holds, so its file name does not matter.
+     */
+    private static final List<Class<?>> EXECUTOR_CLASSES = List.of(SparkBackend.class,
+            org.skerry.checkpoint.HadoopBlockStore.class, org.skerry.engine.model.Model.class, org.apache.commons.math3.util.FastMath.class,
+            com.typesafe.config.Config.class);
+
+    /** The jars executors need besides Spark's, or none when this program runs from class folders (tests). */
     static List<String> shippedJars() {
         List<String> jars = new ArrayList<>();
-        try {
-            Path runner = Path.of(Backends.class.getProtectionDomain().getCodeSource().getLocation().toURI());
-            if (Files.isRegularFile(runner)) {
-                jars.add(runner.toString());
-                Path lib = runner.getParent().resolve("lib");
-                if (Files.isDirectory(lib)) {
-                    try (Stream<Path> files = Files.list(lib)) {
-                        files.filter(f -> {
-                            String name = f.getFileName().toString();
-                            return name.startsWith("skerry-") || name.startsWith("commons-math3-")
-                                    || name.startsWith("config-");
-                        }).sorted().forEach(f -> jars.add(f.toString()));
-                    }
-                }
+        for (Class<?> type : EXECUTOR_CLASSES) {
+            Path jar = jarOf(type);
+            if (jar == null) {
+                // Running from classes (tests): executors in local mode share this JVM.
+                return List.of();
             }
-        } catch (Exception e) {
-            // Running from classes (tests): executors in local mode share this JVM.
+            if (!jars.contains(jar.toString())) {
+                jars.add(jar.toString());
+            }
         }
         return jars;
+    }
+
+    /** The jar file {@code type} was loaded from, or null when it came from a folder or is unknown. */
+    static Path jarOf(Class<?> type) {
+        try {
+            java.security.CodeSource source = type.getProtectionDomain().getCodeSource();
+            if (source == null || source.getLocation() == null) {
+                return null;
+            }
+            Path location = Path.of(source.getLocation().toURI());
+            return Files.isRegularFile(location) ? location : null;
+        } catch (java.net.URISyntaxException | RuntimeException e) {
+            return null;
+        }
     }
 
     private static void checkReachable(String master, int timeoutSeconds) {

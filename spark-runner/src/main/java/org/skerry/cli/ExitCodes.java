@@ -1,6 +1,6 @@
 package org.skerry.cli;
 
-/** The program's exit codes, for scripts. */
+/** The program's exit codes, for scripts; {@link Ending} decides which one an exception means. */
 public final class ExitCodes {
 
     /** The command did what was asked. */

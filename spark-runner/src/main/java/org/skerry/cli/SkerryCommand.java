@@ -1,12 +1,8 @@
 package org.skerry.cli;
 
 import java.io.PrintWriter;
-import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.scaling.ScaleCommand;
-import org.skerry.cli.runfile.RunSpec;
 import org.skerry.cli.stop.TerminationSignal;
-import org.skerry.engine.sampler.InvalidEvaluationsException;
-import org.skerry.engine.sampler.SamplingFailedException;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
@@ -43,46 +39,18 @@ public final class SkerryCommand implements Runnable {
                 // this is the shutdown cutting it short (Spark's jobs cancelled), not a failure.
                 return ExitCodes.STOPPED_RESUMABLE;
             }
-            if (exception instanceof RunFileException) {
-                errors.println("skerry: bad input: " + exception.getMessage());
-                errors.flush();
-                return ExitCodes.BAD_INPUT;
+            Ending ending = Ending.of(exception);
+            for (String text : ending.lines()) {
+                errors.println("skerry: " + text);
             }
-            if (exception instanceof RunEnded) {
-                errors.println("skerry: " + exception.getMessage());
-                errors.flush();
-                return ((RunEnded) exception).exitCode();
-            }
-            if (exception instanceof InvalidEvaluationsException) {
-                InvalidEvaluationsException invalid = (InvalidEvaluationsException) exception;
-                errors.println("skerry: the run failed at iteration " + invalid.iteration() + ": "
-                        + invalid.explain(RunSpec.MAX_INVALID_FRACTION_KEY));
-                errors.println("skerry: raise " + RunSpec.MAX_INVALID_FRACTION_KEY + " (up to 1) only if the model is "
-                        + "known to fail there (the posterior is then conditional on where it works); set "
-                        + RunSpec.RETRIES_KEY + " for a model that fails now and then; return -Infinity where the "
-                        + "parameters are impossible. The run folder keeps what was written, checkpoints included: "
-                        + "skerry resume RUN_FOLDER --set " + RunSpec.MAX_INVALID_FRACTION_KEY + "=… continues it.");
-                errors.flush();
-                return ExitCodes.RUN_FAILURE;
-            }
-            if (exception instanceof SamplingFailedException) {
-                errors.println("skerry: the run failed at " + exception.getMessage());
-                errors.flush();
-                return ExitCodes.RUN_FAILURE;
-            }
-            String hint = SparkFailures.explain(exception);
-            if (hint != null) {
-                errors.println("skerry: the run failed: " + hint);
-                errors.flush();
-                return ExitCodes.RUN_FAILURE;
-            }
-            errors.println("skerry: the run failed: " + exception);
-            StackTraceElement[] trace = exception.getStackTrace();
-            for (int i = 0; i < Math.min(8, trace.length); i++) {
-                errors.println("    at " + trace[i]);
+            if (ending.trace()) {
+                StackTraceElement[] trace = exception.getStackTrace();
+                for (int i = 0; i < Math.min(8, trace.length); i++) {
+                    errors.println("    at " + trace[i]);
+                }
             }
             errors.flush();
-            return ExitCodes.RUN_FAILURE;
+            return ending.exitCode();
         });
         return line.execute(args);
     }

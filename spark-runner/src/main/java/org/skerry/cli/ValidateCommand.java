@@ -37,7 +37,7 @@ final class ValidateCommand implements Callable<Integer> {
         out.println("  model:      " + run.modelLabel() + " with parameters " + built.model().parameters().names());
         out.println("  data:       " + (built.data() == null ? "none"
                 : built.data().rowCount() + " rows from " + built.data().source()));
-        out.println("  particles:  " + run.sampler().particles() + ", seed " + run.sampler().seed());
+        out.println("  particles:  " + run.sampler().population().particles() + ", seed " + run.sampler().population().seed());
         out.flush();
         return ExitCodes.SUCCESS;
     }

@@ -43,7 +43,7 @@ public final class InvalidEvaluationsException extends SamplingFailedException {
      * settings' fraction of invalid evaluations.
      */
     static void check(SamplerSettings settings, int iteration, EvaluationTally tally, ParameterSpace space) {
-        double limit = settings.maxInvalidFraction();
+        double limit = settings.evaluation().maxInvalidFraction();
         if (tally.invalid() == 0 || !(tally.invalidFraction() > limit)) {
             return;
         }

@@ -110,17 +110,17 @@ public final class SmcSampler {
      *     likelihood per observation range)
      */
     public TargetSequence sequenceFor(Model model) {
-        return settings.targets().create(model, settings.temperatureRule(), settings.seed(),
-                settings.evaluationRetries());
+        return settings.targets().create(model, settings.tempering().rule(), settings.population().seed(),
+                settings.evaluation().retries());
     }
 
     private Population open(ModelSource source, Model model, PopulationBackend backend) {
-        int islands = settings.islands();
-        if (islands < 0 || islands > settings.particles()) {
-            throw new IllegalArgumentException("islands must be in [0, " + settings.particles() + "], was " + islands);
+        int islands = settings.islands().count();
+        if (islands < 0 || islands > settings.population().particles()) {
+            throw new IllegalArgumentException("islands must be in [0, " + settings.population().particles() + "], was " + islands);
         }
-        return new Population(backend.open(source, settings.particles(), islands), settings.particles(),
-                model.dimension(), settings.seed(), settings.evaluationRetries());
+        return new Population(backend.open(source, settings.population().particles(), islands), settings.population().particles(),
+                model.dimension(), settings.population().seed(), settings.evaluation().retries());
     }
 
     private void checkModel(Model model) {
@@ -132,7 +132,7 @@ public final class SmcSampler {
             throw new IllegalArgumentException("the prior has " + model.prior().dimension()
                     + " dimensions but the model has " + d + " parameters " + model.parameters().names());
         }
-        Prior proposal = settings.startProposal();
+        Prior proposal = settings.population().startProposal();
         if (proposal != null && proposal.dimension() != d) {
             throw new IllegalArgumentException("the start proposal has " + proposal.dimension()
                     + " dimensions but the model has " + d + " parameters " + model.parameters().names());
@@ -148,7 +148,7 @@ public final class SmcSampler {
         private final IterationListener listener;
         private final Checkpointer checkpointer;
         private final StopCondition stop;
-        private final int n = settings.particles();
+        private final int n = settings.population().particles();
         private final double logN = StrictMath.log(n);
         private final List<IterationRecord> records = new ArrayList<>();
 
@@ -177,7 +177,7 @@ public final class SmcSampler {
         void start() {
             long start = System.nanoTime();
             target = sequence.first();
-            Population.Start drawn = population.initialise(settings.startProposal(), target);
+            Population.Start drawn = population.initialise(settings.population().startProposal(), target);
             total = drawn.tally();
             double evaluateSeconds = seconds(start);
             InvalidEvaluationsException.check(settings, 0, total, model.parameters());
@@ -187,10 +187,10 @@ public final class SmcSampler {
                 throw new SamplingFailedException(0, "every particle's weight is zero after the initial draw ("
                         + n + " particles; " + total + ")");
             }
-            logEvidence = settings.startProposal() == null ? 0.0 : logTotal - logN;
-            islands = settings.islands() > 0
-                    ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.startProposal() != null) : null;
-            scale = settings.initialScale();
+            logEvidence = settings.population().startProposal() == null ? 0.0 : logTotal - logN;
+            islands = settings.islands().count() > 0
+                    ? new IslandLedger(inputs.blockSizes(), inputs.logWeight(), settings.population().startProposal() != null) : null;
+            scale = settings.moves().initialScale();
             resamplings = 0;
             iteration = 0;
             finishIteration(new IterationRecord(0, target.progress(), LogWeights.effectiveSampleSize(inputs.logWeight(), n),
@@ -202,9 +202,9 @@ public final class SmcSampler {
 
         /** Continues from a saved state, the population already holding the saved blocks. */
         void restore(SamplerState state) {
-            if (state.islandSizes() != null && settings.islands() != state.islandSizes().length) {
+            if (state.islandSizes() != null && settings.islands().count() != state.islandSizes().length) {
                 throw new IllegalArgumentException("the checkpoint has " + state.islandSizes().length
-                        + " islands; the settings ask for " + settings.islands());
+                        + " islands; the settings ask for " + settings.islands().count());
             }
             iteration = state.iteration();
             target = sequence.at(state.temperature());
@@ -273,11 +273,11 @@ public final class SmcSampler {
 
         private void step() {
             iteration++;
-            if (iteration > settings.maxIterations()) {
+            if (iteration > settings.tempering().maxIterations()) {
                 throw new SamplingFailedException(iteration, (target instanceof TemperedTarget tempered
                         ? "tempering reached only φ = " + tempered.temperature()
                         : sequence.description() + " reached only " + target)
-                        + " after " + settings.maxIterations() + " iterations (maxIterations)");
+                        + " after " + settings.tempering().maxIterations() + " iterations (maxIterations)");
             }
             long phase = System.nanoTime();
             inputs = inputs != null ? inputs : population.temperingInputs();
@@ -322,27 +322,27 @@ public final class SmcSampler {
             boolean resample;
             boolean global;
             if (islands == null) {
-                resample = settings.resampleEveryIteration() || ResamplingThreshold.reached(ess, n, settings.resampleThreshold());
+                resample = settings.resampling().everyIteration() || ResamplingThreshold.reached(ess, n, settings.resampling().threshold());
                 global = true;
             } else {
-                global = (settings.islandInteractionEvery() > 0 && iteration % settings.islandInteractionEvery() == 0)
-                        || islands.islandWeightEssFraction(newLogWeight) < settings.islandInteractionThreshold();
-                resample = global || settings.resampleEveryIteration()
+                global = (settings.islands().interactionEvery() > 0 && iteration % settings.islands().interactionEvery() == 0)
+                        || islands.islandWeightEssFraction(newLogWeight) < settings.islands().interactionThreshold();
+                resample = global || settings.resampling().everyIteration()
                         || ResamplingThreshold.reached(islands.withinIslandEssFraction(newLogWeight), 1.0,
-                                settings.resampleThreshold());
+                                settings.resampling().threshold());
             }
             MomentSums moments = null;
             if (resample) {
                 Population.Resampling resampling;
                 if (global) {
-                    resampling = population.resample(settings.resamplingScheme(), logTotal, iteration);
+                    resampling = population.resample(settings.resampling().scheme(), logTotal, iteration);
                     logTotal = logN;
                     if (islands != null) {
                         islands.interacted();
                     }
                 } else {
                     logTotal = LogWeights.logSum(islands.afterIslandResampling(newLogWeight), n);
-                    resampling = population.resampleIslands(settings.resamplingScheme(), iteration, logTotal);
+                    resampling = population.resampleIslands(settings.resampling().scheme(), iteration, logTotal);
                 }
                 ResamplingReport report = resampling.report();
                 moments = resampling.moments();
@@ -357,18 +357,18 @@ public final class SmcSampler {
             if (moments == null) {
                 moments = population.moments(logTotal);
             }
-            Proposal proposal = ProposalFit.fit(settings.moveKernel(), moments, scale);
+            Proposal proposal = ProposalFit.fit(settings.moves().kernel(), moments, scale);
             double fitSeconds = seconds(phase);
 
             phase = System.nanoTime();
             MoveTally moves;
             int steps;
             double usedScale = scale;
-            boolean randomWalk = settings.moveKernel() == MoveKernel.RANDOM_WALK;
-            double targetAcceptance = settings.targetAcceptance(model.parameters().dimension());
+            boolean randomWalk = settings.moves().kernel() == MoveKernel.RANDOM_WALK;
+            double targetAcceptance = settings.moves().targetAcceptance(model.parameters().dimension());
             boolean more = !sequence.isLast(target);
-            if (settings.fixedSteps() > 0) {
-                steps = settings.fixedSteps();
+            if (settings.moves().fixedSteps() > 0) {
+                steps = settings.moves().fixedSteps();
                 Population.Moves last = population.move(proposal, target, iteration, 0, steps, more);
                 moves = last.tally();
                 inputs = last.inputs();
@@ -383,11 +383,11 @@ public final class SmcSampler {
                 LadderChoice chosen = MoveAdaptation.scaleFromLadder(scale, pilot.proposedByRung(),
                         pilot.acceptedByRung(), targetAcceptance);
                 usedScale = chosen.scale();
-                steps = MoveAdaptation.steps(chosen.expectedAcceptance(), settings.stayProbability(),
-                        settings.maxSteps());
+                steps = MoveAdaptation.steps(chosen.expectedAcceptance(), settings.moves().stayProbability(),
+                        settings.moves().maxSteps());
                 moves = pilot;
                 if (steps > 1) {
-                    Proposal tuned = ProposalFit.fit(settings.moveKernel(), moments, usedScale);
+                    Proposal tuned = ProposalFit.fit(settings.moves().kernel(), moments, usedScale);
                     Population.Moves rest = population.move(tuned, target, iteration, 1, steps - 1, more);
                     moves = pilot.plus(rest.tally());
                     inputs = rest.inputs();
@@ -397,7 +397,7 @@ public final class SmcSampler {
                 }
             } else {
                 MoveTally pilot = population.move(proposal, target, iteration, 0, 1, false).tally();
-                steps = MoveAdaptation.steps(pilot.acceptanceRate(), settings.stayProbability(), settings.maxSteps());
+                steps = MoveAdaptation.steps(pilot.acceptanceRate(), settings.moves().stayProbability(), settings.moves().maxSteps());
                 moves = pilot;
                 if (steps > 1) {
                     Population.Moves rest = population.move(proposal, target, iteration, 1, steps - 1, more);
@@ -430,8 +430,8 @@ public final class SmcSampler {
             LogWeights.normalise(particles.logWeight(), n, finalLogTotal, weights);
             List<ParameterSummary> summaries = PosteriorSummaries.summarise(particles, weights, model.parameters());
             EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights,
-                    settings.resamplingScheme(), resamplings,
-                    settings.minimumDistinctEves());
+                    settings.resampling().scheme(), resamplings,
+                    settings.population().minimumDistinctEves());
             if (islands != null) {
                 evidence = evidence.withIslands(islands.islands(), islands.standardError());
             }

@@ -19,17 +19,17 @@ public record StepCapReport(int iterationsAtCap, int iterations, int maxSteps) {
     public static StepCapReport of(List<IterationRecord> records, SamplerSettings settings) {
         int iterations = 0;
         int atCap = 0;
-        boolean adaptive = settings.fixedSteps() == 0;
+        boolean adaptive = settings.moves().fixedSteps() == 0;
         for (IterationRecord record : records) {
             if (record.iteration() == 0) {
                 continue;
             }
             iterations++;
-            if (adaptive && record.mhSteps() >= settings.maxSteps()) {
+            if (adaptive && record.mhSteps() >= settings.moves().maxSteps()) {
                 atCap++;
             }
         }
-        return new StepCapReport(atCap, iterations, adaptive ? settings.maxSteps() : 0);
+        return new StepCapReport(atCap, iterations, adaptive ? settings.moves().maxSteps() : 0);
     }
 
     /** A line for the user when any iteration reached the cap, naming the setting to change; null otherwise. */

@@ -43,7 +43,7 @@ public final class DemoMoveStudy {
                     for (IterationRecord record : r.iterations()) {
                         if (record.iteration() > 0) {
                             iterations++;
-                            if (record.mhSteps() >= base.maxSteps()) {
+                            if (record.mhSteps() >= base.moves().maxSteps()) {
                                 atCap++;
                             }
                         }

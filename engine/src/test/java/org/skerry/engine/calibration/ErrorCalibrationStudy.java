@@ -63,7 +63,7 @@ public final class ErrorCalibrationStudy {
                     continue;
                 }
                 iterations++;
-                if (record.mhSteps() >= settings.maxSteps() && settings.fixedSteps() == 0) {
+                if (record.mhSteps() >= settings.moves().maxSteps() && settings.moves().fixedSteps() == 0) {
                     capped++;
                 }
                 if (record.resampled()) {
@@ -72,7 +72,7 @@ public final class ErrorCalibrationStudy {
             }
             resamplings.addValue(r);
         }
-        return new Row(c, base.resamplingScheme(), seeds, reported.getMean(), logZ.getVariance(),
+        return new Row(c, base.resampling().scheme(), seeds, reported.getMean(), logZ.getVariance(),
                 logZ.getMean() - c.logEvidence(), evaluations.getMean(), (double) capped / iterations,
                 resamplings.getMean(), unreliable, bootstrap(logZs, variances, 0.99));
     }

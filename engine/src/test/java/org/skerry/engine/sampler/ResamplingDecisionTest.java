@@ -43,12 +43,12 @@ class ResamplingDecisionTest {
                         continue;
                     }
                     double ess = r.ess();
-                    boolean decided = ResamplingThreshold.reached(ess, c.particles(), settings.resampleThreshold());
+                    boolean decided = ResamplingThreshold.reached(ess, c.particles(), settings.resampling().threshold());
                     assertEquals(decided, r.resampled(), "seed " + s + " iteration " + r.iteration());
                     for (int k = -16; k <= 16; k++) {
                         double moved = ess + k * Math.ulp(ess);
                         assertEquals(decided, ResamplingThreshold.reached(moved, c.particles(),
-                                settings.resampleThreshold()), "seed " + s + " iteration " + r.iteration()
+                                settings.resampling().threshold()), "seed " + s + " iteration " + r.iteration()
                                         + ": ESS " + ess + " moved by " + k + " ulp");
                     }
                     if (Math.abs(ess - 0.5 * c.particles()) < 1e-6 * c.particles()) {

@@ -22,9 +22,9 @@ import java.util.stream.Stream;
 import org.apache.spark.api.java.JavaSparkContext;
 import org.skerry.cli.Analysis;
 import org.skerry.cli.Backends;
+import org.skerry.cli.Ending;
 import org.skerry.cli.ExitCodes;
 import org.skerry.cli.RunEnded;
-import org.skerry.cli.SparkFailures;
 import org.skerry.cli.output.AtomicFile;
 import org.skerry.cli.output.BatchSummary;
 import org.skerry.cli.output.RunConfFile;
@@ -32,14 +32,12 @@ import org.skerry.cli.output.RunSummaryReader;
 import org.skerry.cli.output.SummaryJson;
 import org.skerry.cli.progress.BatchProgress;
 import org.skerry.cli.runfile.BatchSpec;
-import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
 import org.skerry.cli.stop.StopRules;
 import org.skerry.cli.stop.TerminationSignal;
 import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.sampler.IterationListener;
-import org.skerry.engine.sampler.SamplingFailedException;
 import org.skerry.engine.sampler.StopCondition;
 import org.skerry.spark.SparkBackend;
 
@@ -226,22 +224,14 @@ public final class BatchRunner {
     }
 
     private void recordEnd(String label, Path folder, Throwable e, BatchProgress progress) {
-        if (e instanceof RunEnded) {
-            RunEnded ended = (RunEnded) e;
-            if (ended.exitCode() == ExitCodes.STOPPED_RESUMABLE) {
-                progress.stopped(label);
-            } else {
-                String message = ended.getMessage();
-                failures.put(label, message);
-                recordFailure(folder, message);
-                progress.failed(label, message);
-            }
+        Ending ending = Ending.of(e);
+        if (e instanceof RunEnded && ending.exitCode() == ExitCodes.STOPPED_RESUMABLE) {
+            progress.stopped(label);
             return;
         }
-        String message = describe(e);
-        failures.put(label, message);
-        recordFailure(folder, message);
-        progress.failed(label, message);
+        failures.put(label, ending.summary());
+        recordFailure(folder, ending.summary());
+        progress.failed(label, ending.summary());
     }
 
     private static Analysis.Outcome startAfresh(BatchSpec.Planned p, Path folder, PopulationBackend backend,
@@ -259,17 +249,6 @@ public final class BatchRunner {
     static Analysis.Outcome continueUnfinished(Path runFolder, PopulationBackend backend, StopCondition stop,
             PrintWriter notices) {
         return Analysis.resume(runFolder, backend, IterationListener.NONE, stop, notices);
-    }
-
-    private static String describe(Throwable e) {
-        if (e instanceof RunFileException) {
-            return "bad input: " + e.getMessage();
-        }
-        if (e instanceof SamplingFailedException) {
-            return "the run failed at " + e.getMessage();
-        }
-        String hint = SparkFailures.explain(e);
-        return hint != null ? "the run failed: " + hint : "the run failed: " + e;
     }
 
     private static void recordFailure(Path folder, String message) {

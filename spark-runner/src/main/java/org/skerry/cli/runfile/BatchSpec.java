@@ -4,7 +4,6 @@ import com.typesafe.config.Config;
 import com.typesafe.config.ConfigException;
 import com.typesafe.config.ConfigFactory;
 import com.typesafe.config.ConfigObject;
-import com.typesafe.config.ConfigParseOptions;
 import com.typesafe.config.ConfigRenderOptions;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
@@ -20,6 +19,8 @@ import java.util.Locale;
 import java.util.Map;
 import java.util.stream.Stream;
 import org.skerry.engine.random.DerivedSeed;
+import org.skerry.engine.settings.SettingsException;
+import org.skerry.engine.settings.SettingsReader;
 
 /**
  * A batch file, read and checked like a run file: the base run file, the datasets, the model
@@ -49,7 +50,9 @@ public final class BatchSpec {
     /** The name of the variant of a batch file that lists none. */
     public static final String DEFAULT_VARIANT = "base";
 
-    private static final List<String> FREE_FORM = List.of("settings", "datasets.settings", "variants");
+    /** Batch files: defaults and known keys in batch-reference.conf. */
+    private static final SettingsFile KIND = new SettingsFile("batch file", "batch-reference.conf",
+            List.of("settings", "datasets.settings", "variants"), "");
     /** Run-file keys the batch sets itself for every analysis. */
     private static final List<String> SET_BY_BATCH = List.of("name", "data.file", "data.inline", "sampler.seed");
     private static final String NAME_PATTERN = "[A-Za-z0-9][A-Za-z0-9._-]*";
@@ -68,9 +71,9 @@ public final class BatchSpec {
     private BatchSpec(Path file, Config config, Path folderOverride) {
         this.file = file;
         this.config = config;
-        TypedReader r = new TypedReader(config);
+        SettingsReader r = SettingsReader.of(config);
         Path home = file.toAbsolutePath().getParent();
-        String baseName = r.getString("base");
+        String baseName = r.text("base");
         if (baseName == null || baseName.isBlank()) {
             throw r.error("base", "name the run file every analysis starts from");
         }
@@ -81,16 +84,16 @@ public final class BatchSpec {
         this.datasets = datasets(r, home);
         Map<String, Config> perDataset = datasetSettings(r, datasets);
         this.variants = variants(r);
-        Config common = objectAt(r, "settings");
+        Config common = r.object("settings");
         refuseBatchKeys(common, "settings", false);
-        this.seed = r.getSeed("seed");
-        this.concurrent = r.getInt("concurrent", 1, 1024);
-        String folderName = r.getString("folder");
+        this.seed = r.seed("seed");
+        this.concurrent = r.integer("concurrent", 1, 1024);
+        String folderName = r.text("folder");
         if (folderOverride == null && (folderName == null || folderName.isBlank())) {
             throw r.error("folder", "must name the batch folder");
         }
         this.folder = folderOverride != null ? folderOverride : Path.of(folderName);
-        this.progress = RunSpec.Progress.valueOf(r.getChoice("progress", List.of("auto", "live", "log", "off"))
+        this.progress = RunSpec.Progress.valueOf(r.choice("progress", List.of("auto", "live", "log", "off"))
                 .toUpperCase(Locale.ROOT));
         List<Planned> planned = new ArrayList<>();
         for (Dataset dataset : datasets) {
@@ -118,27 +121,22 @@ public final class BatchSpec {
      * @throws RunFileException naming the file, line, key and value of the first problem found
      */
     public static BatchSpec load(Path path, Path folderOverride) {
-        Config user = RunFile.parse(path, "batch file");
-        Config reference = ConfigFactory.parseResources(BatchSpec.class.getClassLoader(), "batch-reference.conf",
-                ConfigParseOptions.defaults().setAllowMissing(false));
-        RunFile.checkKnownKeys(user, reference, FREE_FORM);
-        Config resolved;
+        Config resolved = KIND.load(path);
         try {
-            resolved = user.withFallback(reference).resolve();
-        } catch (ConfigException e) {
-            throw new RunFileException(RunFile.located(e), e);
+            return new BatchSpec(path, resolved, folderOverride);
+        } catch (SettingsException e) {
+            throw new RunFileException(e.getMessage(), e);
         }
-        return new BatchSpec(path, resolved, folderOverride);
     }
 
-    private static List<Dataset> datasets(TypedReader r, Path home) {
+    private static List<Dataset> datasets(SettingsReader r, Path home) {
         List<String> files;
         try {
             files = r.config().getStringList("datasets.files");
         } catch (ConfigException.WrongType e) {
             throw r.error("datasets.files", "expected a list of data files");
         }
-        String folderName = r.getString("datasets.folder");
+        String folderName = r.text("datasets.folder");
         if (files.isEmpty() == (folderName == null)) {
             throw r.error(folderName == null ? "datasets.files" : "datasets.folder",
                     "set datasets.files (a list of data files) or datasets.folder (with datasets.pattern), one of them");
@@ -151,7 +149,7 @@ public final class BatchSpec {
             if (!Files.isDirectory(dataFolder)) {
                 throw r.error(key, "no such folder " + dataFolder);
             }
-            String pattern = r.getString("datasets.pattern");
+            String pattern = r.text("datasets.pattern");
             PathMatcher matcher;
             try {
                 matcher = FileSystems.getDefault().getPathMatcher("glob:" + pattern);
@@ -202,11 +200,11 @@ public final class BatchSpec {
         return List.copyOf(out);
     }
 
-    private static Map<String, Config> datasetSettings(TypedReader r, List<Dataset> datasets) {
+    private static Map<String, Config> datasetSettings(SettingsReader r, List<Dataset> datasets) {
         Map<String, Config> out = new LinkedHashMap<>();
         List<String> names = new ArrayList<>();
         datasets.forEach(d -> names.add(d.name()));
-        for (Map.Entry<String, ConfigValue> entry : objectAt(r, "datasets.settings").root().entrySet()) {
+        for (Map.Entry<String, ConfigValue> entry : r.object("datasets.settings").root().entrySet()) {
             String where = RunFile.describe(entry.getValue().origin());
             if (!names.contains(entry.getKey())) {
                 String suggestion = KeySuggestion.closest(entry.getKey(), names);
@@ -224,7 +222,7 @@ public final class BatchSpec {
         return out;
     }
 
-    private static List<Variant> variants(TypedReader r) {
+    private static List<Variant> variants(SettingsReader r) {
         List<? extends ConfigValue> list;
         try {
             list = r.config().getList("variants");
@@ -285,14 +283,6 @@ public final class BatchSpec {
         if (refuseBackend && settings.hasPathOrNull("backend")) {
             throw new RunFileException(RunFile.where(settings, "backend") + ": " + section + ".backend"
                     + ": the whole batch runs on one backend; set backend keys in the base run file or in `settings`");
-        }
-    }
-
-    private static Config objectAt(TypedReader r, String key) {
-        try {
-            return r.config().getConfig(key);
-        } catch (ConfigException.WrongType e) {
-            throw r.error(key, "expected an object { … }");
         }
     }
 

@@ -2,8 +2,6 @@ package org.skerry.cli.runfile;
 
 import com.typesafe.config.Config;
 import com.typesafe.config.ConfigException;
-import java.lang.reflect.Constructor;
-import java.lang.reflect.InvocationTargetException;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -13,9 +11,12 @@ import org.skerry.cli.data.DataException;
 import org.skerry.cli.data.DataTable;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.settings.ModelCatalog;
+import org.skerry.engine.model.settings.ModelCreator;
+import org.skerry.engine.model.settings.ModelNotCreatedException;
 import org.skerry.engine.model.settings.ModelFactory;
 import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.SettingDescription;
+import org.skerry.engine.model.settings.SettingsModelSource;
 
 /**
  * Builds the model a run file asks for: reads its data (CSV file or inline), binds data columns
@@ -24,6 +25,9 @@ import org.skerry.engine.model.settings.SettingDescription;
  */
 public final class ModelBuilder {
 
+    /** Where a model's settings sit in a run file, as messages name their keys. */
+    private static final String MODEL_SETTINGS = "model.settings";
+
     private ModelBuilder() {
     }
 
@@ -31,7 +35,7 @@ public final class ModelBuilder {
      * The model with its data, the data table it read (or null without data), and a portable
      * source that rebuilds the same model on another JVM.
      */
-    public record Built(Model model, DataTable data, RunModelSource source) {
+    public record Built(Model model, DataTable data, SettingsModelSource source) {
     }
 
     public static Built build(RunSpec spec) {
@@ -44,17 +48,19 @@ public final class ModelBuilder {
                             + names() + suggestion(spec.modelName())));
             checkModelKeys(spec, factory);
         }
-        RunModelSource source = new RunModelSource(spec.modelName(), spec.modelClass(), spec.modelSettings(), columns,
-                dataSource);
+        SettingsModelSource source = new SettingsModelSource(spec.modelName(), spec.modelClass(),
+                spec.modelSettings(), MODEL_SETTINGS, columns, dataSource);
         Model model;
-        ConfigModelSettings settings = ConfigModelSettings.of(spec.modelSettings(), columns, dataSource);
+        ModelSettings settings = ModelSettings.of(spec.modelSettings(), MODEL_SETTINGS, columns, dataSource);
         try {
-            model = create(spec.modelName(), spec.modelClass(), settings, where(spec, "model.class"));
+            model = ModelCreator.create(spec.modelName(), spec.modelClass(), settings, where(spec, "model.class"));
+        } catch (ModelNotCreatedException e) {
+            throw new RunFileException(e.getMessage(), e);
         } catch (IllegalArgumentException e) {
             // A setting the run file leaves out is located in the jar's reference.conf, which the
             // user never wrote: name the run file instead.
-            String message = String.valueOf(e.getMessage()).replaceFirst("^reference\\.conf(: line \\d+)?: ",
-                    java.util.regex.Matcher.quoteReplacement(RunFile.shorten(spec.file().path()) + ": "));
+            String message = String.valueOf(e.getMessage()).replaceFirst("^reference\\.conf(: line \\d+)?(?=: |, )",
+                    java.util.regex.Matcher.quoteReplacement(RunFile.shorten(spec.file().path()).toString()));
             throw new RunFileException("model " + spec.modelLabel() + ": " + message, e);
         }
         checkBindingsRead(spec, settings.rolesRead());
@@ -78,17 +84,6 @@ public final class ModelBuilder {
                     + (read.isEmpty() ? " (it reads no data" : " (the roles it read: " + String.join(", ", read))
                     + (spec.modelName() != null ? "; `skerry models` lists each model's roles)" : ")"));
         }
-    }
-
-    /** Creates the model from a built-in name or a class name; the same code runs on executors. */
-    static Model create(String modelName, String modelClass, ModelSettings settings, String where) {
-        Model model = modelName != null ? ModelCatalog.load().get(modelName).create(settings)
-                : fromClass(modelClass, settings, where);
-        if (model == null) {
-            throw new RunFileException("model " + (modelName != null ? modelName : modelClass)
-                    + ": the factory returned no model");
-        }
-        return model;
     }
 
     private static String where(RunSpec spec, String key) {
@@ -210,45 +205,5 @@ public final class ModelBuilder {
                         + " (its settings: " + declared + ")");
             }
         }
-    }
-
-    private static Model fromClass(String className, ModelSettings settings, String where) {
-        Class<?> type;
-        try {
-            type = Class.forName(className, true, Thread.currentThread().getContextClassLoader());
-        } catch (ClassNotFoundException | LinkageError e) {
-            throw new RunFileException(where + ": model.class = \"" + className + "\": "
-                    + (e instanceof ClassNotFoundException ? "class not found on the classpath"
-                            : "the class cannot be loaded (" + e + ")")
-                    + "; put its jar on SKERRY_CLASSPATH (SKERRY_CLASSPATH=/path/model.jar bin/skerry …) and, for "
-                    + "executors of their own (a cluster, local-cluster), also list it in backend.jars", e);
-        }
-        try {
-            if (ModelFactory.class.isAssignableFrom(type)) {
-                ModelFactory factory = (ModelFactory) type.getConstructor().newInstance();
-                return factory.create(settings);
-            }
-            if (Model.class.isAssignableFrom(type)) {
-                try {
-                    Constructor<?> withSettings = type.getConstructor(ModelSettings.class);
-                    return (Model) withSettings.newInstance(settings);
-                } catch (NoSuchMethodException e) {
-                    return (Model) type.getConstructor().newInstance();
-                }
-            }
-        } catch (NoSuchMethodException e) {
-            throw new RunFileException(where + ": " + className
-                    + " needs a public constructor taking ModelSettings, or none");
-        } catch (InvocationTargetException e) {
-            Throwable cause = e.getCause();
-            if (cause instanceof IllegalArgumentException) {
-                throw (IllegalArgumentException) cause;
-            }
-            throw new RunFileException("model class " + className + " failed to start: " + cause, cause);
-        } catch (ReflectiveOperationException e) {
-            throw new RunFileException("model class " + className + " cannot be created: " + e, e);
-        }
-        throw new RunFileException(where + ": " + className
-                + " is neither an org.skerry.engine.model.Model nor an org.skerry.engine.model.settings.ModelFactory");
     }
 }

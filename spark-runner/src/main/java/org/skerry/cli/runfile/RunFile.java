@@ -16,6 +16,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeSet;
+import org.skerry.engine.settings.Origins;
 
 /**
  * A run file read with Typesafe Config: the user's HOCON file, then {@code --set key=value}
@@ -25,8 +26,9 @@ import java.util.TreeSet;
  */
 public final class RunFile {
 
-    /** Sections whose keys are the user's own (model settings, role bindings, inline data). */
-    private static final List<String> FREE_FORM = List.of("model.settings", "data.columns", "data.inline", "backend.spark");
+    /** Run files: defaults in reference.conf; the user's own keys in model settings, role bindings, inline data. */
+    static final SettingsFile KIND = new SettingsFile("run file", "reference.conf",
+            List.of("model.settings", "data.columns", "data.inline", "backend.spark"), "");
 
     private final Path path;
     private final Config config;
@@ -53,18 +55,11 @@ public final class RunFile {
      * then appear in any error they cause.
      */
     public static RunFile load(Path path, Config settings, List<String> overrides) {
-        Config user = settings.withFallback(parse(path, "run file"));
+        Config layers = settings;
         for (int i = overrides.size() - 1; i >= 0; i--) {
-            user = parseOverride(overrides.get(i)).withFallback(user);
+            layers = parseOverride(overrides.get(i)).withFallback(layers);
         }
-        Config reference = ConfigFactory.parseResources(RunFile.class.getClassLoader(), "reference.conf",
-                ConfigParseOptions.defaults().setAllowMissing(false));
-        checkKnownKeys(user, reference, FREE_FORM);
-        try {
-            return new RunFile(path, user.withFallback(reference).resolve());
-        } catch (ConfigException e) {
-            throw new RunFileException(located(e), e);
-        }
+        return new RunFile(path, KIND.load(path, layers));
     }
 
     /**
@@ -214,7 +209,7 @@ public final class RunFile {
     }
 
     /** Refuses the first key of {@code user} that {@code reference} lacks, outside the free-form sections. */
-    static void checkKnownKeys(Config user, Config reference, List<String> freeForm) {
+    static void checkKnownKeys(Config user, Config reference, List<String> freeForm, String unknownHint) {
         TreeSet<String> known = new TreeSet<>();
         collectPaths(reference.root(), "", known);
         List<String> unknown = new ArrayList<>();
@@ -244,7 +239,7 @@ public final class RunFile {
             }
             String suggestion = KeySuggestion.closest(key, known);
             throw new RunFileException(where(user, key) + ": unknown setting '" + key + "'"
-                    + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?"));
+                    + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?") + unknownHint);
         }
     }
 
@@ -315,23 +310,14 @@ public final class RunFile {
         }
     }
 
+    /** As {@link Origins#describe}. */
     public static String describe(ConfigOrigin origin) {
-        if (origin.filename() != null) {
-            Path file = shorten(Path.of(origin.filename()));
-            return origin.lineNumber() > 0 ? file + ": line " + origin.lineNumber() : file.toString();
-        }
-        if (origin.resource() != null) {
-            return origin.resource() + (origin.lineNumber() > 0 ? ": line " + origin.lineNumber() : "");
-        }
-        // "--set key=value: 1": the line number of a one-line override says nothing.
-        return origin.description().replaceFirst(": \\d+(-\\d+)?$", "");
+        return Origins.describe(origin);
     }
 
-    /** The path relative to the working folder when it lies below it, else as it is. */
+    /** As {@link Origins#shorten}. */
     public static Path shorten(Path file) {
-        Path here = Path.of("").toAbsolutePath();
-        Path absolute = file.toAbsolutePath().normalize();
-        return absolute.startsWith(here) ? here.relativize(absolute) : absolute;
+        return Origins.shorten(file);
     }
 
     /** The run file as read. */

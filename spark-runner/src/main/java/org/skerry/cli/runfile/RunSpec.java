@@ -12,6 +12,8 @@ import java.util.Map;
 import org.skerry.engine.move.MoveKernel;
 import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.sampler.SamplerSettings;
+import org.skerry.engine.settings.SettingsException;
+import org.skerry.engine.settings.SettingsReader;
 import org.skerry.engine.temper.AdaptiveTemperature;
 import org.skerry.engine.temper.FixedSchedule;
 import org.skerry.checkpoint.CheckpointFileSystem;
@@ -59,16 +61,16 @@ public final class RunSpec {
     private final java.time.Duration maxWallTime;
     private final int stopGraceSeconds;
 
-    private RunSpec(RunFile file, TypedReader r) {
+    private RunSpec(RunFile file, SettingsReader r) {
         this.file = file;
         Config c = r.config();
-        String runName = r.getString("name");
+        String runName = r.text("name");
         if (runName == null || !runName.matches("[A-Za-z0-9][A-Za-z0-9._-]*")) {
             throw r.error("name", "must be letters, digits, '.', '_' or '-' (it names the run folder)");
         }
         this.name = runName;
-        this.modelName = r.getString("model.name");
-        this.modelClass = r.getString("model.class");
+        this.modelName = r.text("model.name");
+        this.modelClass = r.text("model.class");
         if ((modelName == null) == (modelClass == null)) {
             String choose = "model.name (a built-in model, see `skerry models`) or model.class (a class on the classpath)";
             if (modelName != null) {
@@ -80,33 +82,29 @@ public final class RunSpec {
                     + (isEmpty(file.path()) ? "the run file is empty; " : "the run file sets no model; ")
                     + "set " + choose + " (every other setting has a default, listed in reference.conf)");
         }
-        try {
-            this.modelSettings = c.getConfig("model.settings");
-        } catch (ConfigException.WrongType e) {
-            throw r.error("model.settings", "expected an object { … }");
-        }
-        String data = r.getString("data.file");
+        this.modelSettings = r.object("model.settings");
+        String data = r.text("data.file");
         this.dataFile = data == null ? null : folderOf(c.getValue("data.file"), file).resolve(data).normalize();
-        this.inlineData = c.getIsNull("data.inline") ? null : objectAt(r, "data.inline");
+        this.inlineData = c.getIsNull("data.inline") ? null : r.object("data.inline");
         if (dataFile != null && inlineData != null) {
             throw r.error("data.inline", "set data.file or data.inline, not both");
         }
         this.columnBindings = new LinkedHashMap<>();
-        for (Map.Entry<String, ConfigValue> entry : objectAt(r, "data.columns").root().entrySet()) {
+        for (Map.Entry<String, ConfigValue> entry : r.object("data.columns").root().entrySet()) {
             if (entry.getValue().valueType() != ConfigValueType.STRING) {
                 throw r.error("data.columns." + entry.getKey(), "expected the name of a data column");
             }
             columnBindings.put(entry.getKey(), (String) entry.getValue().unwrapped());
         }
         this.sampler = samplerSettings(r);
-        this.backendKind = r.getChoice("backend.kind", List.of("spark", "threads"));
-        this.master = r.getString("backend.master");
+        this.backendKind = r.choice("backend.kind", List.of("spark", "threads"));
+        this.master = r.text("backend.master");
         if (master == null || !SparkMasters.isValid(master)) {
             throw r.error("backend.master", "not a Spark master; use " + SparkMasters.FORMS);
         }
-        this.partitions = r.getInt("backend.partitions", 0, 1_000_000);
+        this.partitions = r.integer("backend.partitions", 0, 1_000_000);
         this.sparkSettings = new LinkedHashMap<>();
-        for (Map.Entry<String, ConfigValue> entry : objectAt(r, "backend.spark").entrySet()) {
+        for (Map.Entry<String, ConfigValue> entry : r.object("backend.spark").entrySet()) {
             String key = "backend.spark." + entry.getKey();
             if (!entry.getKey().startsWith("\"spark.") && !entry.getKey().startsWith("spark.")) {
                 throw r.error(key, "Spark settings start with spark. (quote the key: \"spark.executor.memory\" = 2g)");
@@ -118,18 +116,18 @@ public final class RunSpec {
         } catch (ConfigException.WrongType e) {
             throw r.error("backend.jars", "expected a list of jar paths");
         }
-        this.connectTimeoutSeconds = r.getInt("backend.connect-timeout-seconds", 1, 3600);
-        this.threads = r.getInt("backend.threads", 0, 4096);
-        this.blockSize = r.getInt("backend.block-size", 0, Integer.MAX_VALUE);
-        String folder = r.getString("output.folder");
+        this.connectTimeoutSeconds = r.integer("backend.connect-timeout-seconds", 1, 3600);
+        this.threads = r.integer("backend.threads", 0, 4096);
+        this.blockSize = r.integer("backend.block-size", 0, Integer.MAX_VALUE);
+        String folder = r.text("output.folder");
         if (folder == null || folder.isBlank()) {
             throw r.error("output.folder", "must name a folder");
         }
         this.outputFolder = Path.of(folder);
-        this.progress = Progress.valueOf(r.getChoice("output.progress", List.of("auto", "live", "log", "off"))
+        this.progress = Progress.valueOf(r.choice("output.progress", List.of("auto", "live", "log", "off"))
                 .toUpperCase(java.util.Locale.ROOT));
-        this.checkpointEnabled = r.getBoolean("checkpoint.enabled");
-        String path = r.getString("checkpoint.path");
+        this.checkpointEnabled = r.bool("checkpoint.enabled");
+        String path = r.text("checkpoint.path");
         if (path != null && path.isBlank()) {
             throw r.error("checkpoint.path", "must name a folder or URI, or be null for the run folder's checkpoints/");
         }
@@ -145,11 +143,11 @@ public final class RunSpec {
             }
         }
         this.checkpointPath = path;
-        this.checkpointEveryIterations = r.getInt("checkpoint.every-iterations", 1, 1_000_000);
-        this.checkpointEveryMinutes = r.getDouble("checkpoint.every-minutes", 0, true, 100_000, true);
-        this.checkpointKeep = r.getInt("checkpoint.keep", 1, 1000);
-        this.maxWallTime = r.isSet("limits.max-wall-time") ? duration(r, "limits.max-wall-time") : null;
-        this.stopGraceSeconds = r.getInt("limits.stop-grace-seconds", 1, 86_400);
+        this.checkpointEveryIterations = r.integer("checkpoint.every-iterations", 1, 1_000_000);
+        this.checkpointEveryMinutes = r.number("checkpoint.every-minutes", 0, true, 100_000, true);
+        this.checkpointKeep = r.integer("checkpoint.keep", 1, 1000);
+        this.maxWallTime = r.has("limits.max-wall-time") ? r.duration("limits.max-wall-time") : null;
+        this.stopGraceSeconds = r.integer("limits.stop-grace-seconds", 1, 86_400);
     }
 
     /**
@@ -171,68 +169,47 @@ public final class RunSpec {
         }
     }
 
-    private static java.time.Duration duration(TypedReader r, String key) {
-        java.time.Duration value;
-        try {
-            value = r.config().getDuration(key);
-        } catch (ConfigException e) {
-            throw r.error(key, "expected a duration such as \"11h30m\", \"90m\" or \"3600s\"");
-        }
-        if (value.isNegative() || value.isZero()) {
-            throw r.error(key, "must be a positive duration, was " + value);
-        }
-        return value;
-    }
-
-    private static Config objectAt(TypedReader r, String key) {
-        try {
-            return r.config().getConfig(key);
-        } catch (ConfigException.WrongType e) {
-            throw r.error(key, "expected an object { … }");
-        }
-    }
-
-    private static SamplerSettings samplerSettings(TypedReader r) {
+    private static SamplerSettings samplerSettings(SettingsReader r) {
         SamplerSettings.Builder b = SamplerSettings.builder();
-        b.particles(r.getInt("sampler.particles", 2, 100_000_000));
-        b.seed(r.getSeed("sampler.seed"));
-        b.maxIterations(r.getInt("sampler.max-iterations", 1, 1_000_000));
-        b.minimumDistinctEves(r.getInt("sampler.minimum-distinct-ancestors", 1, Integer.MAX_VALUE));
-        b.evaluationRetries(r.getInt(RETRIES_KEY, 0, 100));
-        b.maxInvalidFraction(r.getDouble(MAX_INVALID_FRACTION_KEY, 0, true, 1, true));
-        String scheme = r.getChoice("sampler.resampling.scheme",
+        b.particles(r.integer("sampler.particles", 2, 100_000_000));
+        b.seed(r.seed("sampler.seed"));
+        b.maxIterations(r.integer("sampler.max-iterations", 1, 1_000_000));
+        b.minimumDistinctEves(r.integer("sampler.minimum-distinct-ancestors", 1, Integer.MAX_VALUE));
+        b.evaluationRetries(r.integer(RETRIES_KEY, 0, 100));
+        b.maxInvalidFraction(r.number(MAX_INVALID_FRACTION_KEY, 0, true, 1, true));
+        String scheme = r.choice("sampler.resampling.scheme",
                 List.of("multinomial", "stratified", "systematic", "residual"));
         b.resamplingScheme(ResamplingScheme.valueOf(scheme.toUpperCase(java.util.Locale.ROOT)));
-        b.resampleThreshold(r.getDouble("sampler.resampling.threshold", 0, false, 1, true));
-        b.resampleEveryIteration(r.getBoolean("sampler.resampling.every-iteration"));
-        b.islands(r.getInt("sampler.islands.count", 0, 10_000_000));
-        b.islandInteractionEvery(r.getInt("sampler.islands.interaction-every", 0, 1_000_000));
-        b.islandInteractionThreshold(r.getDouble("sampler.islands.interaction-threshold", 0, true, 1, true));
-        String rule = r.getChoice("sampler.tempering.rule", List.of("adaptive", "fixed"));
+        b.resampleThreshold(r.number("sampler.resampling.threshold", 0, false, 1, true));
+        b.resampleEveryIteration(r.bool("sampler.resampling.every-iteration"));
+        b.islands(r.integer("sampler.islands.count", 0, 10_000_000));
+        b.islandInteractionEvery(r.integer("sampler.islands.interaction-every", 0, 1_000_000));
+        b.islandInteractionThreshold(r.number("sampler.islands.interaction-threshold", 0, true, 1, true));
+        String rule = r.choice("sampler.tempering.rule", List.of("adaptive", "fixed"));
         if (rule.equals("adaptive")) {
-            b.temperatureRule(new AdaptiveTemperature(r.getDouble("sampler.tempering.target", 0, false, 1, false)));
+            b.temperatureRule(new AdaptiveTemperature(r.number("sampler.tempering.target", 0, false, 1, false)));
         } else {
-            double[] schedule = r.getDoubleList("sampler.tempering.schedule");
+            double[] schedule = r.numbers("sampler.tempering.schedule");
             try {
                 b.temperatureRule(new FixedSchedule(schedule));
             } catch (IllegalArgumentException e) {
                 throw r.error("sampler.tempering.schedule", e.getMessage());
             }
         }
-        String kernel = r.getChoice("sampler.moves.kernel", List.of("random-walk", "independence"));
+        String kernel = r.choice("sampler.moves.kernel", List.of("random-walk", "independence"));
         b.moveKernel(kernel.equals("random-walk") ? MoveKernel.RANDOM_WALK : MoveKernel.INDEPENDENCE);
         ConfigValue steps = r.config().getValue("sampler.moves.steps");
         if (steps.valueType() == ConfigValueType.NUMBER) {
-            b.fixedSteps(r.getInt("sampler.moves.steps", 1, 65535));
+            b.fixedSteps(r.integer("sampler.moves.steps", 1, 65535));
         } else if (!"adaptive".equals(steps.unwrapped())) {
             throw r.error("sampler.moves.steps", "must be \"adaptive\" or a number of steps");
         }
-        b.stayProbability(r.getDouble("sampler.moves.stay-probability", 0, false, 1, false));
-        b.maxSteps(r.getInt("sampler.moves.max-steps", 1, 65535));
-        b.initialScale(r.getDouble("sampler.moves.initial-scale", 0, false, 100, true));
+        b.stayProbability(r.number("sampler.moves.stay-probability", 0, false, 1, false));
+        b.maxSteps(r.integer("sampler.moves.max-steps", 1, 65535));
+        b.initialScale(r.number("sampler.moves.initial-scale", 0, false, 100, true));
         ConfigValue target = r.config().getValue("sampler.moves.target-acceptance");
         if (target.valueType() == ConfigValueType.NUMBER) {
-            b.targetAcceptance(r.getDouble("sampler.moves.target-acceptance", 0, false, 1, false));
+            b.targetAcceptance(r.number("sampler.moves.target-acceptance", 0, false, 1, false));
         } else if ("auto".equals(target.unwrapped())) {
             b.targetAcceptance(Double.NaN);
         } else {
@@ -247,7 +224,11 @@ public final class RunSpec {
 
     /** Checks every setting of a loaded run file. */
     public static RunSpec from(RunFile file) {
-        return new RunSpec(file, new TypedReader(file.config()));
+        try {
+            return new RunSpec(file, SettingsReader.of(file.config()));
+        } catch (SettingsException e) {
+            throw new RunFileException(e.getMessage(), e);
+        }
     }
 
     public RunFile file() {

@@ -118,7 +118,7 @@ final class ScalingTable {
                 cells.add(row.point().cores() == 0 ? "" : row.point().cores());
                 cells.add(m.particles());
                 cells.add(m.partitions() < 0 ? "" : m.partitions());
-                cells.add(row.point().spec().sampler().islands());
+                cells.add(row.point().spec().sampler().islands().count());
                 for (String key : study.axisKeys()) {
                     cells.add(row.point().values().get(key));
                 }

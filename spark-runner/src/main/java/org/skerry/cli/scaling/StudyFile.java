@@ -4,10 +4,8 @@ import com.typesafe.config.Config;
 import com.typesafe.config.ConfigException;
 import com.typesafe.config.ConfigFactory;
 import com.typesafe.config.ConfigList;
-import com.typesafe.config.ConfigObject;
 import com.typesafe.config.ConfigParseOptions;
 import com.typesafe.config.ConfigRenderOptions;
-import com.typesafe.config.ConfigUtil;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
 import java.nio.file.Files;
@@ -18,12 +16,12 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
-import java.util.TreeSet;
-import org.skerry.cli.runfile.KeySuggestion;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
-import org.skerry.cli.runfile.TypedReader;
+import org.skerry.cli.runfile.SettingsFile;
+import org.skerry.engine.settings.SettingsException;
+import org.skerry.engine.settings.SettingsReader;
 
 /**
  * A scaling study file read with Typesafe Config over the defaults in {@code study-defaults.conf}:
@@ -37,7 +35,10 @@ public final class StudyFile {
     /** The axis that sets the number of cores rather than a run-file key. */
     public static final String CORES = "cores";
 
-    private static final List<String> FREE_FORM = List.of("settings", "axes");
+    /** Study files: defaults and known keys in study-defaults.conf; run-file settings go in settings and axes. */
+    private static final SettingsFile KIND = new SettingsFile("study file", "study-defaults.conf",
+            List.of("settings", "axes"), " (study-defaults.conf lists them; run-file settings go under settings { } "
+                    + "or axes { })");
 
     /** Strong scaling keeps N fixed; weak scaling keeps N per core fixed. */
     public enum Scaling { STRONG, WEAK }
@@ -59,15 +60,15 @@ public final class StudyFile {
     private StudyFile(Path path, Config config) {
         this.path = path;
         this.config = config;
-        TypedReader r = new TypedReader(config);
+        SettingsReader r = SettingsReader.of(config);
         String fileName = path.getFileName().toString();
-        String named = r.getString("name");
+        String named = r.text("name");
         this.name = named != null ? named : fileName.endsWith(".conf") ? fileName.substring(0, fileName.length() - 5)
                 : fileName;
         if (!name.matches("[A-Za-z0-9][A-Za-z0-9._-]*")) {
             throw r.error("name", "must be letters, digits, '.', '_' or '-' (it names the study folder)");
         }
-        String baseName = r.getString("base");
+        String baseName = r.text("base");
         if (baseName == null || baseName.isBlank()) {
             throw r.error("base", "name the run file to scale, relative to the study file");
         }
@@ -75,11 +76,11 @@ public final class StudyFile {
         if (!Files.isRegularFile(base)) {
             throw r.error("base", "no such run file: " + base);
         }
-        this.scaling = Scaling.valueOf(r.getChoice("scaling", List.of("strong", "weak")).toUpperCase(Locale.ROOT));
-        this.particlesPerCore = r.getInt("particles-per-core", 0, 100_000_000);
-        this.repeats = r.getInt("repeats", 1, 1000);
-        this.warmUp = r.getBoolean("warm-up");
-        String folder = r.getString("output.folder");
+        this.scaling = Scaling.valueOf(r.choice("scaling", List.of("strong", "weak")).toUpperCase(Locale.ROOT));
+        this.particlesPerCore = r.integer("particles-per-core", 0, 100_000_000);
+        this.repeats = r.integer("repeats", 1, 1000);
+        this.warmUp = r.bool("warm-up");
+        String folder = r.text("output.folder");
         if (folder == null || folder.isBlank()) {
             throw r.error("output.folder", "must name a folder");
         }
@@ -126,42 +127,16 @@ public final class StudyFile {
      * @throws RunFileException naming the file, line, key and value of the first problem found
      */
     public static StudyFile load(Path path) {
-        Config user = RunFile.parse(path, "study file");
-        Config defaults = ConfigFactory.parseResources(StudyFile.class.getClassLoader(), "study-defaults.conf",
-                ConfigParseOptions.defaults().setAllowMissing(false));
-        checkKnownKeys(user, defaults);
+        Config resolved = KIND.load(path);
         try {
-            return new StudyFile(path, user.withFallback(defaults).resolve());
-        } catch (ConfigException e) {
-            throw new RunFileException(RunFile.located(e), e);
-        }
-    }
-
-    private static void checkKnownKeys(Config user, Config defaults) {
-        TreeSet<String> known = new TreeSet<>();
-        for (Map.Entry<String, ConfigValue> entry : defaults.root().entrySet()) {
-            known.add(entry.getKey());
-            if (entry.getValue() instanceof ConfigObject && !FREE_FORM.contains(entry.getKey())) {
-                for (String child : ((ConfigObject) entry.getValue()).keySet()) {
-                    known.add(entry.getKey() + "." + child);
-                }
-            }
-        }
-        for (Map.Entry<String, ConfigValue> entry : user.entrySet()) {
-            String key = entry.getKey();
-            String top = ConfigUtil.splitPath(key).get(0);
-            if (FREE_FORM.contains(top) || known.contains(key)) {
-                continue;
-            }
-            String suggestion = KeySuggestion.closest(key, known);
-            throw new RunFileException(RunFile.describe(entry.getValue().origin()) + ": unknown study setting '" + key
-                    + "'" + (suggestion == null ? "" : "; did you mean '" + suggestion + "'?")
-                    + " (study-defaults.conf lists them; run-file settings go under settings { } or axes { })");
+            return new StudyFile(path, resolved);
+        } catch (SettingsException e) {
+            throw new RunFileException(e.getMessage(), e);
         }
     }
 
     /** The leaves under {@code section} as run-file overrides (path → HOCON value text). */
-    private static Map<String, String> flatten(TypedReader r, String section) {
+    private static Map<String, String> flatten(SettingsReader r, String section) {
         Map<String, String> out = new TreeMap<>();
         Config object;
         try {
@@ -175,7 +150,7 @@ public final class StudyFile {
         return out;
     }
 
-    private Map<String, List<ConfigValue>> axesOf(TypedReader r) {
+    private Map<String, List<ConfigValue>> axesOf(SettingsReader r) {
         Config object;
         try {
             object = r.config().getConfig("axes");

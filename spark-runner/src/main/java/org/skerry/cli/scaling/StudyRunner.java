@@ -93,7 +93,7 @@ final class StudyRunner {
             moved += record.particlesMoved();
         }
         RunMeasurement measurement = new RunMeasurement(outcome.result().iterationCount(),
-                point.spec().sampler().particles(), traffic == null ? -1 : traffic.partitions(),
+                point.spec().sampler().population().particles(), traffic == null ? -1 : traffic.partitions(),
                 outcome.result().evaluations().evaluations(), outcome.wallSeconds(), RunMeasurement.sum(records), moved,
                 traffic == null ? -1 : traffic.loopBytes(), traffic == null ? -1 : traffic.exportBytes(),
                 clock.loopCpuSeconds(), load, backendOf(folder));
@@ -126,7 +126,7 @@ final class StudyRunner {
         try {
             Config timing = ConfigFactory.parseFile(folder.resolve(TimingJson.FILE_NAME).toFile());
             Config summary = ConfigFactory.parseFile(folder.resolve(SummaryJson.FILE_NAME).toFile());
-            return new RunMeasurement(summary.getInt("iterations"), point.spec().sampler().particles(), -1,
+            return new RunMeasurement(summary.getInt("iterations"), point.spec().sampler().population().particles(), -1,
                     summary.getLong("likelihood_evaluations"), timing.getDouble("wall_seconds"),
                     RunMeasurement.phases(timing), -1, -1, -1, -1,
                     -1, timing.getString("backend"));

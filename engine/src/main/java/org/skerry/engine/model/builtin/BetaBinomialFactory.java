@@ -41,8 +41,8 @@ public final class BetaBinomialFactory implements ModelFactory {
 
     @Override
     public Model create(ModelSettings settings) {
-        double a = Read.positive(settings, "prior.a", 1.0);
-        double b = Read.positive(settings, "prior.b", 1.0);
+        double a = settings.getPositive("prior.a", 1.0);
+        double b = settings.getPositive("prior.b", 1.0);
         if (settings.has("successes") || settings.has("trials")) {
             int k = settings.getInt("successes");
             int n = settings.getInt("trials");

@@ -50,8 +50,8 @@ public final class CostlyNormalFactory implements ModelFactory {
             throw new IllegalArgumentException(settings.where("slow-factor") + ": must be finite and >= 1, was "
                     + slowFactor);
         }
-        return CostlyNormalModel.of(Read.atLeast(settings, "dimension", 2, 1), cost, slowFraction, slowFactor,
-                Read.finite(settings, "observation", 1.0), Read.positive(settings, "sigma", 1.0),
-                Read.finite(settings, "prior.mean", 0.0), Read.positive(settings, "prior.sd", 3.0));
+        return CostlyNormalModel.of(settings.getInt("dimension", 2, 1), cost, slowFraction, slowFactor,
+                settings.getDouble("observation", 1.0), settings.getPositive("sigma", 1.0),
+                settings.getDouble("prior.mean", 0.0), settings.getPositive("prior.sd", 3.0));
     }
 }

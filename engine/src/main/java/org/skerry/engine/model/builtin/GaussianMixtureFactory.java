@@ -33,11 +33,11 @@ public final class GaussianMixtureFactory implements ModelFactory {
     @Override
     public Model create(ModelSettings settings) {
         return GaussianMixtureLikelihoodModel.of(
-                Read.atLeast(settings, "dimension", 2, 1),
-                Read.fraction(settings, "weight", 0.3),
-                Read.finite(settings, "location1", -2.0),
-                Read.finite(settings, "location2", 2.0),
-                Read.positive(settings, "sd", 0.5),
-                Read.positive(settings, "bound", 10.0));
+                settings.getInt("dimension", 2, 1),
+                settings.getFraction("weight", 0.3),
+                settings.getDouble("location1", -2.0),
+                settings.getDouble("location2", 2.0),
+                settings.getPositive("sd", 0.5),
+                settings.getPositive("bound", 10.0));
     }
 }

@@ -32,10 +32,10 @@ public final class GaussianShellsFactory implements ModelFactory {
     @Override
     public Model create(ModelSettings settings) {
         return GaussianShellsModel.of(
-                Read.atLeast(settings, "dimension", 2, 1),
-                Read.positive(settings, "radius", 2.0),
-                Read.positive(settings, "width", 0.1),
-                Read.finite(settings, "centre", 3.5),
-                Read.positive(settings, "bound", 6.0));
+                settings.getInt("dimension", 2, 1),
+                settings.getPositive("radius", 2.0),
+                settings.getPositive("width", 0.1),
+                settings.getDouble("centre", 3.5),
+                settings.getPositive("bound", 6.0));
     }
 }

@@ -74,9 +74,9 @@ public final class LinearRegressionFactory implements ModelFactory {
             }
             System.arraycopy(data[i], 1, x[i], offset, predictors.size());
         }
-        double sigma = Read.positive(settings, "sigma", 1.0);
-        double mean = Read.finite(settings, "prior.mean", 0.0);
-        double sd = Read.positive(settings, "prior.sd", 10.0);
+        double sigma = settings.getPositive("sigma", 1.0);
+        double mean = settings.getDouble("prior.mean", 0.0);
+        double sd = settings.getPositive("prior.sd", 10.0);
         double[] m0 = new double[p];
         Arrays.fill(m0, mean);
         double[][] s0 = new double[p][p];

@@ -57,7 +57,7 @@ public final class NormalMeanFactory implements ModelFactory {
             }
         }
         double[][] rows = Data.rows(settings, roles);
-        return NormalMeanModel.of(rows, Read.positive(settings, "sigma", 1.0),
-                Read.finite(settings, "prior.mean", 0.0), Read.positive(settings, "prior.sd", 10.0));
+        return NormalMeanModel.of(rows, settings.getPositive("sigma", 1.0),
+                settings.getDouble("prior.mean", 0.0), settings.getPositive("prior.sd", 10.0));
     }
 }

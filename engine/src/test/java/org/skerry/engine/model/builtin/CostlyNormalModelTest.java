@@ -8,7 +8,7 @@ import org.apache.commons.math3.distribution.NormalDistribution;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.skerry.engine.model.LikelihoodContext;
-import org.skerry.engine.model.settings.MapModelSettings;
+import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.ModelCatalog;
 import org.skerry.engine.random.RandomStream;
 
@@ -86,11 +86,11 @@ class CostlyNormalModelTest {
     @DisplayName("factory defaults are the values listed by `skerry models`; bad settings name their key")
     void factory() {
         CostlyNormalModel model = (CostlyNormalModel) ModelCatalog.load().get("costly-normal")
-                .create(MapModelSettings.empty());
+                .create(ModelSettings.empty());
         assertEquals(2, model.parameters().dimension());
         assertEquals(1000, model.meanCostMicros(), 1e-12);
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> ModelCatalog.load()
-                .get("costly-normal").create(MapModelSettings.builder().origin("run.conf").set("slow-fraction", 1).build()));
+                .get("costly-normal").create(ModelSettings.builder().origin("run.conf").set("slow-fraction", 1).build()));
         assertTrue(e.getMessage().contains("slow-fraction"), e.getMessage());
     }
 }

@@ -10,7 +10,7 @@ import java.util.List;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.skerry.engine.model.Model;
-import org.skerry.engine.model.settings.MapModelSettings;
+import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.ModelCatalog;
 import org.skerry.engine.model.settings.ModelFactory;
 import org.skerry.engine.model.settings.SettingDescription;
@@ -42,7 +42,7 @@ class FactoriesTest {
     @DisplayName("defaults listed by a factory are the values it uses (gaussian-shells)")
     void listedDefaultsAreUsed() {
         ModelFactory factory = CATALOG.get("gaussian-shells");
-        GaussianShellsModel model = (GaussianShellsModel) factory.create(MapModelSettings.empty());
+        GaussianShellsModel model = (GaussianShellsModel) factory.create(ModelSettings.empty());
         for (SettingDescription s : factory.settings()) {
             double listed = Double.parseDouble(s.defaultValue());
             double used;
@@ -62,7 +62,7 @@ class FactoriesTest {
     @DisplayName("normal-mean from settings: columns y1, y2 give the same likelihood as the direct model")
     void normalMean() {
         double[][] rows = SyntheticData.normalRows(90L, 10, new double[] {1, 2}, 0.5);
-        MapModelSettings settings = MapModelSettings.builder()
+        ModelSettings settings = ModelSettings.builder()
                 .set("sigma", 0.5).set("prior.mean", 1).set("prior.sd", 3)
                 .column("y1", SyntheticData.column(rows, 0)).column("y2", SyntheticData.column(rows, 1))
                 .build();
@@ -71,9 +71,9 @@ class FactoriesTest {
         double[] mu = {0.9, 2.1};
         assertEquals(direct.logLikelihood(mu, null), fromSettings.logLikelihood(mu, null));
         assertEquals(direct.prior().logDensity(mu), fromSettings.prior().logDensity(mu));
-        assertMessage(() -> CATALOG.get("normal-mean").create(MapModelSettings.builder().column("z", new double[] {1}).build()),
+        assertMessage(() -> CATALOG.get("normal-mean").create(ModelSettings.builder().column("z", new double[] {1}).build()),
                 "'y'", "[z]");
-        assertMessage(() -> CATALOG.get("normal-mean").create(MapModelSettings.builder().origin("run.conf")
+        assertMessage(() -> CATALOG.get("normal-mean").create(ModelSettings.builder().origin("run.conf")
                 .set("sigma", 0).column("y", new double[] {1}).build()), "run.conf, sigma", "0.0");
     }
 
@@ -82,7 +82,7 @@ class FactoriesTest {
     void linearRegression() {
         double[] x1 = {0.1, 0.5, 0.9, 1.3};
         double[] y = {1.0, 1.8, 3.1, 3.9};
-        MapModelSettings settings = MapModelSettings.builder()
+        ModelSettings settings = ModelSettings.builder()
                 .set("predictors", List.of("x1")).set("sigma", 0.4)
                 .column("y", y).column("x1", x1).build();
         LinearRegressionModel model = (LinearRegressionModel) CATALOG.get("linear-regression").create(settings);
@@ -92,16 +92,16 @@ class FactoriesTest {
             assertEquals(1.0, design[i][0]);
             assertEquals(x1[i], design[i][1]);
         }
-        assertMessage(() -> CATALOG.get("linear-regression").create(MapModelSettings.builder()
+        assertMessage(() -> CATALOG.get("linear-regression").create(ModelSettings.builder()
                 .set("predictors", List.of("x2")).column("y", y).build()), "'x2'", "[y]");
     }
 
     @Test
     @DisplayName("beta-binomial from settings or from data columns: evidence pieces match BetaBinomialExact")
     void betaBinomial() {
-        Model fromSettings = CATALOG.get("beta-binomial").create(MapModelSettings.builder()
+        Model fromSettings = CATALOG.get("beta-binomial").create(ModelSettings.builder()
                 .set("successes", 4).set("trials", 9).set("prior.a", 2).build());
-        Model fromData = CATALOG.get("beta-binomial").create(MapModelSettings.builder()
+        Model fromData = CATALOG.get("beta-binomial").create(ModelSettings.builder()
                 .column("successes", new double[] {1, 3}).column("trials", new double[] {4, 5}).build());
         assertInstanceOf(BetaBinomialModel.class, fromSettings);
         assertEquals(4, ((BetaBinomialModel) fromData).totalSuccesses());
@@ -114,11 +114,11 @@ class FactoriesTest {
                     + fromSettings.logLikelihood(new double[] {p}, null);
             assertEquals(exact.logEvidence(), logJoint - exact.posterior().logDensity(p), 1e-12);
         }
-        assertMessage(() -> CATALOG.get("beta-binomial").create(MapModelSettings.builder().origin("run.conf")
+        assertMessage(() -> CATALOG.get("beta-binomial").create(ModelSettings.builder().origin("run.conf")
                 .set("successes", 10).set("trials", 9).build()), "run.conf, successes", "10");
-        assertMessage(() -> CATALOG.get("beta-binomial").create(MapModelSettings.builder().origin("run.conf")
+        assertMessage(() -> CATALOG.get("beta-binomial").create(ModelSettings.builder().origin("run.conf")
                 .set("successes", 1).build()), "run.conf, trials", "missing");
-        assertMessage(() -> CATALOG.get("beta-binomial").create(MapModelSettings.builder()
+        assertMessage(() -> CATALOG.get("beta-binomial").create(ModelSettings.builder()
                 .column("successes", new double[] {1.5}).column("trials", new double[] {4}).build()),
                 "'successes'", "1.5");
     }
@@ -127,11 +127,11 @@ class FactoriesTest {
     @DisplayName("gaussian-mixture from settings uses the given dimension, weight and locations")
     void mixture() {
         GaussianMixtureLikelihoodModel model = (GaussianMixtureLikelihoodModel) CATALOG.get("gaussian-mixture")
-                .create(MapModelSettings.builder().set("dimension", 3).set("weight", 0.6).build());
+                .create(ModelSettings.builder().set("dimension", 3).set("weight", 0.6).build());
         assertEquals(3, model.dimension());
         assertEquals(0.6, model.weight());
         assertTrue(model.parameters().support(2).contains(9.9));
-        assertMessage(() -> CATALOG.get("gaussian-mixture").create(MapModelSettings.builder().origin("run.conf")
+        assertMessage(() -> CATALOG.get("gaussian-mixture").create(ModelSettings.builder().origin("run.conf")
                 .set("weight", 1).build()), "run.conf, weight", "1.0");
     }
 }

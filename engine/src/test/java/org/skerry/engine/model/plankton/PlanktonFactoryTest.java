@@ -14,7 +14,7 @@ import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.IndependentPrior;
 import org.skerry.engine.model.prior.LogNormal;
 import org.skerry.engine.model.prior.Uniform;
-import org.skerry.engine.model.settings.MapModelSettings;
+import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.ModelCatalog;
 import org.skerry.engine.model.settings.ModelFactory;
 import org.skerry.engine.model.settings.SettingDescription;
@@ -25,14 +25,14 @@ class PlanktonFactoryTest {
     private static final ModelFactory FACTORY = ModelCatalog.load().get(PlanktonFactory.NAME);
     private static final double[][] ROWS = QuellmarData.generate(QuellmarScenario.demoBuoy(), 3L, 10);
 
-    private static MapModelSettings.Builder withData() {
+    private static ModelSettings.Builder withData() {
         double[] days = new double[ROWS.length];
         double[] chlorophyll = new double[ROWS.length];
         for (int j = 0; j < ROWS.length; j++) {
             days[j] = ROWS[j][0];
             chlorophyll[j] = ROWS[j][1];
         }
-        return MapModelSettings.builder().origin("run.conf").column("day", days).column("chlorophyll", chlorophyll);
+        return ModelSettings.builder().origin("run.conf").column("day", days).column("chlorophyll", chlorophyll);
     }
 
     @Test
@@ -113,9 +113,9 @@ class PlanktonFactoryTest {
                 "run.conf, assimilation", "1.2");
         assertMessage(() -> FACTORY.create(withData().set("grazing", "sigmoidal")
                 .set("initial.phytoplankton", 0).build()), "run.conf, initial.phytoplankton", "0.0");
-        assertMessage(() -> FACTORY.create(MapModelSettings.builder().set("grazing", "sigmoidal")
+        assertMessage(() -> FACTORY.create(ModelSettings.builder().set("grazing", "sigmoidal")
                 .column("day", new double[] {0, 7}).build()), "'chlorophyll'");
-        assertMessage(() -> FACTORY.create(MapModelSettings.builder().set("grazing", "sigmoidal")
+        assertMessage(() -> FACTORY.create(ModelSettings.builder().set("grazing", "sigmoidal")
                 .column("day", new double[] {0, 7, 3}).column("chlorophyll", new double[] {1, 2, 3}).build()),
                 "'day'", "row 2", "3.0");
     }

@@ -1,7 +1,7 @@
 package org.skerry.engine.model.settings;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
-import static org.skerry.engine.model.settings.MapModelSettingsTest.assertMessage;
+import static org.skerry.engine.model.settings.ModelSettingsTest.assertMessage;
 
 import java.util.List;
 import java.util.Map;
@@ -20,7 +20,7 @@ import org.skerry.engine.model.prior.Uniform;
 class PriorSettingsTest {
 
     private static ModelSettings prior(Map<String, ?> spec) {
-        return MapModelSettings.builder().origin("run.conf").set("prior.x", spec).build();
+        return ModelSettings.builder().origin("run.conf").set("prior.x", spec).build();
     }
 
     @Test
@@ -42,7 +42,7 @@ class PriorSettingsTest {
     @Test
     @DisplayName("an independent prior reads one entry per parameter name, in order")
     void independent() {
-        ModelSettings s = MapModelSettings.builder()
+        ModelSettings s = ModelSettings.builder()
                 .set("prior.a", Map.of("distribution", "normal", "mean", 1, "sd", 2))
                 .set("prior.b", Map.of("distribution", "exponential", "rate", 3))
                 .build();
@@ -56,7 +56,7 @@ class PriorSettingsTest {
         assertMessage(() -> read(Map.of("distribution", "cauchy")), "run.conf, prior.x.distribution", "'cauchy'");
         assertMessage(() -> read(Map.of("distribution", "normal", "mean", 0)), "run.conf, prior.x.sd", "missing");
         assertMessage(() -> read(Map.of("distribution", "normal", "mean", "zero", "sd", 1)),
-                "run.conf, prior.x.mean", "'zero'");
+                "run.conf: prior.x.mean", "\"zero\"");
         assertMessage(() -> read(Map.of("distribution", "normal", "mean", 0, "sd", -1)), "run.conf, prior.x", "-1.0");
         assertMessage(() -> read(Map.of("distribution", "uniform", "lower", 2, "upper", 1)), "run.conf, prior.x",
                 "lower=2.0");
@@ -65,7 +65,7 @@ class PriorSettingsTest {
         assertMessage(() -> read(Map.of("mean", 0)), "run.conf, prior.x.distribution", "missing");
         assertMessage(() -> PriorSettings.distribution(prior(Map.of()), "prior.y"), "run.conf, prior.y", "missing");
         assertMessage(() -> PriorSettings.distribution(
-                MapModelSettings.builder().origin("run.conf").set("prior.x", 3).build(), "prior.x"),
-                "run.conf, prior.x", "3");
+                ModelSettings.builder().origin("run.conf").set("prior.x", 3).build(), "prior.x"),
+                "run.conf: prior.x = 3", "an object");
     }
 }

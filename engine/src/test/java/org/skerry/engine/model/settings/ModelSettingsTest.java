@@ -12,11 +12,11 @@ import java.util.Map;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 
-/** {@link MapModelSettings}: lookups by dotted key, nested views, and error messages. */
-class MapModelSettingsTest {
+/** {@link ModelSettings}: lookups by dotted key, nested views, and error messages. */
+class ModelSettingsTest {
 
-    private static MapModelSettings sample() {
-        return MapModelSettings.builder()
+    private static ModelSettings sample() {
+        return ModelSettings.builder()
                 .origin("run.conf")
                 .set("sigma", 0.5)
                 .set("count", 12)
@@ -36,7 +36,7 @@ class MapModelSettingsTest {
     @Test
     @DisplayName("typed getters read numbers, quoted numbers, text, booleans and lists")
     void getters() {
-        MapModelSettings s = sample();
+        ModelSettings s = sample();
         assertEquals(0.5, s.getDouble("sigma"));
         assertEquals(12, s.getInt("count"));
         assertEquals(12.0, s.getDouble("count"));
@@ -56,11 +56,11 @@ class MapModelSettingsTest {
     }
 
     @Test
-    @DisplayName("keys keep their order; nested views read relative keys and report full paths")
+    @DisplayName("keys are sorted; nested views read relative keys and report full paths")
     void nestedViews() {
-        MapModelSettings s = sample();
-        assertEquals(List.of("sigma", "count", "quoted", "name", "flag", "list", "names", "prior"),
-                List.copyOf(s.keys()));
+        ModelSettings s = sample();
+        assertEquals(List.of("count", "flag", "list", "name", "names", "prior", "quoted", "sigma"),
+                List.copyOf(s.keys()), "sorted, as from a run file");
         ModelSettings mu = s.at("prior").at("mu");
         assertEquals(List.of("distribution", "mean", "sd"), List.copyOf(mu.keys()));
         assertEquals("normal", mu.getString("distribution"));
@@ -72,15 +72,15 @@ class MapModelSettingsTest {
     @Test
     @DisplayName("a missing or mistyped setting fails with where() and the value")
     void errors() {
-        MapModelSettings s = sample();
+        ModelSettings s = sample();
         assertMessage(() -> s.getDouble("nope"), "run.conf, nope", "missing");
-        assertMessage(() -> s.getDouble("name"), "run.conf, name", "'shells'");
-        assertMessage(() -> s.getInt("sigma"), "run.conf, sigma", "0.5");
-        assertMessage(() -> s.getBoolean("name", true), "run.conf, name", "'shells'");
-        assertMessage(() -> s.getDoubles("sigma"), "run.conf, sigma", "0.5");
-        assertMessage(() -> s.getDoubles("names"), "run.conf, names[0]", "'x1'");
-        assertMessage(() -> s.getString("prior"), "run.conf, prior", "an object");
-        assertMessage(() -> s.at("sigma"), "run.conf, sigma", "0.5");
+        assertMessage(() -> s.getDouble("name"), "run.conf: name", "\"shells\"");
+        assertMessage(() -> s.getInt("sigma"), "run.conf: sigma", "0.5");
+        assertMessage(() -> s.getBoolean("name", true), "run.conf: name", "\"shells\"");
+        assertMessage(() -> s.getDoubles("sigma"), "run.conf: sigma", "0.5");
+        assertMessage(() -> s.getDoubles("names"), "run.conf: names", "\"x1\"");
+        assertMessage(() -> s.getString("prior"), "run.conf: prior", "text value");
+        assertMessage(() -> s.at("sigma"), "run.conf: sigma", "0.5");
         assertMessage(() -> s.at("prior").at("mu").getDouble("rate"), "run.conf, prior.mu.rate", "missing");
         assertMessage(() -> s.getDouble("a..b"), "key", "'a..b'");
     }
@@ -88,7 +88,7 @@ class MapModelSettingsTest {
     @Test
     @DisplayName("a role with no column fails naming the role and the bound roles")
     void columns() {
-        MapModelSettings s = sample();
+        ModelSettings s = sample();
         assertTrue(s.hasColumn("y"));
         assertEquals(List.of("y", "x"), List.copyOf(s.columnRoles()));
         assertMessage(() -> s.column("z"), "'z'", "[y, x]");
@@ -102,7 +102,7 @@ class MapModelSettingsTest {
         inner.put("a", 1.0);
         Map<String, Object> tree = new LinkedHashMap<>();
         tree.put("group", inner);
-        MapModelSettings s = MapModelSettings.builder().setAll(tree).column("y", data).build();
+        ModelSettings s = ModelSettings.builder().setAll(tree).column("y", data).build();
         data[0] = 99;
         inner.put("a", 2.0);
         s.column("y")[1] = 99;
@@ -114,9 +114,9 @@ class MapModelSettingsTest {
     @Test
     @DisplayName("unsupported values and non-finite numbers are refused when set")
     void badValues() {
-        assertMessage(() -> MapModelSettings.builder().set("x", new Object()), "x", "unsupported");
-        assertMessage(() -> MapModelSettings.builder().set("x", Double.NaN), "x", "NaN");
-        assertMessage(() -> MapModelSettings.of(Map.of("a", Map.of("b.c", 1))), "a", "'b.c'");
+        assertMessage(() -> ModelSettings.builder().set("x", new Object()), "x", "unsupported");
+        assertMessage(() -> ModelSettings.builder().set("x", Double.NaN), "x", "NaN");
+        assertMessage(() -> ModelSettings.of(Map.of("a", Map.of("b.c", 1))), "a", "'b.c'");
     }
 
     static void assertMessage(Runnable action, String first, String second) {
