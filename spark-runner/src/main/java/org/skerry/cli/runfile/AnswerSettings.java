@@ -35,9 +35,16 @@ public final class AnswerSettings {
 
     public static SortedMap<String, String> of(RunSpec spec) {
         SortedMap<String, String> settings = new TreeMap<>();
+        boolean dataTempering = spec.file().config().hasPath("sampler.sequence")
+                && spec.file().config().getString("sampler.sequence").equals("data-tempering");
         for (Map.Entry<String, ConfigValue> entry : spec.file().config().entrySet()) {
             String key = entry.getKey();
             if (isNeutral(key)) {
+                continue;
+            }
+            // Likelihood tempering, the default, is what every run did before the sequence could be
+            // chosen: leaving its keys out keeps older checkpoints resumable.
+            if (!dataTempering && (key.equals("sampler.sequence") || key.startsWith("sampler.data-tempering."))) {
                 continue;
             }
             settings.put(key, entry.getValue().render(com.typesafe.config.ConfigRenderOptions.concise()));

@@ -10,6 +10,8 @@ import org.skerry.cli.data.CsvDataReader;
 import org.skerry.cli.data.DataException;
 import org.skerry.cli.data.DataTable;
 import org.skerry.engine.model.Model;
+import org.skerry.engine.model.ObservationLikelihood;
+import org.skerry.engine.target.SequenceSettings;
 import org.skerry.engine.model.settings.ModelCatalog;
 import org.skerry.engine.model.settings.ModelCreator;
 import org.skerry.engine.model.settings.ModelNotCreatedException;
@@ -64,7 +66,18 @@ public final class ModelBuilder {
             throw new RunFileException("model " + spec.modelLabel() + ": " + message, e);
         }
         checkBindingsRead(spec, settings.rolesRead());
+        checkSequence(spec, model);
         return new Built(model, data, source);
+    }
+
+    /** Refuses data tempering for a model whose likelihood does not come per observation range. */
+    private static void checkSequence(RunSpec spec, Model model) {
+        if (spec.sampler().targets().kind() == SequenceSettings.Kind.DATA_TEMPERING
+                && !(model instanceof ObservationLikelihood)) {
+            throw new RunFileException(where(spec, "sampler.sequence") + ": sampler.sequence = data-tempering needs a "
+                    + "model whose likelihood is a sum over observations; model " + spec.modelLabel()
+                    + " gives none per observation range (use likelihood-tempering)");
+        }
     }
 
     /**

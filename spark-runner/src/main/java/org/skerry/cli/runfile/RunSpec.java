@@ -14,6 +14,7 @@ import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.settings.SettingsException;
 import org.skerry.engine.settings.SettingsReader;
+import org.skerry.engine.target.SequenceSettings;
 import org.skerry.engine.temper.AdaptiveTemperature;
 import org.skerry.engine.temper.FixedSchedule;
 import org.skerry.checkpoint.CheckpointFileSystem;
@@ -194,6 +195,17 @@ public final class RunSpec {
                 b.temperatureRule(new FixedSchedule(schedule));
             } catch (IllegalArgumentException e) {
                 throw r.error("sampler.tempering.schedule", e.getMessage());
+            }
+        }
+        if (r.choice("sampler.sequence", List.of("likelihood-tempering", "data-tempering")).equals("data-tempering")) {
+            ConfigValue batch = r.config().getValue("sampler.data-tempering.batch");
+            if (batch.valueType() == ConfigValueType.NUMBER) {
+                b.targets(SequenceSettings.fixedBatches(r.integer("sampler.data-tempering.batch", 1, 100_000_000)));
+            } else if ("adaptive".equals(batch.unwrapped())) {
+                b.targets(SequenceSettings.adaptiveBatches(r.integer("sampler.data-tempering.window", 1, 10_000),
+                        r.number("sampler.data-tempering.target", 0, false, 1, false)));
+            } else {
+                throw r.error("sampler.data-tempering.batch", "must be \"adaptive\" or a number of observations");
             }
         }
         String kernel = r.choice("sampler.moves.kernel", List.of("random-walk", "independence"));
