@@ -9,7 +9,7 @@ package org.skerry.engine.model;
  * are handed. Return {@code Double.NEGATIVE_INFINITY} for a parameter vector the physics rules
  * out: that is a valid zero likelihood. A NaN, {@code +Infinity} or a thrown exception counts as
  * an invalid evaluation: the sampler gives the particle zero weight, counts it and reports it,
- * after repeating the call as often as {@code SamplerSettings.evaluationRetries()} allows (with the
+ * after repeating the call as often as {@code SamplerSettings.evaluation().retries()} allows (with the
  * same array, which the model must not change, and the same random stream).
  *
  * <p>A stochastic simulator must draw all its randomness from {@link LikelihoodContext#random()}:

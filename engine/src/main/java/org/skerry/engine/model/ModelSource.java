@@ -29,22 +29,4 @@ public interface ModelSource extends Serializable {
     default boolean isPortable() {
         return true;
     }
-
-    /**
-     * How many times a backend repeats an invalid likelihood call (NaN, {@code +Infinity}, an
-     * exception) of this source's model before counting it as invalid; 0 unless set with
-     * {@link #withEvaluationRetries(int)}. It travels with the source, so every executor retries
-     * alike.
-     */
-    default int evaluationRetries() {
-        return 0;
-    }
-
-    /** This source with invalid likelihood calls repeated up to {@code retries} times (0: never). */
-    default ModelSource withEvaluationRetries(int retries) {
-        if (retries < 0) {
-            throw new IllegalArgumentException("retries must be >= 0, was " + retries);
-        }
-        return retries == evaluationRetries() ? this : new RetriedModelSource(this, retries);
-    }
 }

@@ -36,8 +36,7 @@ package org.skerry.engine.model;
  * </ul>
  *
  * <p>A model that wraps another model must implement this interface itself and forward it, or
- * the capability is lost. Wrapping the model's source, as
- * {@link ModelSource#withEvaluationRetries(int)} does, keeps it: the source builds the same model.
+ * the capability is lost. Evaluation retries are the engine's, not a wrapper's, so they keep it.
  */
 public interface ObservationLikelihood extends Model {
 

@@ -78,11 +78,11 @@ class ObservationLikelihoodTest {
     }
 
     @Test
-    @DisplayName("the capability is found on a model, also on the model a source with retries builds")
+    @DisplayName("the capability is found on a model, also on the model a source builds")
     void foundThroughSources() {
         NormalMeanModel model = NormalMeanModel.of(new double[][] {{1.0}, {2.0}}, 1.0, 0.0, 1.0);
         assertSame(model, ObservationLikelihood.of(model));
-        Model built = ModelSource.local(model).withEvaluationRetries(3).create();
+        Model built = ModelSource.local(model).create();
         assertSame(model, ObservationLikelihood.of(built));
     }
 

@@ -3,7 +3,6 @@ package org.skerry.engine.population.block;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
-import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
 import java.util.List;
@@ -12,7 +11,6 @@ import org.junit.jupiter.api.Test;
 import org.skerry.engine.model.BatchedModel;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.Model;
-import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.model.prior.IndependentPrior;
@@ -152,22 +150,5 @@ class LikelihoodEvaluatorTest {
         assertEquals(2, fallBack.evaluations());
         assertEquals(0, fallBack.invalid());
         assertEquals(0, fallBack.retried(), "a single call after a failed batch is a first attempt");
-    }
-
-    @Test
-    @DisplayName("a source with retries keeps its model and id; setting retries again replaces them")
-    void sourceWithRetries() {
-        Recording model = new Recording(0);
-        ModelSource local = ModelSource.local(model);
-        assertEquals(0, local.evaluationRetries());
-        assertTrue(local.withEvaluationRetries(0) == local);
-        ModelSource retried = local.withEvaluationRetries(3);
-        assertEquals(3, retried.evaluationRetries());
-        assertEquals(local.id(), retried.id());
-        assertTrue(retried.create() == model);
-        assertEquals(false, retried.isPortable());
-        assertEquals(1, retried.withEvaluationRetries(1).evaluationRetries());
-        assertTrue(retried.withEvaluationRetries(0) == local);
-        assertThrows(IllegalArgumentException.class, () -> local.withEvaluationRetries(-2));
     }
 }
