@@ -69,12 +69,7 @@ final class SparkBlocks implements BlockExecutor {
         Broadcast<ModelShipment> model = source;
         JavaRDD<PartitionState<?>> next = context.parallelize(runs, runs.size()).mapPartitionsWithIndex((p, it) -> {
             long[] run = it.next();
-            int count = (int) run[1];
-            ParticleBlock block = new ParticleBlock(d, count);
-            block.resize(count);
-            for (int i = 0; i < count; i++) {
-                block.index()[i] = run[0] + i;
-            }
+            ParticleBlock block = ParticleBlock.indexed(d, run[0], (int) run[1]);
             return List.<PartitionState<?>>of(applyTo(p, block, true, step, model)).iterator();
         }, true);
         partitions = runs.size();

@@ -62,6 +62,19 @@ public final class ParticleBlock {
         this.eve = eve;
     }
 
+    /**
+     * A block of {@code count} particles with global indices {@code firstIndex …
+     * firstIndex+count−1} and every other value zero, ready for an initial draw.
+     */
+    public static ParticleBlock indexed(int dimension, long firstIndex, int count) {
+        ParticleBlock block = new ParticleBlock(dimension, count);
+        block.resize(count);
+        for (int i = 0; i < count; i++) {
+            block.index[i] = firstIndex + i;
+        }
+        return block;
+    }
+
     public int dimension() {
         return dimension;
     }

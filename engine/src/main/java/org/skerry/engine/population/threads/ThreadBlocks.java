@@ -41,12 +41,7 @@ final class ThreadBlocks implements BlockExecutor {
     public <R> List<R> create(long[] first, int[] sizes, BlockStep<R> step) {
         List<ParticleBlock> made = new ArrayList<>(sizes.length);
         for (int b = 0; b < sizes.length; b++) {
-            ParticleBlock block = new ParticleBlock(model.dimension(), sizes[b]);
-            block.resize(sizes[b]);
-            for (int i = 0; i < sizes[b]; i++) {
-                block.index()[i] = first[b] + i;
-            }
-            made.add(block);
+            made.add(ParticleBlock.indexed(model.dimension(), first[b], sizes[b]));
         }
         blocks = made;
         return update(step);
