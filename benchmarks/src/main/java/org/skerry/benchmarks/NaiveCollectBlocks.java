@@ -11,7 +11,7 @@ import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.particle.ParticleBlock;
-import org.skerry.engine.population.BlockCursor;
+import org.skerry.engine.population.BlockSlot;
 import org.skerry.engine.population.BlockExecutor;
 import org.skerry.engine.population.BlockStep;
 import org.skerry.engine.population.BlockStore;
@@ -70,11 +70,12 @@ final class NaiveCollectBlocks implements BlockExecutor {
         List<ParticleBlock> next = new ArrayList<>(blocks.size());
         List<R> results = new ArrayList<>(blocks.size());
         try {
-            for (int b = 0; b < blocks.size(); b++) {
-                Cursor cursor = new Cursor(b, blocks.get(b).copy(), driverModel);
-                results.add(step.apply(cursor));
-                next.add(cursor.block);
+            ParticleBlock[] copies = new ParticleBlock[blocks.size()];
+            for (int b = 0; b < copies.length; b++) {
+                copies[b] = blocks.get(b).copy();
+                results.add(step.apply(new BlockSlot(b, copies, driverModel, false)));
             }
+            next.addAll(List.of(copies));
             blocks = next;
             return results;
         } catch (NeedsExecutors e) {
@@ -92,9 +93,11 @@ final class NaiveCollectBlocks implements BlockExecutor {
         ModelSource shipped = source;
         List<Object[]> back = context.parallelize(numbered, numbered.size()).map(pair -> {
             Model model = MODELS.computeIfAbsent(shipped.id(), id -> shipped.create());
-            Cursor cursor = new Cursor(pair._1(), pair._2(), model);
-            Object result = step.apply(cursor);
-            return new Object[] {cursor.block, result};
+            int number = pair._1();
+            ParticleBlock[] slots = new ParticleBlock[number + 1];
+            slots[number] = pair._2();
+            Object result = step.apply(new BlockSlot(number, slots, model, false));
+            return new Object[] {slots[number], result};
         }).collect();
         List<ParticleBlock> next = new ArrayList<>(back.size());
         List<R> results = new ArrayList<>(back.size());
@@ -109,8 +112,9 @@ final class NaiveCollectBlocks implements BlockExecutor {
     @Override
     public <R> List<R> read(BlockStep<R> query) {
         List<R> results = new ArrayList<>(blocks.size());
-        for (int b = 0; b < blocks.size(); b++) {
-            results.add(query.apply(new Cursor(b, blocks.get(b), driverModel)));
+        ParticleBlock[] current = blocks.toArray(new ParticleBlock[0]);
+        for (int b = 0; b < current.length; b++) {
+            results.add(query.apply(new BlockSlot(b, current, driverModel, true)));
         }
         return results;
     }
@@ -138,44 +142,6 @@ final class NaiveCollectBlocks implements BlockExecutor {
     @Override
     public void close() {
         blocks = new ArrayList<>();
-    }
-
-    /** A block for a step: the step works on a block of its own, so a refused step changes nothing. */
-    private static final class Cursor implements BlockCursor {
-        private final int number;
-        private final Model model;
-        private ParticleBlock block;
-
-        Cursor(int number, ParticleBlock block, Model model) {
-            this.number = number;
-            this.block = block;
-            this.model = model;
-        }
-
-        @Override
-        public int number() {
-            return number;
-        }
-
-        @Override
-        public ParticleBlock current() {
-            return block;
-        }
-
-        @Override
-        public ParticleBlock block() {
-            return block;
-        }
-
-        @Override
-        public void replace(ParticleBlock replacement) {
-            block = replacement;
-        }
-
-        @Override
-        public Model model() {
-            return model;
-        }
     }
 
     /** Thrown (an Error, so no evaluator counts it as a failed evaluation) when a driver step calls the likelihood. */

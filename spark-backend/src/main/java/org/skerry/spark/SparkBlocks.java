@@ -203,7 +203,7 @@ final class SparkBlocks implements BlockExecutor {
         dropReplaced();
         int d = dimension;
         String location = store.location();
-        long[] first = firstIndices(stored);
+        long[] first = StoredBlock.firstIndices(stored);
         define(fromFiles(stored, (number, block) -> BlockReading.read(store, block, first[number], d)).map(state -> {
             if (state.report != null) {
                 throw new java.io.UncheckedIOException(new java.io.IOException("the checkpoint just written to "
@@ -214,16 +214,6 @@ final class SparkBlocks implements BlockExecutor {
         dropReplaced();
         partitions = stored.size();
         return stored;
-    }
-
-    private static long[] firstIndices(List<StoredBlock> stored) {
-        long[] first = new long[stored.size()];
-        long running = 0;
-        for (int b = 0; b < stored.size(); b++) {
-            first[b] = running;
-            running += stored.get(b).particles();
-        }
-        return first;
     }
 
     @Override

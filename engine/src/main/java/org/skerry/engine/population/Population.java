@@ -339,12 +339,8 @@ public final class Population implements AutoCloseable {
      *         unchanged
      */
     public List<String> readBlocks(BlockStore store, List<StoredBlock> stored) {
-        long[] first = new long[stored.size()];
-        long running = 0;
-        for (int b = 0; b < stored.size(); b++) {
-            first[b] = running;
-            running += stored.get(b).particles();
-        }
+        long[] first = StoredBlock.firstIndices(stored);
+        long running = stored.isEmpty() ? 0 : first[stored.size() - 1] + stored.get(stored.size() - 1).particles();
         if (running != size) {
             return List.of("the checkpoint's blocks hold " + running + " particles; the run has " + size);
         }

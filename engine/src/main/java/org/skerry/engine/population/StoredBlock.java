@@ -43,6 +43,17 @@ public final class StoredBlock implements Serializable {
         this.particles = particles;
     }
 
+    /** The global index of each block's first particle: the particle counts of the blocks before it. */
+    public static long[] firstIndices(java.util.List<StoredBlock> blocks) {
+        long[] first = new long[blocks.size()];
+        long running = 0;
+        for (int b = 0; b < blocks.size(); b++) {
+            first[b] = running;
+            running += blocks.get(b).particles();
+        }
+        return first;
+    }
+
     public int block() {
         return block;
     }

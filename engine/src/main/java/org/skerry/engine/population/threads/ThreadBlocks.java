@@ -7,8 +7,8 @@ import java.util.List;
 import java.util.function.Consumer;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.particle.ParticleBlock;
-import org.skerry.engine.population.BlockCursor;
 import org.skerry.engine.population.BlockExecutor;
+import org.skerry.engine.population.BlockSlot;
 import org.skerry.engine.population.BlockStep;
 import org.skerry.engine.population.BlockStore;
 import org.skerry.engine.population.StoredBlock;
@@ -51,7 +51,7 @@ final class ThreadBlocks implements BlockExecutor {
     public <R> List<R> update(BlockStep<R> step) {
         List<ParticleBlock> current = blocks;
         ParticleBlock[] next = current.toArray(new ParticleBlock[0]);
-        List<R> results = backend.map(numbers(current.size()), b -> step.apply(new Cursor(b, next)));
+        List<R> results = backend.map(numbers(current.size()), b -> step.apply(new BlockSlot(b, next, model, false)));
         blocks = new ArrayList<>(List.of(next));
         return results;
     }
@@ -59,7 +59,7 @@ final class ThreadBlocks implements BlockExecutor {
     @Override
     public <R> List<R> read(BlockStep<R> query) {
         ParticleBlock[] current = blocks.toArray(new ParticleBlock[0]);
-        return backend.map(numbers(current.length), b -> query.apply(new ReadOnlyCursor(b, current)));
+        return backend.map(numbers(current.length), b -> query.apply(new BlockSlot(b, current, model, true)));
     }
 
     @Override
@@ -112,77 +112,5 @@ final class ThreadBlocks implements BlockExecutor {
             numbers.add(b);
         }
         return numbers;
-    }
-
-    /** A block changed in place; a replacement goes into the next list of blocks. */
-    private final class Cursor implements BlockCursor {
-        private final int number;
-        private final ParticleBlock[] blocks;
-
-        Cursor(int number, ParticleBlock[] blocks) {
-            this.number = number;
-            this.blocks = blocks;
-        }
-
-        @Override
-        public int number() {
-            return number;
-        }
-
-        @Override
-        public ParticleBlock current() {
-            return blocks[number];
-        }
-
-        @Override
-        public ParticleBlock block() {
-            return blocks[number];
-        }
-
-        @Override
-        public void replace(ParticleBlock replacement) {
-            blocks[number] = replacement;
-        }
-
-        @Override
-        public Model model() {
-            return model;
-        }
-    }
-
-    /** A block for a query, which must not change it. */
-    private final class ReadOnlyCursor implements BlockCursor {
-        private final int number;
-        private final ParticleBlock[] blocks;
-
-        ReadOnlyCursor(int number, ParticleBlock[] blocks) {
-            this.number = number;
-            this.blocks = blocks;
-        }
-
-        @Override
-        public int number() {
-            return number;
-        }
-
-        @Override
-        public ParticleBlock current() {
-            return blocks[number];
-        }
-
-        @Override
-        public ParticleBlock block() {
-            throw new IllegalStateException("a query must not change block " + number);
-        }
-
-        @Override
-        public void replace(ParticleBlock replacement) {
-            throw new IllegalStateException("a query must not replace block " + number);
-        }
-
-        @Override
-        public Model model() {
-            return model;
-        }
     }
 }
