@@ -34,6 +34,7 @@ import org.skerry.cli.progress.BatchProgress;
 import org.skerry.cli.runfile.BatchSpec;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.runfile.OutputSpec;
 import org.skerry.cli.stop.StopRules;
 import org.skerry.cli.stop.TerminationSignal;
 import org.skerry.engine.population.PopulationBackend;
@@ -154,7 +155,7 @@ public final class BatchRunner {
                                 + "last checkpoints; the work since is lost and will be done again. Continue by running "
                                 + "the same skerry batch command again");
                 Backends.Opened opened = Backends.open(first.run(), spec.folder(), Map.of("spark.scheduler.mode", "FAIR"));
-                BatchProgress progress = new BatchProgress(spec.progress() == RunSpec.Progress.OFF
+                BatchProgress progress = new BatchProgress(spec.progress() == OutputSpec.Progress.OFF
                         ? new PrintWriter(Writer.nullWriter()) : progressOut, interactive(), toRun.size(), kept,
                         Clock.systemUTC())) {
             signal = batchSignal;
