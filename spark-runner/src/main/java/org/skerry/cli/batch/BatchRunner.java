@@ -150,7 +150,7 @@ public final class BatchRunner {
         // submitted job take every core until it ends (Spark's default, FIFO).
         // One handler for the whole batch: on SIGTERM or Ctrl-C every running analysis stops at its next
         // iteration boundary on a checkpoint, and no waiting analysis starts.
-        try (TerminationSignal batchSignal = TerminationSignal.install(first.run().stopGraceSeconds(), progressOut,
+        try (TerminationSignal batchSignal = TerminationSignal.install(first.run().limits().stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> "The running analyses stop on their "
                                 + "last checkpoints; the work since is lost and will be done again. Continue by running "
                                 + "the same skerry batch command again");

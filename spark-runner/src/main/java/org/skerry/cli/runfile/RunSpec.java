@@ -1,8 +1,5 @@
 package org.skerry.cli.runfile;
 
-import java.nio.file.Path;
-import java.util.List;
-import java.util.Map;
 import java.util.Objects;
 import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.settings.SettingsException;
@@ -66,103 +63,5 @@ public record RunSpec(RunFile file, String name, ModelSpec model, SamplerSetting
         CheckpointSpec checkpoints = CheckpointSpec.read(r);
         LimitSpec limits = LimitSpec.read(r);
         return new RunSpec(file, name, model, sampler, backend, outputs, checkpoints, limits);
-    }
-
-    // Flat accessors kept while callers move to the groups.
-
-    public String modelName() {
-        return model.name();
-    }
-
-    public String modelClass() {
-        return model.className();
-    }
-
-    public String modelLabel() {
-        return model.label();
-    }
-
-    public com.typesafe.config.Config modelSettings() {
-        return model.settings();
-    }
-
-    public Path dataFile() {
-        return model.dataFile();
-    }
-
-    public com.typesafe.config.Config inlineData() {
-        return model.inlineData();
-    }
-
-    public Map<String, String> columnBindings() {
-        return model.columnBindings();
-    }
-
-    public String backendKind() {
-        return backend.kind();
-    }
-
-    public String master() {
-        return backend.master();
-    }
-
-    public int partitions() {
-        return backend.partitions();
-    }
-
-    public Map<String, String> sparkSettings() {
-        return backend.sparkSettings();
-    }
-
-    public List<String> jars() {
-        return backend.jars();
-    }
-
-    public int connectTimeoutSeconds() {
-        return backend.connectTimeoutSeconds();
-    }
-
-    public int threads() {
-        return backend.threads();
-    }
-
-    public int blockSize() {
-        return backend.blockSize();
-    }
-
-    public Path outputFolder() {
-        return outputs.folder();
-    }
-
-    public OutputSpec.Progress progress() {
-        return outputs.progress();
-    }
-
-    public boolean checkpointEnabled() {
-        return checkpoints.enabled();
-    }
-
-    public String checkpointPath() {
-        return checkpoints.path();
-    }
-
-    public int checkpointEveryIterations() {
-        return checkpoints.everyIterations();
-    }
-
-    public double checkpointEveryMinutes() {
-        return checkpoints.everyMinutes();
-    }
-
-    public int checkpointKeep() {
-        return checkpoints.keep();
-    }
-
-    public java.time.Duration maxWallTime() {
-        return limits.maxWallTime();
-    }
-
-    public int stopGraceSeconds() {
-        return limits.stopGraceSeconds();
     }
 }
