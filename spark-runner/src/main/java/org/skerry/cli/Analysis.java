@@ -96,7 +96,8 @@ public final class Analysis {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         checkParameterNames(spec, built);
         Instant started = Instant.now();
-        Path runFolder = folder != null ? folder : spec.outputFolder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
+        Path runFolder = folder != null ? folder
+                : spec.outputs().folder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
         Path created = firstMissing(runFolder);
         prepare(runFolder);
         try {
@@ -127,7 +128,7 @@ public final class Analysis {
      */
     private static void removeUnstarted(RunSpec spec, Path runFolder, Path created) {
         try {
-            if (!new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep()).list().isEmpty()) {
+            if (!new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpoints().keep()).list().isEmpty()) {
                 return;
             }
         } catch (IOException | RuntimeException e) {
@@ -199,7 +200,7 @@ public final class Analysis {
         try {
             ParticlesCsv.checkParameterNames(built.model().parameters().names());
         } catch (IllegalArgumentException e) {
-            throw new RunFileException("model " + spec.modelLabel() + ": " + e.getMessage(), e);
+            throw new RunFileException("model " + spec.model().label() + ": " + e.getMessage(), e);
         }
     }
 
@@ -226,10 +227,10 @@ public final class Analysis {
     /** The settings as saved in run.conf: paths made absolute, so the run folder works from anywhere. */
     private static RunFile forRunFolder(RunSpec spec) {
         RunFile file = spec.file();
-        if (spec.dataFile() != null) {
-            file = file.withValue("data.file", spec.dataFile().toString());
+        if (spec.model().dataFile() != null) {
+            file = file.withValue("data.file", spec.model().dataFile().toString());
         }
-        String checkpoints = spec.checkpointPath();
+        String checkpoints = spec.checkpoints().path();
         if (checkpoints != null && new org.apache.hadoop.fs.Path(checkpoints).toUri().getScheme() == null) {
             file = file.withValue("checkpoint.path", Path.of(checkpoints).toAbsolutePath().normalize().toString());
         }
@@ -238,14 +239,14 @@ public final class Analysis {
 
     /** The checkpoint root: checkpoint.path, or the run folder's checkpoints/. */
     static CheckpointFileSystem checkpointFiles(RunSpec spec, Path runFolder) {
-        String root = spec.checkpointPath();
+        String root = spec.checkpoints().path();
         if (root == null) {
             root = runFolder.resolve("checkpoints").toAbsolutePath().normalize().toUri().toString();
         } else if (new org.apache.hadoop.fs.Path(root).toUri().getScheme() == null) {
             root = Path.of(root).toAbsolutePath().normalize().toUri().toString();
         }
         Map<String, String> hadoop = new TreeMap<>();
-        spec.sparkSettings().forEach((key, value) -> {
+        spec.backend().sparkSettings().forEach((key, value) -> {
             if (key.startsWith("spark.hadoop.")) {
                 hadoop.put(key.substring("spark.hadoop.".length()), value);
             }
@@ -256,7 +257,7 @@ public final class Analysis {
     private static Outcome execute(Job job, PrintWriter progressOut, IterationListener observer) {
         RunSpec spec = job.spec();
         Path runFolder = job.runFolder();
-        try (TerminationSignal signal = TerminationSignal.install(spec.stopGraceSeconds(), progressOut,
+        try (TerminationSignal signal = TerminationSignal.install(spec.limits().stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> whatIsKept(spec, runFolder));
                 Backends.Opened opened = Backends.open(spec, runFolder);
                 ProgressDisplay progress = announced(progress(spec, progressOut,
@@ -268,7 +269,7 @@ public final class Analysis {
                 observer.iterationFinished(record);
             };
             try {
-                return core(job, opened.backend, listener, new StopRules(signal, spec.maxWallTime(), job.startNanos()),
+                return core(job, opened.backend, listener, new StopRules(signal, spec.limits().maxWallTime(), job.startNanos()),
                         progressOut);
             } finally {
                 signal.runEnded();
@@ -278,8 +279,8 @@ public final class Analysis {
 
     /** For an abandoned run: the checkpoint it stops on, what is lost, and how to continue. */
     private static String whatIsKept(RunSpec spec, Path runFolder) {
-        int last = spec.checkpointEnabled()
-                ? new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep()).newestComplete() : -1;
+        int last = spec.checkpoints().enabled()
+                ? new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpoints().keep()).newestComplete() : -1;
         return (last >= 0 ? "The run stops on the checkpoint of iteration " + last
                 + "; the work since is lost and will be done again"
                 : "No checkpoint was written yet; the run will start again from the beginning")
@@ -319,7 +320,7 @@ public final class Analysis {
         RunSpec spec = job.spec();
         ModelBuilder.Built built = job.built();
         Path runFolder = job.runFolder();
-        CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpointKeep());
+        CheckpointFolder checkpoints = new CheckpointFolder(checkpointFiles(spec, runFolder), spec.checkpoints().keep());
         if (job.start() == Start.FROM_CHECKPOINT && !hasCheckpoints(checkpoints)) {
             // Stopped before its first checkpoint: nothing is lost by starting again, and the seed
             // makes it the same run.
@@ -328,11 +329,11 @@ public final class Analysis {
             job = job.afresh();
         }
         SortedMap<String, String> answer = AnswerSettings.of(spec);
-        if (spec.checkpointEnabled()) {
+        if (spec.checkpoints().enabled()) {
             checkVisible(backend, checkpoints);
         }
-        Checkpointer checkpointer = spec.checkpointEnabled()
-                ? new FileCheckpointer(checkpoints, spec.checkpointEveryIterations(), spec.checkpointEveryMinutes(),
+        Checkpointer checkpointer = spec.checkpoints().enabled()
+                ? new FileCheckpointer(checkpoints, spec.checkpoints().everyIterations(), spec.checkpoints().everyMinutes(),
                         answer, state -> RunOutputs.writeIterations(runFolder, state.records()))
                 : Checkpointer.NONE;
         SmcSampler sampler = new SmcSampler(spec.sampler());
@@ -376,7 +377,7 @@ public final class Analysis {
         }
         double wall = (System.nanoTime() - job.startNanos()) * 1e-9;
         try {
-            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.modelLabel(), spec.sampler().population().seed(),
+            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.model().label(), spec.sampler().population().seed(),
                     built.model().parameters().names(), result, wall, job.started(), backend.description()));
         } catch (java.io.UncheckedIOException e) {
             throw outputFailed(e, checkpoints, runFolder);
@@ -424,7 +425,7 @@ public final class Analysis {
      */
     private static ProgressDisplay announced(ProgressDisplay progress, RunSpec spec, Path runFolder, boolean resume) {
         if (progress != null) {
-            progress.announce((resume ? "continuing " : "running ") + spec.name() + ": model " + spec.modelLabel()
+            progress.announce((resume ? "continuing " : "running ") + spec.name() + ": model " + spec.model().label()
                     + ", " + spec.sampler().population().particles() + " particles, seed " + spec.sampler().population().seed() + "; run folder "
                     + runFolder);
         }
@@ -433,7 +434,7 @@ public final class Analysis {
 
     private static ProgressDisplay progress(RunSpec spec, PrintWriter out, List<String> names) {
         boolean terminal = System.console() != null;
-        switch (spec.progress()) {
+        switch (spec.outputs().progress()) {
             case OFF:
                 return null;
             case LIVE:

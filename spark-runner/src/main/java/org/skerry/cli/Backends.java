@@ -13,6 +13,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.function.Supplier;
 import java.util.stream.Stream;
+import org.skerry.cli.runfile.BackendSpec;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
 import org.skerry.cli.runfile.SparkMasters;
@@ -66,19 +67,20 @@ public final class Backends {
      * adds its fair scheduler here).
      */
     public static Opened open(RunSpec spec, Path runFolder, Map<String, String> sparkDefaults) {
-        if (spec.backendKind().equals("threads")) {
-            int threads = spec.threads() == 0 ? Runtime.getRuntime().availableProcessors() : spec.threads();
-            return new Opened(new ThreadPoolBackend(threads, spec.blockSize()), null);
+        BackendSpec backend = spec.backend();
+        if (backend.kind().equals("threads")) {
+            int threads = backend.threads() == 0 ? Runtime.getRuntime().availableProcessors() : backend.threads();
+            return new Opened(new ThreadPoolBackend(threads, backend.blockSize()), null);
         }
-        String master = spec.master();
+        String master = backend.master();
         if (master.startsWith("spark://")) {
-            checkReachable(master, spec.connectTimeoutSeconds());
+            checkReachable(master, backend.connectTimeoutSeconds());
         }
         Path scratch = runFolder.resolve(".spark-scratch");
         Map<String, String> settings = new LinkedHashMap<>();
         settings.put("spark.local.dir", scratch.toAbsolutePath().toString());
         List<String> jars = new ArrayList<>(shippedJars());
-        jars.addAll(spec.jars());
+        jars.addAll(backend.jars());
         if (SparkMasters.isInProcess(master)) {
             // Everything stays in this process: bind to loopback rather than the first interface.
             settings.put("spark.driver.host", "127.0.0.1");
@@ -87,10 +89,10 @@ public final class Backends {
             settings.put("spark.jars", String.join(",", jars));
         }
         settings.putAll(sparkDefaults);
-        settings.putAll(spec.sparkSettings());
+        settings.putAll(backend.sparkSettings());
         try {
             Files.createDirectories(scratch);
-            Supplier<SparkBackend> start = () -> SparkBackend.start(master, "skerry " + spec.name(), spec.partitions(),
+            Supplier<SparkBackend> start = () -> SparkBackend.start(master, "skerry " + spec.name(), backend.partitions(),
                     settings);
             return new Opened(master.startsWith("local") ? withoutLoopbackWarning(start) : start.get(), scratch);
         } catch (IOException e) {

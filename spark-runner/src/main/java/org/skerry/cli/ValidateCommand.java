@@ -34,7 +34,7 @@ final class ValidateCommand implements Callable<Integer> {
         ModelBuilder.Built built = ModelBuilder.build(run);
         PrintWriter out = spec.commandLine().getOut();
         out.println(file + ": ok");
-        out.println("  model:      " + run.modelLabel() + " with parameters " + built.model().parameters().names());
+        out.println("  model:      " + run.model().label() + " with parameters " + built.model().parameters().names());
         out.println("  data:       " + (built.data() == null ? "none"
                 : built.data().rowCount() + " rows from " + built.data().source()));
         out.println("  particles:  " + run.sampler().population().particles() + ", seed " + run.sampler().population().seed());

@@ -34,6 +34,7 @@ import org.skerry.cli.progress.BatchProgress;
 import org.skerry.cli.runfile.BatchSpec;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.cli.runfile.OutputSpec;
 import org.skerry.cli.stop.StopRules;
 import org.skerry.cli.stop.TerminationSignal;
 import org.skerry.engine.population.PopulationBackend;
@@ -149,12 +150,12 @@ public final class BatchRunner {
         // submitted job take every core until it ends (Spark's default, FIFO).
         // One handler for the whole batch: on SIGTERM or Ctrl-C every running analysis stops at its next
         // iteration boundary on a checkpoint, and no waiting analysis starts.
-        try (TerminationSignal batchSignal = TerminationSignal.install(first.run().stopGraceSeconds(), progressOut,
+        try (TerminationSignal batchSignal = TerminationSignal.install(first.run().limits().stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> "The running analyses stop on their "
                                 + "last checkpoints; the work since is lost and will be done again. Continue by running "
                                 + "the same skerry batch command again");
                 Backends.Opened opened = Backends.open(first.run(), spec.folder(), Map.of("spark.scheduler.mode", "FAIR"));
-                BatchProgress progress = new BatchProgress(spec.progress() == RunSpec.Progress.OFF
+                BatchProgress progress = new BatchProgress(spec.progress() == OutputSpec.Progress.OFF
                         ? new PrintWriter(Writer.nullWriter()) : progressOut, interactive(), toRun.size(), kept,
                         Clock.systemUTC())) {
             signal = batchSignal;

@@ -49,8 +49,8 @@ public final class AnswerSettings {
             }
             settings.put(key, entry.getValue().render(com.typesafe.config.ConfigRenderOptions.concise()));
         }
-        if (spec.dataFile() != null) {
-            settings.put("data.file", "sha256:" + sha256(spec.dataFile()));
+        if (spec.model().dataFile() != null) {
+            settings.put("data.file", "sha256:" + sha256(spec.model().dataFile()));
         }
         return settings;
     }

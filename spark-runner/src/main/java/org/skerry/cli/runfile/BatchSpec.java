@@ -65,7 +65,7 @@ public final class BatchSpec {
     private final long seed;
     private final int concurrent;
     private final Path folder;
-    private final RunSpec.Progress progress;
+    private final OutputSpec.Progress progress;
     private final List<Planned> analyses;
 
     private BatchSpec(Path file, Config config, Path folderOverride) {
@@ -93,7 +93,7 @@ public final class BatchSpec {
             throw r.error("folder", "must name the batch folder");
         }
         this.folder = folderOverride != null ? folderOverride : Path.of(folderName);
-        this.progress = RunSpec.Progress.valueOf(r.choice("progress", List.of("auto", "live", "log", "off"))
+        this.progress = OutputSpec.Progress.valueOf(r.choice("progress", List.of("auto", "live", "log", "off"))
                 .toUpperCase(Locale.ROOT));
         List<Planned> planned = new ArrayList<>();
         for (Dataset dataset : datasets) {
@@ -329,7 +329,7 @@ public final class BatchSpec {
         return folder;
     }
 
-    public RunSpec.Progress progress() {
+    public OutputSpec.Progress progress() {
         return progress;
     }
 

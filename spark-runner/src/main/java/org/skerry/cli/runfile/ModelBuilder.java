@@ -44,18 +44,19 @@ public final class ModelBuilder {
         DataTable data = readData(spec);
         Map<String, double[]> columns = bind(spec, data);
         String dataSource = data == null ? "the run file (no data)" : data.source();
-        if (spec.modelName() != null) {
-            ModelFactory factory = ModelCatalog.load().find(spec.modelName()).orElseThrow(() -> new RunFileException(
-                    where(spec, "model.name") + ": unknown model '" + spec.modelName() + "'; built-in models: "
-                            + names() + suggestion(spec.modelName())));
+        ModelSpec chosen = spec.model();
+        if (chosen.name() != null) {
+            ModelFactory factory = ModelCatalog.load().find(chosen.name()).orElseThrow(() -> new RunFileException(
+                    where(spec, "model.name") + ": unknown model '" + chosen.name() + "'; built-in models: "
+                            + names() + suggestion(chosen.name())));
             checkModelKeys(spec, factory);
         }
-        SettingsModelSource source = new SettingsModelSource(spec.modelName(), spec.modelClass(),
-                spec.modelSettings(), MODEL_SETTINGS, columns, dataSource);
+        SettingsModelSource source = new SettingsModelSource(chosen.name(), chosen.className(),
+                chosen.settings(), MODEL_SETTINGS, columns, dataSource);
         Model model;
-        ModelSettings settings = ModelSettings.of(spec.modelSettings(), MODEL_SETTINGS, columns, dataSource);
+        ModelSettings settings = ModelSettings.of(chosen.settings(), MODEL_SETTINGS, columns, dataSource);
         try {
-            model = ModelCreator.create(spec.modelName(), spec.modelClass(), settings, where(spec, "model.class"));
+            model = ModelCreator.create(chosen.name(), chosen.className(), settings, where(spec, "model.class"));
         } catch (ModelNotCreatedException e) {
             throw new RunFileException(e.getMessage(), e);
         } catch (IllegalArgumentException e) {
@@ -63,7 +64,7 @@ public final class ModelBuilder {
             // user never wrote: name the run file instead.
             String message = String.valueOf(e.getMessage()).replaceFirst("^reference\\.conf(: line \\d+)?(?=: |, )",
                     java.util.regex.Matcher.quoteReplacement(RunFile.shorten(spec.file().path()).toString()));
-            throw new RunFileException("model " + spec.modelLabel() + ": " + message, e);
+            throw new RunFileException("model " + chosen.label() + ": " + message, e);
         }
         checkBindingsRead(spec, settings.rolesRead());
         checkSequence(spec, model);
@@ -75,7 +76,7 @@ public final class ModelBuilder {
         if (spec.sampler().targets().kind() == SequenceSettings.Kind.DATA_TEMPERING
                 && !(model instanceof ObservationLikelihood)) {
             throw new RunFileException(where(spec, "sampler.sequence") + ": sampler.sequence = data-tempering needs a "
-                    + "model whose likelihood is a sum over observations; model " + spec.modelLabel()
+                    + "model whose likelihood is a sum over observations; model " + spec.model().label()
                     + " gives none per observation range (use likelihood-tempering)");
         }
     }
@@ -85,17 +86,17 @@ public final class ModelBuilder {
      * would otherwise leave the column unused while the model reads another (or none).
      */
     private static void checkBindingsRead(RunSpec spec, java.util.Set<String> read) {
-        for (Map.Entry<String, String> binding : spec.columnBindings().entrySet()) {
+        for (Map.Entry<String, String> binding : spec.model().columnBindings().entrySet()) {
             String role = binding.getKey();
             if (read.contains(role)) {
                 continue;
             }
             String closest = KeySuggestion.closest(role, read);
             throw new RunFileException(where(spec, "data.columns." + role) + ": data.columns." + role + " = \""
-                    + binding.getValue() + "\": model " + spec.modelLabel() + " reads no data role '" + role + "'"
+                    + binding.getValue() + "\": model " + spec.model().label() + " reads no data role '" + role + "'"
                     + (closest == null ? "" : " — did you mean '" + closest + "'?")
                     + (read.isEmpty() ? " (it reads no data" : " (the roles it read: " + String.join(", ", read))
-                    + (spec.modelName() != null ? "; `skerry models` lists each model's roles)" : ")"));
+                    + (spec.model().name() != null ? "; `skerry models` lists each model's roles)" : ")"));
         }
     }
 
@@ -116,10 +117,10 @@ public final class ModelBuilder {
 
     private static DataTable readData(RunSpec spec) {
         try {
-            if (spec.dataFile() != null) {
-                return CsvDataReader.read(spec.dataFile());
+            if (spec.model().dataFile() != null) {
+                return CsvDataReader.read(spec.model().dataFile());
             }
-            if (spec.inlineData() != null) {
+            if (spec.model().inlineData() != null) {
                 return inline(spec);
             }
             return null;
@@ -129,7 +130,7 @@ public final class ModelBuilder {
     }
 
     private static DataTable inline(RunSpec spec) {
-        Config inline = spec.inlineData();
+        Config inline = spec.model().inlineData();
         String where = RunFile.describe(inline.origin());
         List<String> columns;
         List<?> rows;
@@ -175,7 +176,7 @@ public final class ModelBuilder {
     private static Map<String, double[]> bind(RunSpec spec, DataTable data) {
         Map<String, double[]> columns = new LinkedHashMap<>();
         if (data == null) {
-            if (!spec.columnBindings().isEmpty()) {
+            if (!spec.model().columnBindings().isEmpty()) {
                 throw new RunFileException(where(spec, "data.columns") + ": data.columns binds roles but the run "
                         + "file has no data (set data.file or data.inline)");
             }
@@ -184,7 +185,7 @@ public final class ModelBuilder {
         for (String name : data.columns()) {
             columns.put(name, data.column(name));
         }
-        for (Map.Entry<String, String> binding : spec.columnBindings().entrySet()) {
+        for (Map.Entry<String, String> binding : spec.model().columnBindings().entrySet()) {
             if (!data.columns().contains(binding.getValue())) {
                 throw new RunFileException(where(spec, "data.columns." + binding.getKey()) + ": data.columns."
                         + binding.getKey() + " = \"" + binding.getValue() + "\": " + data.source()
@@ -202,7 +203,7 @@ public final class ModelBuilder {
             declared.add(description.key());
         }
         List<String> leaves = new ArrayList<>();
-        spec.modelSettings().entrySet().forEach(e -> leaves.add(e.getKey()));
+        spec.model().settings().entrySet().forEach(e -> leaves.add(e.getKey()));
         for (String key : leaves) {
             boolean known = false;
             for (String d : declared) {

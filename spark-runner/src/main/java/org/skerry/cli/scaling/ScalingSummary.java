@@ -57,7 +57,7 @@ final class ScalingSummary {
                 .append(" point(s). Machine: ").append(Runtime.getRuntime().availableProcessors())
                 .append(" cores available to the JVM; one-minute load average ")
                 .append(format(loadBefore)).append(" before the study and ").append(format(loadAfter)).append(" after");
-        boolean synthetic = study.points().stream().anyMatch(p -> "costly-normal".equals(p.spec().modelName()));
+        boolean synthetic = study.points().stream().anyMatch(p -> "costly-normal".equals(p.spec().model().name()));
         if (synthetic) {
             md.append("; busy-work calibration ").append(String.format(Locale.ROOT, "%.1f", BusyWork.unitsPerMicrosecond()))
                     .append(" work units per microsecond in this JVM (`SKERRY_JAVA_OPTS=-D").append(BusyWork.PROPERTY)

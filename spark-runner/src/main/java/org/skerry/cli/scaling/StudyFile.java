@@ -231,8 +231,8 @@ public final class StudyFile {
             }
             spec = loadPoint(layers, combination);
         }
-        if (spec.backendKind().equals("spark")) {
-            String listeners = spec.sparkSettings().get("spark.extraListeners");
+        if (spec.backend().kind().equals("spark")) {
+            String listeners = spec.backend().sparkSettings().get("spark.extraListeners");
             String ours = DriverTraffic.class.getName();
             add(overrides, layers, "backend.spark.\"spark.extraListeners\"=\""
                     + (listeners == null || listeners.isBlank() ? ours : listeners + "," + ours) + "\"",
@@ -250,10 +250,10 @@ public final class StudyFile {
 
     /** The settings that give a run {@code k} cores on its backend. */
     static List<String> coreOverrides(RunSpec spec, int k) {
-        if (spec.backendKind().equals("threads")) {
+        if (spec.backend().kind().equals("threads")) {
             return List.of("backend.threads=" + k);
         }
-        if (org.skerry.cli.runfile.SparkMasters.isInProcess(spec.master())) {
+        if (org.skerry.cli.runfile.SparkMasters.isInProcess(spec.backend().master())) {
             return List.of("backend.master=\"local[" + k + "]\"");
         }
         return List.of("backend.spark.\"spark.cores.max\"=" + k);

@@ -86,7 +86,7 @@ final class StudyRunner {
         DriverClock clock = new DriverClock();
         DriverTraffic.takeNewest();
         Analysis.Outcome outcome = Analysis.run(point.spec(), folder, progress, clock);
-        DriverTraffic traffic = point.spec().backendKind().equals("spark") ? DriverTraffic.takeNewest() : null;
+        DriverTraffic traffic = point.spec().backend().kind().equals("spark") ? DriverTraffic.takeNewest() : null;
         List<IterationRecord> records = outcome.result().iterations();
         long moved = 0;
         for (IterationRecord record : records) {

@@ -1,0 +1,35 @@
+package org.skerry.cli.runfile;
+
+import java.nio.file.Path;
+import java.util.List;
+import java.util.Locale;
+import java.util.Objects;
+import org.skerry.engine.settings.SettingsReader;
+
+/**
+ * Where a run's files go and how its progress is shown.
+ *
+ * @param folder   the folder the run folder is made in
+ * @param progress how progress is shown
+ */
+public record OutputSpec(Path folder, Progress progress) {
+
+    /** How progress is shown. */
+    public enum Progress { AUTO, LIVE, LOG, OFF }
+
+    public OutputSpec {
+        Objects.requireNonNull(folder, "folder");
+        Objects.requireNonNull(progress, "progress");
+    }
+
+    /** Reads and checks the {@code output} keys. */
+    static OutputSpec read(SettingsReader r) {
+        String folder = r.text("output.folder");
+        if (folder == null || folder.isBlank()) {
+            throw r.error("output.folder", "must name a folder");
+        }
+        Progress progress = Progress.valueOf(r.choice("output.progress", List.of("auto", "live", "log", "off"))
+                .toUpperCase(Locale.ROOT));
+        return new OutputSpec(Path.of(folder), progress);
+    }
+}
