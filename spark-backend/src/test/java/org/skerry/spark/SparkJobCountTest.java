@@ -18,6 +18,7 @@ import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.Slow;
 import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.population.Population;
 import org.skerry.engine.reference.SyntheticData;
@@ -41,6 +42,7 @@ import org.skerry.checkpoint.FileCheckpointer;
  * by a local property the test sets at the end of each iteration (it travels with the job's
  * submission, so the count does not depend on when the listener bus delivers the event).
  */
+@Slow
 class SparkJobCountTest {
 
     private static final String LABEL = "skerry.test.iteration";

@@ -16,6 +16,7 @@ import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.EnumSource;
+import org.skerry.engine.Slow;
 import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.builtin.NormalMeanModel;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
@@ -31,6 +32,7 @@ import org.skerry.engine.sampler.SmcSampler;
 import org.skerry.engine.target.SequenceSettings;
 
 /** The Spark backend in local mode against the thread backend, bit for bit, and against closed forms. */
+@Slow
 class SparkLocalModeTest {
 
     private static final double[][] DATA = SyntheticData.normalRows(41, 15, new double[] {0.8, -0.3}, 1.5);

@@ -23,6 +23,7 @@ import org.apache.commons.math3.stat.descriptive.SummaryStatistics;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.Slow;
 import org.skerry.engine.random.DerivedSeed;
 import org.skerry.engine.reference.NormalMeanExact;
 import org.skerry.engine.reference.SyntheticData;
@@ -75,6 +76,7 @@ class BatchCommandTest {
     }
 
     @Test
+    @Slow
     @DisplayName("conjugate batch: every row's log evidence and each dataset's log Bayes factor match the closed form "
             + "(Bishop PRML eq. 2.115; BDA3 §2.5) within 4 standard errors over 10 batch seeds")
     void conjugateEvidencePerRow() throws IOException {
@@ -138,6 +140,7 @@ class BatchCommandTest {
     }
 
     @Test
+    @Slow
     @DisplayName("Spark batch with a broken dataset: the others succeed, exit code 3, the broken one reported; "
             + "each analysis's run.conf alone gives the same bytes, on Spark and on threads")
     void brokenDatasetAndSingleRuns() throws IOException {
@@ -209,6 +212,7 @@ class BatchCommandTest {
     }
 
     @Test
+    @Slow
     @DisplayName("a resumed batch keeps finished analyses, re-runs the rest, and equals an uninterrupted one byte for "
             + "byte; a changed setting is refused, naming it")
     void resume() throws IOException {
@@ -266,6 +270,7 @@ class BatchCommandTest {
     }
 
     @Test
+    @Slow
     @DisplayName("SIGTERM during a batch: the running analysis stops at a checkpoint, exit 75; run again, it equals an uninterrupted batch")
     @SuppressWarnings("restriction")
     void terminatedAndResumed() throws Exception {

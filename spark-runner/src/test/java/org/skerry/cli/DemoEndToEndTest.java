@@ -12,6 +12,7 @@ import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.Slow;
 
 /** The demo through the real program, in a separate JVM, at small N. */
 class DemoEndToEndTest {
@@ -27,6 +28,7 @@ class DemoEndToEndTest {
     }
 
     @Test
+    @Slow
     @DisplayName("skerry demo at small N: both run folders hold all five files, and the Bayes factor is printed")
     void demoWritesEverything() throws Exception {
         Path out = folder.resolve("demo");
@@ -46,6 +48,7 @@ class DemoEndToEndTest {
     }
 
     @Test
+    @Slow
     @DisplayName("the program's exit code for bad input is 2, from a separate JVM too")
     void exitCodeFromProcess() throws Exception {
         Path log = folder.resolve("log.txt");

@@ -21,6 +21,7 @@ import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 import org.skerry.cli.output.JsonTree;
+import org.skerry.engine.Slow;
 
 /**
  * Failing models through the command: what a user sees in iterations.csv, summary.json and the
@@ -161,6 +162,7 @@ class FailingModelRunTest {
     }
 
     @Test
+    @Slow
     @DisplayName("throwing, NaN and flaky failures with retries: Spark local mode gives threads' files bit for bit; "
             + "the retry hides the flaky failures")
     void sparkMatchesThreads() throws IOException {

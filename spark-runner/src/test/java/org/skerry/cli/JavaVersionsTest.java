@@ -25,6 +25,7 @@ import java.util.stream.Stream;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.Slow;
 
 /**
  * The answer is promised across JVMs: the same run file run by the program on each Java the README
@@ -51,6 +52,7 @@ class JavaVersionsTest {
     Path dir;
 
     @Test
+    @Slow
     @DisplayName("the same run file on Java 17 and Java 25, with checkpoints (the default), gives the same bytes")
     void sameBytesOnEveryJava() throws Exception {
         Map<Integer, Path> jdks = requireJdks();
@@ -91,6 +93,7 @@ class JavaVersionsTest {
     }
 
     @Test
+    @Slow
     @DisplayName("a checkpoint path on another file system than the local one is refused at start on Java 25, "
             + "saying why and what works; accepted on Java 17")
     void otherFileSystemsOnlyWhereHadoopWorks() throws Exception {

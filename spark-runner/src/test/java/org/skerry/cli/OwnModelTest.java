@@ -28,6 +28,7 @@ import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.cli.output.JsonTree;
+import org.skerry.engine.Slow;
 import org.skerry.engine.model.Model;
 
 /**
@@ -52,6 +53,7 @@ class OwnModelTest {
     Path folder;
 
     @Test
+    @Slow
     @DisplayName("README's own-model example: javac and jar as written, skerry run with the jar on the class path "
             + "and in backend.jars; evidence, posterior and the particles' log-likelihood and log-prior against the "
             + "closed form")

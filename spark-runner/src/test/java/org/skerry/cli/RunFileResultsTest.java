@@ -14,10 +14,12 @@ import org.apache.commons.math3.stat.descriptive.SummaryStatistics;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.Slow;
 import org.skerry.engine.reference.NormalMeanExact;
 import org.skerry.engine.reference.SyntheticData;
 
 /** Runs from run files through the command, checked against closed forms. */
+@Slow
 class RunFileResultsTest {
 
     @TempDir

@@ -14,6 +14,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
+import org.skerry.engine.Slow;
 
 /**
  * Bad input that used to slip through (issue 11, section 5), each through the command: exit code
@@ -87,6 +88,7 @@ class SlippedInputTest {
     }
 
     @Test
+    @Slow
     @DisplayName("the seeds at either end of the range run, and run.conf and summary.json hold the same seed")
     void seedRangeEnds() throws IOException {
         goodData();
@@ -220,6 +222,7 @@ class SlippedInputTest {
     }
 
     @Test
+    @Slow
     @DisplayName("a model class missing on the executors: one short message naming the class and backend.jars, "
             + "no stack trace, exit 2, nothing left behind")
     void classMissingOnExecutors() throws Exception {

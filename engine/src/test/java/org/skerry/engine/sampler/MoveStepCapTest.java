@@ -8,6 +8,7 @@ import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
+import org.skerry.engine.Slow;
 import org.skerry.engine.calibration.CalibrationCase;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
 
@@ -21,6 +22,7 @@ import org.skerry.engine.population.threads.ThreadPoolBackend;
 class MoveStepCapTest {
 
     @ParameterizedTest
+    @Slow
     @ValueSource(strings = {"shells", "mixture"})
     @DisplayName("Gaussian shells D = 2 and the bimodal mixture: at most 10 % of iterations at the step cap over 20 seeds")
     void fewIterationsAtTheCap(String name) {

@@ -9,6 +9,7 @@ import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.EnumSource;
+import org.skerry.engine.Slow;
 import org.skerry.engine.model.builtin.BetaBinomialModel;
 import org.skerry.engine.model.builtin.GaussianMixtureLikelihoodModel;
 import org.skerry.engine.model.builtin.GaussianShellsModel;
@@ -32,6 +33,7 @@ import org.skerry.engine.temper.FixedSchedule;
  * of the replicated estimate (false-alarm rate about 6·10⁻⁵ per check under a normal
  * approximation), computed from the spread over the seeds of the same test.
  */
+@Slow
 class SamplerAccuracyTest {
 
     private static final int SEEDS = 24;

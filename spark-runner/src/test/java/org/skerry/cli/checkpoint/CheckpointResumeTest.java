@@ -21,6 +21,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.cli.ExitCodes;
 import org.skerry.cli.SkerryCommand;
+import org.skerry.engine.Slow;
 import org.skerry.engine.reference.SyntheticData;
 
 /**
@@ -29,6 +30,7 @@ import org.skerry.engine.reference.SyntheticData;
  * (changed settings, nothing to resume). Every resumed run is compared byte for byte with the
  * undisturbed one.
  */
+@Slow
 class CheckpointResumeTest {
 
     @TempDir

@@ -22,6 +22,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.cli.ExitCodes;
 import org.skerry.cli.ProgramProcess;
+import org.skerry.engine.Slow;
 
 /**
  * The driver process killed, told to stop (SIGTERM, Ctrl-C once or twice) mid-run, or its run
@@ -30,6 +31,7 @@ import org.skerry.cli.ProgramProcess;
  * checkpoint of iteration 2 appearing — never by a timer. The runs use the demo's ODE model at
  * small N, whose iterations take long enough that the fault lands before the run ends (checked).
  */
+@Slow
 class RunFaultTest {
 
     private static final Path DEMO_RUN = Path.of("..", "conf", "demo", "buoy-07-sigmoidal.conf").toAbsolutePath()

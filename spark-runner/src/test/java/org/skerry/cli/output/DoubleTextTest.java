@@ -10,6 +10,7 @@ import java.util.SplittableRandom;
 import java.util.regex.Pattern;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
+import org.skerry.engine.Slow;
 
 class DoubleTextTest {
 
@@ -18,6 +19,7 @@ class DoubleTextTest {
     private static final Pattern SCIENTIFIC = Pattern.compile("-?[1-9]\\.\\d+e-?[1-9]\\d*");
 
     @Test
+    @Slow
     @DisplayName("a million random bit patterns read back to the same bits")
     void randomBitPatternsRoundTrip() {
         SplittableRandom random = new SplittableRandom(20240611L);

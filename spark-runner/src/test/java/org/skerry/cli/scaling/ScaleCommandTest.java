@@ -25,6 +25,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.cli.ExitCodes;
 import org.skerry.cli.SkerryCommand;
+import org.skerry.engine.Slow;
 import org.w3c.dom.Document;
 
 /**
@@ -74,6 +75,7 @@ class ScaleCommandTest {
     }
 
     @Test
+    @Slow
     @DisplayName("a strong-scaling study on Spark local mode writes its table, plots and summary; a second call resumes it")
     void strongScalingOnSpark() throws Exception {
         base("spark");
@@ -159,6 +161,7 @@ class ScaleCommandTest {
     }
 
     @Test
+    @Slow
     @DisplayName("weak scaling on the thread backend: N grows with the cores, efficiency of the baseline is 1, no byte counts")
     void weakScalingOnThreads() throws Exception {
         base("threads");

@@ -16,6 +16,7 @@ import java.util.concurrent.TimeUnit;
 import java.util.concurrent.atomic.AtomicInteger;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
+import org.skerry.engine.Slow;
 
 /**
  * The grace-period decision on a real SIGTERM or SIGINT raised in this JVM (our handler replaces
@@ -79,6 +80,7 @@ class TerminationSignalTest {
     }
 
     @Test
+    @Slow
     @DisplayName("an iteration that fits is waited for; once the run ends nothing is abandoned")
     void waitsForWhatFits() throws Exception {
         try (TerminationSignal signal = install(2)) {

@@ -28,6 +28,7 @@ import org.apache.spark.api.java.JavaSparkContext;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.Slow;
 
 /**
  * Starts real standalone clusters (separate JVMs on loopback addresses) and runs jobs on them from
@@ -51,6 +52,7 @@ class LoopbackClusterTest {
     }
 
     @Test
+    @Slow
     void jobRunsOnBothWorkersAndCloseLeavesNoProcess() throws IOException {
         Map<ProcessHandle, String> seen = new LinkedHashMap<>(); // process and its Spark class
         long t0 = System.nanoTime();
@@ -83,6 +85,7 @@ class LoopbackClusterTest {
     }
 
     @Test
+    @Slow
     void killedWorkerTakesItsExecutorAlongAndTheJobRunsOnTheOther() throws IOException {
         try (LoopbackCluster cluster = LoopbackCluster.start(dir.resolve("cluster"), 2);
                 JavaSparkContext sc = new JavaSparkContext(driverConf(cluster.masterUrl(), 2))) {
@@ -103,6 +106,7 @@ class LoopbackClusterTest {
     }
 
     @Test
+    @Slow
     void failedStartLeavesNoProcess() {
         Path clusterDir = dir.resolve("cluster");
         IllegalStateException e = assertThrows(IllegalStateException.class,

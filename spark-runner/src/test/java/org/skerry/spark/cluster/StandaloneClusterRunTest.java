@@ -28,6 +28,7 @@ import org.junit.jupiter.api.TestMethodOrder;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.cli.SkerryCommand;
 import org.skerry.cli.checkpoint.NodeLocalFileSystem;
+import org.skerry.engine.Slow;
 import org.skerry.engine.reference.NormalMeanExact;
 import org.skerry.engine.reference.SyntheticData;
 
@@ -38,6 +39,7 @@ import org.skerry.engine.reference.SyntheticData;
  * worker (and its executor) in the middle of a run, which must still end byte-identical.
  */
 @TestMethodOrder(MethodOrderer.OrderAnnotation.class)
+@Slow
 class StandaloneClusterRunTest {
 
     @TempDir

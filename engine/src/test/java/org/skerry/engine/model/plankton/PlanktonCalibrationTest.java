@@ -6,6 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import org.apache.commons.math3.distribution.BinomialDistribution;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
+import org.skerry.engine.Slow;
 import org.skerry.engine.model.prior.IndependentPrior;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
 import org.skerry.engine.random.RandomStream;
@@ -28,6 +29,7 @@ import org.skerry.engine.sampler.SmcSampler;
  * the default priors and a 10-week season (days 0 to 63: the spring bloom, its grazing-down and
  * the rebound).
  */
+@Slow
 class PlanktonCalibrationTest {
 
     private static final int DATASETS = 24;
