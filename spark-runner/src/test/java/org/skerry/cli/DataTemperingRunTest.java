@@ -11,8 +11,10 @@ import java.util.List;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.engine.Slow;
 
 /** Data tempering from a run file: the keys, the iterations it makes, and its refusals. */
+@Slow
 class DataTemperingRunTest {
 
     @TempDir

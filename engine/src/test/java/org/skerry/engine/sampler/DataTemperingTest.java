@@ -19,12 +19,14 @@ import org.skerry.engine.reference.LinearRegressionExact;
 import org.skerry.engine.reference.NormalMeanExact;
 import org.skerry.engine.reference.SyntheticData;
 import org.skerry.engine.target.SequenceSettings;
+import org.skerry.engine.Slow;
 
 /**
  * Data tempering (Chopin 2002, Biometrika 89(3)): observations added in batches, fixed or chosen
  * on the conditional ESS. Checked against the same closed forms as likelihood tempering; every
  * tolerance is four standard errors of the replicated estimate over the seeds of the test.
  */
+@Slow
 class DataTemperingTest {
 
     private static final int SEEDS = 24;

@@ -13,6 +13,7 @@ import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.EnumSource;
+import org.skerry.engine.Slow;
 
 /**
  * The plankton model's likelihood of observation ranges (synthetic Lake Quellmar data): a range
@@ -23,6 +24,7 @@ import org.junit.jupiter.params.provider.EnumSource;
  * <p>Rounding bound as in {@code ObservationRangesTest}: {@code 16·(N + 1)·u·Σ|magnitudes|}
  * after Higham, Accuracy and Stability of Numerical Algorithms, 2nd ed. (2002), §4.2.
  */
+@Slow
 class PlanktonRangesTest {
 
     private static final QuellmarBuoy DEMO = QuellmarScenario.demoBuoy();
