@@ -5,17 +5,13 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.util.List;
 import org.apache.commons.math3.stat.descriptive.SummaryStatistics;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.builtin.GaussianMixtureLikelihoodModel;
-import org.skerry.engine.model.builtin.LinearRegressionModel;
 import org.skerry.engine.model.builtin.NormalMeanModel;
-import org.skerry.engine.model.prior.MultivariateNormalPrior;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
-import org.skerry.engine.reference.LinearRegressionExact;
 import org.skerry.engine.reference.NormalMeanExact;
 import org.skerry.engine.reference.SyntheticData;
 import org.skerry.engine.target.SequenceSettings;
@@ -64,24 +60,12 @@ class DataTemperingTest {
     @Test
     @DisplayName("Bayesian linear regression, adaptive batches: evidence and posterior against PRML §3.3 and eq. 3.86")
     void linearRegressionAdaptiveBatches() {
-        double[][] design = SyntheticData.design(13, 30, 2, -2.0, 2.0, true);
-        double[] response = SyntheticData.regressionResponse(14, design, new double[] {0.7, -1.2}, 0.5);
-        double[] priorMean = {0.0, 0.0};
-        double[][] priorCovariance = {{4.0, 0.5}, {0.5, 2.0}};
-        LinearRegressionModel model = LinearRegressionModel.of(design, response, 0.5,
-                MultivariateNormalPrior.of(priorMean, priorCovariance), List.of("intercept", "slope"));
-        LinearRegressionExact exact = new LinearRegressionExact(design, response, 0.5, priorMean, priorCovariance);
-        Replicates replicates = Replicates.run(model, base(SequenceSettings.adaptiveBatches(8, 0.5)).build(), SEEDS);
+        Replicates replicates = Replicates.run(SamplerAccuracyTest.RegressionCase.MODEL,
+                base(SequenceSettings.adaptiveBatches(8, 0.5)).build(), SEEDS);
         SamplerResult first = replicates.results.get(0);
         assertTrue(first.iterations().size() > 4 && first.iterations().size() <= 31,
                 "batches of 1 to 8 observations: " + first.iterations().size() + " iterations");
-        assertEvidence(exact.logEvidence(), replicates);
-        double[] mean = exact.posteriorMean();
-        double[][] covariance = exact.posteriorCovariance();
-        for (int k = 0; k < 2; k++) {
-            assertWithin(mean[k], replicates.mean(k), "posterior mean " + k);
-            assertWithin(Math.sqrt(covariance[k][k]), replicates.sd(k), "posterior sd " + k);
-        }
+        SamplerAccuracyTest.RegressionCase.check(replicates);
     }
 
     @Test

@@ -43,12 +43,12 @@ class SamplerAccuracyTest {
         return SamplerSettings.builder().particles(1000);
     }
 
-    private static void assertWithin(double expected, SummaryStatistics replicated, String what) {
+    static void assertWithin(double expected, SummaryStatistics replicated, String what) {
         double error = Z * Replicates.standardError(replicated);
         assertEquals(expected, replicated.getMean(), error, what + " (4 standard errors = " + error + ")");
     }
 
-    private static void assertEvidence(double exact, Replicates replicates) {
+    static void assertEvidence(double exact, Replicates replicates) {
         SummaryStatistics logZ = replicates.logEvidence();
         double error = Z * Replicates.standardError(logZ);
         assertEquals(exact, replicates.correctedLogEvidence(), error,
@@ -84,24 +84,36 @@ class SamplerAccuracyTest {
         }
     }
 
+    /** The regression case both sequences of targets are checked on: 30 synthetic rows, a correlated prior. */
+    static final class RegressionCase {
+        static final double[][] DESIGN = SyntheticData.design(13, 30, 2, -2.0, 2.0, true);
+        static final double[] RESPONSE = SyntheticData.regressionResponse(14, DESIGN, new double[] {0.7, -1.2}, 0.5);
+        static final double[] PRIOR_MEAN = {0.0, 0.0};
+        static final double[][] PRIOR_COVARIANCE = {{4.0, 0.5}, {0.5, 2.0}};
+        static final LinearRegressionModel MODEL = LinearRegressionModel.of(DESIGN, RESPONSE, 0.5,
+                MultivariateNormalPrior.of(PRIOR_MEAN, PRIOR_COVARIANCE), List.of("intercept", "slope"));
+        static final LinearRegressionExact EXACT = new LinearRegressionExact(DESIGN, RESPONSE, 0.5, PRIOR_MEAN,
+                PRIOR_COVARIANCE);
+
+        private RegressionCase() {
+        }
+
+        /** Evidence, posterior means and sds of the replicates against PRML §3.3 (3.49–3.51) and eq. 3.86. */
+        static void check(Replicates replicates) {
+            assertEvidence(EXACT.logEvidence(), replicates);
+            double[] mean = EXACT.posteriorMean();
+            double[][] covariance = EXACT.posteriorCovariance();
+            for (int k = 0; k < 2; k++) {
+                assertWithin(mean[k], replicates.mean(k), "posterior mean " + k);
+                assertWithin(Math.sqrt(covariance[k][k]), replicates.sd(k), "posterior sd " + k);
+            }
+        }
+    }
+
     @Test
     @DisplayName("Bayesian linear regression: evidence and weights against PRML §3.3 (3.49–3.51) and eq. 3.86")
     void linearRegression() {
-        double[][] design = SyntheticData.design(13, 30, 2, -2.0, 2.0, true);
-        double[] response = SyntheticData.regressionResponse(14, design, new double[] {0.7, -1.2}, 0.5);
-        double[] priorMean = {0.0, 0.0};
-        double[][] priorCovariance = {{4.0, 0.5}, {0.5, 2.0}};
-        LinearRegressionModel model = LinearRegressionModel.of(design, response, 0.5,
-                MultivariateNormalPrior.of(priorMean, priorCovariance), List.of("intercept", "slope"));
-        LinearRegressionExact exact = new LinearRegressionExact(design, response, 0.5, priorMean, priorCovariance);
-        Replicates replicates = Replicates.run(model, base().build(), SEEDS);
-        assertEvidence(exact.logEvidence(), replicates);
-        double[] mean = exact.posteriorMean();
-        double[][] covariance = exact.posteriorCovariance();
-        for (int k = 0; k < 2; k++) {
-            assertWithin(mean[k], replicates.mean(k), "posterior mean " + k);
-            assertWithin(Math.sqrt(covariance[k][k]), replicates.sd(k), "posterior sd " + k);
-        }
+        RegressionCase.check(Replicates.run(RegressionCase.MODEL, base().build(), SEEDS));
     }
 
     @Test
