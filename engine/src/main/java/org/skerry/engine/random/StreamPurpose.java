@@ -18,6 +18,11 @@ public enum StreamPurpose {
     SIMULATOR(5),
     /** Generating synthetic data sets (the demo's generator); never used by the sampler. */
     DATA_GENERATION(6),
+    /**
+     * Posterior predictive checks after a run: choosing posterior draws and simulating replicate
+     * data sets from them; never used by the sampler, so it cannot change a run's answer.
+     */
+    PREDICTIVE(7),
     /** Free for tests and benchmarks; never used by the sampler. */
     TESTING(255);
 
