@@ -5,10 +5,13 @@ import org.apache.commons.math3.util.CombinatoricsUtils;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
+import org.skerry.engine.model.PredictiveModel;
 import org.skerry.engine.model.Prior;
+import org.skerry.engine.model.Quantity;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.Beta;
 import org.skerry.engine.model.prior.IndependentPrior;
+import org.skerry.engine.random.RandomStream;
 
 /**
  * A success probability p from binomial counts {@code kᵢ ~ Binomial(nᵢ, p)} under the conjugate
@@ -19,8 +22,14 @@ import org.skerry.engine.model.prior.IndependentPrior;
  * <p>Observation {@code i} is the count pair {@code (kᵢ, nᵢ)}, in the order given. A range sums
  * its binomial coefficients in that order from 0 and its counts as whole numbers, which for the
  * whole range is exactly the full likelihood's arithmetic: the two agree bit for bit.
+ *
+ * <p>As a {@link PredictiveModel} its observed values are the success counts kᵢ in row order,
+ * positioned at their row number; a replicate draws {@code Binomial(nᵢ, p)} counts in that order
+ * ({@link BinomialDraw}), so at posterior draws of p they follow the beta-binomial predictive.
  */
-public final class BetaBinomialModel implements ObservationLikelihood {
+public final class BetaBinomialModel implements ObservationLikelihood, PredictiveModel {
+
+    private static final Quantity OBSERVED = Quantity.unitless("successes");
 
     private static final ParameterSpace PARAMETERS =
             ParameterSpace.of(List.of("p"), List.of(Support.interval(0.0, 1.0)));
@@ -139,6 +148,34 @@ public final class BetaBinomialModel implements ObservationLikelihood {
             logC += logCoefficient[i];
         }
         return logC + rangeSuccesses * StrictMath.log(p) + rangeFailures * StrictMath.log1p(-p);
+    }
+
+    @Override
+    public int observedCount() {
+        return successCounts.length;
+    }
+
+    @Override
+    public double[] observedValues() {
+        double[] out = new double[successCounts.length];
+        for (int i = 0; i < out.length; i++) {
+            out[i] = successCounts[i];
+        }
+        return out;
+    }
+
+    @Override
+    public Quantity observedQuantity() {
+        return OBSERVED;
+    }
+
+    @Override
+    public void replicate(double[] parameters, RandomStream random, double[] out) {
+        PredictiveModel.checkReplicate(out, successCounts.length);
+        double p = parameters[0];
+        for (int i = 0; i < successCounts.length; i++) {
+            out[i] = BinomialDraw.draw(successCounts[i] + failureCounts[i], p, random);
+        }
     }
 
     @Override

@@ -5,9 +5,12 @@ import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
+import org.skerry.engine.model.PredictiveModel;
 import org.skerry.engine.model.Prior;
+import org.skerry.engine.model.Quantity;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.MultivariateNormalPrior;
+import org.skerry.engine.random.RandomStream;
 
 /**
  * Bayesian linear regression {@code y ~ N(Xw, σ²I)} with σ known and a multivariate normal
@@ -24,8 +27,13 @@ import org.skerry.engine.model.prior.MultivariateNormalPrior;
  * The whole range is the full likelihood, bit for bit; a shorter range sums the squared
  * residuals {@code (yᵢ − xᵢᵀw)²} over its rows, which agrees with the factorised whole range to
  * the rounding of the factorisation (relative error of order ε times the condition number of X).
+ *
+ * <p>As a {@link PredictiveModel} its observed values are the responses in row order, positioned
+ * at their row number; a replicate draws {@code xᵢᵀw + σ·εᵢ} in that order.
  */
-public final class LinearRegressionModel implements ObservationLikelihood {
+public final class LinearRegressionModel implements ObservationLikelihood, PredictiveModel {
+
+    private static final Quantity OBSERVED = Quantity.unitless("y");
 
     // A diagonal entry of R this small relative to the largest one marks X as rank-deficient.
     private static final double RANK_TOLERANCE = 1e-10;
@@ -268,6 +276,34 @@ public final class LinearRegressionModel implements ObservationLikelihood {
             squares += e * e;
         }
         return -(toObservation - fromObservation) * logScale - halfPrecision * squares;
+    }
+
+    @Override
+    public int observedCount() {
+        return rows;
+    }
+
+    @Override
+    public double[] observedValues() {
+        return response.clone();
+    }
+
+    @Override
+    public Quantity observedQuantity() {
+        return OBSERVED;
+    }
+
+    @Override
+    public void replicate(double[] w, RandomStream random, double[] out) {
+        PredictiveModel.checkReplicate(out, rows);
+        for (int i = 0; i < rows; i++) {
+            double mean = 0.0;
+            int base = i * columns;
+            for (int j = 0; j < columns; j++) {
+                mean += design[base + j] * w[j];
+            }
+            out[i] = mean + sigma * random.nextNormal();
+        }
     }
 
     @Override

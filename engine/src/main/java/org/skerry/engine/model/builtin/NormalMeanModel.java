@@ -4,10 +4,13 @@ import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
+import org.skerry.engine.model.PredictiveModel;
 import org.skerry.engine.model.Prior;
+import org.skerry.engine.model.Quantity;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.IndependentPrior;
 import org.skerry.engine.model.prior.Normal;
+import org.skerry.engine.random.RandomStream;
 
 /**
  * The mean μ of d-dimensional observations {@code yⱼ ~ N(μ, σ²I)} with σ known, under the
@@ -22,8 +25,14 @@ import org.skerry.engine.model.prior.Normal;
  * <p>Observation {@code j} is row {@code j}, in the order given. The whole range is answered
  * from the sufficient statistics, so it is the full likelihood bit for bit; a shorter range sums
  * {@code |yⱼ − μ|²} over its rows, which agrees with the whole range to rounding.
+ *
+ * <p>As a {@link PredictiveModel} its observed values are the n·d numbers row by row (coordinate
+ * {@code k} of row {@code j} at {@code j·d + k}), positioned at their row number; a replicate
+ * draws {@code μₖ + σ·ε} in that order.
  */
-public final class NormalMeanModel implements ObservationLikelihood {
+public final class NormalMeanModel implements ObservationLikelihood, PredictiveModel {
+
+    private static final Quantity OBSERVED = Quantity.unitless("y");
 
     private final ParameterSpace parameters;
     private final IndependentPrior prior;
@@ -141,6 +150,41 @@ public final class NormalMeanModel implements ObservationLikelihood {
             }
         }
         return -(double) (toObservation - fromObservation) * d * logScale - halfPrecision * squares;
+    }
+
+    @Override
+    public int observedCount() {
+        return rows.length;
+    }
+
+    @Override
+    public double[] observedValues() {
+        return rows.clone();
+    }
+
+    @Override
+    public Quantity observedQuantity() {
+        return OBSERVED;
+    }
+
+    /** Each value's row number. */
+    @Override
+    public double[] positions() {
+        int d = sampleMean.length;
+        double[] out = new double[rows.length];
+        for (int i = 0; i < out.length; i++) {
+            out[i] = i / d;
+        }
+        return out;
+    }
+
+    @Override
+    public void replicate(double[] mu, RandomStream random, double[] out) {
+        PredictiveModel.checkReplicate(out, rows.length);
+        int d = sampleMean.length;
+        for (int i = 0; i < rows.length; i++) {
+            out[i] = mu[i % d] + sigma * random.nextNormal();
+        }
     }
 
     @Override

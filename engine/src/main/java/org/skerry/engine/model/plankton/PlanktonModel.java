@@ -5,10 +5,13 @@ import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.model.ParameterSpace;
+import org.skerry.engine.model.PredictiveModel;
 import org.skerry.engine.model.Prior;
+import org.skerry.engine.model.Quantity;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.IndependentPrior;
 import org.skerry.engine.model.prior.UnivariateDistribution;
+import org.skerry.engine.random.RandomStream;
 
 /**
  * A nutrient–phytoplankton–zooplankton model (Franks, Wroblewski &amp; Flierl 1986, Marine
@@ -29,8 +32,12 @@ import org.skerry.engine.model.prior.UnivariateDistribution;
  * <p>Observations are in time order (the days increase). A range of observations solves only up
  * to its last day, taking the very steps of the season's solve, so its terms are those of the
  * full solve bit for bit; the full likelihood is the whole range, so the two agree bit for bit.
+ *
+ * <p>As a {@link PredictiveModel} its observed values are the chlorophyll series, positioned at
+ * its days; a replicate is one solve and, in day order, {@code y_j = ratio·P(t_j)·exp(σ·ε_j)}:
+ * the likelihood's log-normal noise, as {@link QuellmarData#simulate} draws it.
  */
-public final class PlanktonModel implements ObservationLikelihood {
+public final class PlanktonModel implements ObservationLikelihood, PredictiveModel {
 
     /** Index of μ_max, the maximum phytoplankton growth rate. */
     public static final int MU_MAX = 0;
@@ -47,6 +54,11 @@ public final class PlanktonModel implements ObservationLikelihood {
 
     /** The parameter names, in vector order. */
     public static final List<String> PARAMETER_NAMES = List.of("mu_max", "k_n", "g_max", "k_p", "m_p", "sigma");
+
+    /** What the observed values measure. */
+    public static final Quantity CHLOROPHYLL = new Quantity("chlorophyll-a", "mg m^-3");
+    /** What the positions measure. */
+    public static final Quantity DAY = new Quantity("day", "d");
 
     private static final double LOG_SQRT_2PI = 0.5 * StrictMath.log(2.0 * StrictMath.PI);
 
@@ -194,6 +206,39 @@ public final class PlanktonModel implements ObservationLikelihood {
 
     private static double value(int count, double sumLog, double squares, double sigma) {
         return -sumLog - count * LOG_SQRT_2PI - count * StrictMath.log(sigma) - 0.5 * squares / (sigma * sigma);
+    }
+
+    @Override
+    public int observedCount() {
+        return chlorophyll.length;
+    }
+
+    @Override
+    public double[] observedValues() {
+        return chlorophyll.clone();
+    }
+
+    @Override
+    public Quantity observedQuantity() {
+        return CHLOROPHYLL;
+    }
+
+    /** The observation days. */
+    @Override
+    public double[] positions() {
+        return dynamics.days();
+    }
+
+    @Override
+    public Quantity positionQuantity() {
+        return DAY;
+    }
+
+    @Override
+    public void replicate(double[] theta, RandomStream random, double[] out) {
+        PredictiveModel.checkReplicate(out, chlorophyll.length);
+        double[] simulated = QuellmarData.simulate(dynamics, theta, random);
+        System.arraycopy(simulated, 0, out, 0, simulated.length);
     }
 
     @Override
