@@ -51,7 +51,10 @@ final class FigureFile {
         svg.fillRect(0, 0, width, height);
         drawing.draw(svg, new Rectangle2D.Double(0, 0, width, height));
         String svgName = name + ".svg";
-        AtomicFile.writeString(folder.resolve(svgName), svg.getSVGDocument());
+        // The element alone: the full document's DOCTYPE points at a DTD on the network, which a
+        // validating reader would try to fetch; the report must open offline.
+        AtomicFile.writeString(folder.resolve(svgName), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
+                + svg.getSVGElement() + "\n");
         return new Written(png, svgName, width, height);
     }
 }

@@ -119,7 +119,9 @@ final class PairFigure {
     private static void correlation(Graphics2D g, Rectangle2D box, double r) {
         g.setColor(Color.BLACK);
         g.setFont(new Font(Font.SANS_SERIF, Font.PLAIN, Math.abs(r) >= 0.5 ? 20 : 16));
-        centre(g, Double.isNaN(r) ? "r = –" : "r = " + String.format(java.util.Locale.ROOT, "%.2f", r),
+        // Rounded at two decimals, with no "-0.00" for a tiny negative value.
+        double shown = Math.abs(r) < 0.005 ? 0 : r;
+        centre(g, Double.isNaN(r) ? "r = –" : "r = " + String.format(java.util.Locale.ROOT, "%.2f", shown),
                 box.getCenterX(), box.getCenterY());
     }
 
