@@ -112,7 +112,9 @@ final class HtmlPage {
         }
         html.append("</p>\n");
         for (PosteriorFigures.Figure f : figures) {
-            html.append("<figure id=\"posterior-").append(e(FileNames.safe(f.parameter()))).append("\" data-parameter=\"")
+            // The file's name, numbered, so two names that clean up alike still get distinct ids.
+            String id = f.files().png().substring(0, f.files().png().length() - ".png".length());
+            html.append("<figure id=\"").append(e(id)).append("\" data-parameter=\"")
                     .append(e(f.parameter())).append("\" data-bin-edges=\"").append(numbers(f.histogram().edges()))
                     .append("\" data-bin-mass=\"").append(numbers(f.histogram().mass())).append("\">\n");
             image(f.files(), "Posterior histogram of " + f.parameter());
