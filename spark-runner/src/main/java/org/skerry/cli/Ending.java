@@ -2,6 +2,7 @@ package org.skerry.cli;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.skerry.cli.report.ReportInputException;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
 import org.skerry.engine.sampler.InvalidEvaluationsException;
@@ -28,7 +29,7 @@ public record Ending(int exitCode, String summary, List<String> lines, boolean t
 
     /** The meaning of {@code e}. */
     public static Ending of(Throwable e) {
-        if (e instanceof RunFileException || e instanceof SettingsException) {
+        if (e instanceof RunFileException || e instanceof SettingsException || e instanceof ReportInputException) {
             String line = "bad input: " + e.getMessage();
             return new Ending(ExitCodes.BAD_INPUT, line, List.of(line), false);
         }

@@ -8,13 +8,13 @@ import picocli.CommandLine.Command;
 
 /**
  * The {@code skerry} command: sequential Monte Carlo calibration of costly models. Subcommands
- * run an analysis, check a run file, list models and run the demo. Exit codes are in
+ * run an analysis, check a run file, report a finished run, list models and run the demo. Exit codes are in
  * {@link ExitCodes}.
  */
 @Command(name = "skerry", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = "Bayesian calibration of costly models by sequential Monte Carlo: posterior, evidence, diagnostics.",
         subcommands = {RunCommand.class, ResumeCommand.class, BatchCommand.class, ScaleCommand.class,
-            ValidateCommand.class, ModelsCommand.class, DemoCommand.class,
+            ValidateCommand.class, ReportCommand.class, ModelsCommand.class, DemoCommand.class,
             DemoDataCommand.class, CommandLine.HelpCommand.class},
         exitCodeOnInvalidInput = ExitCodes.BAD_INPUT, exitCodeOnExecutionException = ExitCodes.RUN_FAILURE)
 public final class SkerryCommand implements Runnable {

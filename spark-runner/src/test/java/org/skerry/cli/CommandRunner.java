@@ -6,13 +6,13 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.io.PrintWriter;
 import java.io.StringWriter;
 
-/** Runs the skerry command in this JVM and captures what it prints. */
-final class CommandRunner {
+/** Runs the skerry command in this JVM and captures what it prints (public: the command's sub-packages test through it). */
+public final class CommandRunner {
 
-    record Result(int exitCode, String out, String err) {
+    public record Result(int exitCode, String out, String err) {
     }
 
-    static Result run(String... args) {
+    public static Result run(String... args) {
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();
         int code = SkerryCommand.execute(args, new PrintWriter(out, true), new PrintWriter(err, true));
@@ -20,7 +20,7 @@ final class CommandRunner {
     }
 
     /** Asserts that {@code result} is bad input: exit code 2 and one message holding every fragment. */
-    static void assertBadInput(Result result, String... fragments) {
+    public static void assertBadInput(Result result, String... fragments) {
         assertEquals(ExitCodes.BAD_INPUT, result.exitCode(), result.err());
         String message = result.err().trim();
         assertTrue(message.startsWith("skerry: bad input:"), message);

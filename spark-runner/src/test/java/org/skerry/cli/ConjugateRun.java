@@ -5,10 +5,10 @@ package org.skerry.cli;
  * (closed form: BDA3 §2.5), 200 particles on the thread backend, no progress line, reading
  * {@code data.csv} beside it. Tests append lines to it; line 7 is the first appended line.
  */
-final class ConjugateRun {
+public final class ConjugateRun {
 
     /** The run file's text, six lines ending with a newline. */
-    static final String RUN_FILE = String.join("\n",
+    public static final String RUN_FILE = String.join("\n",
             "name = conjugate",
             "model { name = normal-mean, settings { sigma = 2.0, prior { mean = 0, sd = 3 } } }",
             "data { file = \"data.csv\" }",
@@ -18,7 +18,7 @@ final class ConjugateRun {
             "");
 
     /** The text of its data file: four synthetic observations. */
-    static final String DATA = "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n";
+    public static final String DATA = "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n";
 
     private ConjugateRun() {
     }

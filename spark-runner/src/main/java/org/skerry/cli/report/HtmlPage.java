@@ -1,0 +1,209 @@
+package org.skerry.cli.report;
+
+import java.util.List;
+import org.apache.commons.text.StringEscapeUtils;
+import org.skerry.cli.output.DoubleText;
+
+/**
+ * Writes {@code index.html}: one self-contained page (inline CSS, no scripts, fonts or network
+ * addresses; images referenced by file name beside it) in the order a reader needs it —
+ * warnings, summary table, posteriors, pairs, per-iteration diagnostics, how to read them. Every
+ * text from the run is escaped with Commons Text. Table cells carry the exact value in {@code
+ * data-value}, figures the numbers behind them, so the page can be checked against the files.
+ */
+final class HtmlPage {
+
+    private static final String STYLE = """
+            body { font-family: sans-serif; max-width: 62rem; margin: 1.5rem auto; padding: 0 1rem; color: #111;
+                   line-height: 1.45; }
+            h1 { font-size: 1.6rem; } h2 { font-size: 1.3rem; margin-top: 2rem; border-bottom: 1px solid #ccc; }
+            .meta { color: #333; }
+            ul.notes { list-style: none; padding: 0; }
+            ul.notes li { padding: .5rem .75rem; margin: .4rem 0; border-left: .4rem solid #009E73; background: #f3f3f3; }
+            ul.notes li.warning { border-left-color: #D55E00; background: #fdf0e6; font-weight: bold; }
+            table { border-collapse: collapse; margin: .5rem 0 1rem; }
+            th, td { padding: .3rem .6rem; border-bottom: 1px solid #ddd; text-align: right;
+                     font-variant-numeric: tabular-nums; }
+            th:first-child { text-align: left; }
+            figure { margin: 1rem 0 2rem; } figure img { max-width: 100%; height: auto; border: 1px solid #eee; }
+            figcaption { font-size: .95rem; color: #222; }
+            @media print { body { max-width: none; } figure { break-inside: avoid; } }
+            """;
+
+    private final StringBuilder html = new StringBuilder(64 * 1024);
+
+    private HtmlPage() {
+    }
+
+    static String of(RunReport run, List<Warnings.Note> notes, List<PosteriorFigures.Figure> posteriors,
+            PairSelection pairs, FigureFile.Written pairFigure, List<IterationFigures.Figure> iterations) {
+        HtmlPage page = new HtmlPage();
+        page.head(run);
+        page.warnings(notes);
+        page.summary(run);
+        page.posteriors(run, posteriors);
+        page.pairs(run, pairs, pairFigure);
+        page.iterations(iterations);
+        page.reading();
+        page.html.append("</body>\n</html>\n");
+        return page.html.toString();
+    }
+
+    private void head(RunReport run) {
+        SummaryFile s = run.summary();
+        html.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n")
+                .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
+                .append("<title>Run report: ").append(e(s.name())).append("</title>\n<style>\n").append(STYLE)
+                .append("</style>\n</head>\n<body>\n")
+                .append("<h1>Run report: ").append(e(s.name())).append("</h1>\n")
+                .append("<p class=\"meta\">Model <b>").append(e(s.model())).append("</b>, N = ")
+                .append(Readable.count(s.particles())).append(" particles, seed ").append(s.seed()).append(", ")
+                .append(Readable.count(s.iterations())).append(" tempering iterations, ")
+                .append(Readable.count(s.likelihoodEvaluations())).append(" likelihood evaluations. ")
+                .append("Made from the files of the run folder <code>")
+                .append(e(String.valueOf(run.folder().toAbsolutePath().normalize().getFileName())))
+                .append("</code>; the exact numbers are in its summary.json.</p>\n");
+    }
+
+    private void warnings(List<Warnings.Note> notes) {
+        html.append("<section id=\"warnings\">\n<h2>Warnings and checks</h2>\n<ul class=\"notes\">\n");
+        for (Warnings.Note note : notes) {
+            html.append("<li class=\"").append(note.warning() ? "warning" : "ok").append("\">")
+                    .append(note.warning() ? "Warning: " : "Checked: ").append(e(note.text())).append("</li>\n");
+        }
+        html.append("</ul>\n</section>\n");
+    }
+
+    private void summary(RunReport run) {
+        SummaryFile s = run.summary();
+        html.append("<section id=\"summary\">\n<h2>Summary</h2>\n<table id=\"evidence\">\n<tr><th>log evidence, log Ẑ")
+                .append(" (natural log)</th>").append(cell("log_evidence", s.logEvidence())).append("</tr>\n");
+        if (s.errorReliable() && Double.isFinite(s.logEvidenceError())) {
+            html.append("<tr><th>its single-run standard error (±)</th>")
+                    .append(cell("log_evidence_error", s.logEvidenceError())).append("</tr>\n");
+        } else {
+            html.append("<tr><th>its single-run standard error</th><td>not shown: not reliable (see the warnings)</td>")
+                    .append("</tr>\n");
+        }
+        html.append("</table>\n<table id=\"parameters\">\n<thead><tr><th>parameter</th><th>mean</th><th>sd</th>");
+        for (String q : s.quantileKeys()) {
+            html.append("<th data-key=\"").append(e(q)).append("\">").append(e(quantileLabel(q))).append("</th>");
+        }
+        html.append("</tr></thead>\n<tbody>\n");
+        s.parameters().forEach((name, p) -> {
+            html.append("<tr data-parameter=\"").append(e(name)).append("\"><th>").append(e(name)).append("</th>")
+                    .append(cell("mean", p.mean())).append(cell("sd", p.sd()));
+            p.quantiles().forEach((key, value) -> html.append(cell(key, value)));
+            html.append("</tr>\n");
+        });
+        html.append("</tbody>\n</table>\n<p>Weighted over the final particles, on the model's scale; a quantile is "
+                + "the smallest particle value whose cumulative weight reaches its probability (2.5 % … 97.5 %). "
+                + "Four significant digits here; the exact values are in summary.json.</p>\n</section>\n");
+    }
+
+    private void posteriors(RunReport run, List<PosteriorFigures.Figure> figures) {
+        html.append("<section id=\"posteriors\">\n<h2>Posterior of each parameter</h2>\n<p>Weighted histogram of "
+                + "the final particles with the 95 % interval of the summary (dashed).");
+        if (run.prior().available()) {
+            html.append(" The black line is the prior density: where the posterior looks like the prior, the data "
+                    + "say little about that parameter.");
+        } else {
+            html.append(" No prior is drawn: ").append(e(run.prior().note())).append('.');
+        }
+        html.append("</p>\n");
+        for (PosteriorFigures.Figure f : figures) {
+            // The file's name, numbered, so two names that clean up alike still get distinct ids.
+            String id = f.files().png().substring(0, f.files().png().length() - ".png".length());
+            html.append("<figure id=\"").append(e(id)).append("\" data-parameter=\"")
+                    .append(e(f.parameter())).append("\" data-bin-edges=\"").append(numbers(f.histogram().edges()))
+                    .append("\" data-bin-mass=\"").append(numbers(f.histogram().mass())).append("\">\n");
+            image(f.files(), "Posterior histogram of " + f.parameter());
+            html.append("<figcaption>Posterior of <b>").append(e(f.parameter())).append("</b>; 95 % interval ")
+                    .append(Readable.number(f.low())).append(" to ").append(Readable.number(f.high())).append(". ");
+            links(f.files());
+            html.append("</figcaption>\n</figure>\n");
+        }
+        html.append("</section>\n");
+    }
+
+    private void pairs(RunReport run, PairSelection pairs, FigureFile.Written figure) {
+        if (figure == null) {
+            return;
+        }
+        html.append("<section id=\"pairs\">\n<h2>Pairs of parameters</h2>\n<p>Below the diagonal, where the "
+                + "posterior mass of two parameters lies together (darker = more); above it, their weighted "
+                + "correlation. A narrow diagonal band means the data fix a combination of the two rather than each "
+                + "one; curved or split shapes mean the posterior is far from Gaussian.");
+        if (pairs.chosen().size() < run.parameters().size()) {
+            html.append(" Shown: ").append(pairs.chosen().size()).append(" of ").append(run.parameters().size())
+                    .append(" parameters, those with the strongest correlation with another.");
+        }
+        html.append("</p>\n<figure id=\"pairs-figure\" data-parameters=\"");
+        StringBuilder names = new StringBuilder();
+        for (int i : pairs.chosen()) {
+            names.append(names.length() == 0 ? "" : " ").append(run.parameters().get(i));
+        }
+        html.append(e(names.toString())).append("\">\n");
+        image(figure, "Pair plot of the posterior");
+        html.append("<figcaption>");
+        links(figure);
+        html.append("</figcaption>\n</figure>\n</section>\n");
+    }
+
+    private void iterations(List<IterationFigures.Figure> figures) {
+        html.append("<section id=\"iterations\">\n<h2>Diagnostics per iteration</h2>\n");
+        for (IterationFigures.Figure f : figures) {
+            html.append("<figure id=\"").append(e(f.id())).append("\">\n");
+            image(f.files(), f.heading());
+            html.append("<figcaption><b>").append(e(f.heading())).append(".</b> ").append(e(f.caption())).append(' ');
+            links(f.files());
+            html.append("</figcaption>\n</figure>\n");
+        }
+        html.append("</section>\n");
+    }
+
+    private void reading() {
+        html.append("""
+                <section id="reading">
+                <h2>Before a decision rests on this run</h2>
+                <p>Every number here is an estimate with Monte Carlo error, and this page cannot show a mode the \
+                moves never reached. Repeat the run with other seeds and a larger N and compare; compare model \
+                variants by their evidence only where the difference is several combined errors; check the fit \
+                against the data. Conclusions that matter need an independent review of the model, the data and \
+                these results.</p>
+                </section>
+                """);
+    }
+
+    private void image(FigureFile.Written files, String alt) {
+        html.append("<img src=\"").append(e(files.png())).append("\" width=\"").append(files.width())
+                .append("\" height=\"").append(files.height()).append("\" alt=\"").append(e(alt)).append("\">\n");
+    }
+
+    private void links(FigureFile.Written files) {
+        html.append("Files: <a href=\"").append(e(files.png())).append("\">PNG</a>, <a href=\"")
+                .append(e(files.svg())).append("\">SVG</a>.");
+    }
+
+    private static String cell(String key, double value) {
+        return "<td data-key=\"" + e(key) + "\" data-value=\"" + DoubleText.format(value) + "\">"
+                + e(Readable.number(value)) + "</td>";
+    }
+
+    /** {@code q2_5} → {@code 2.5 %}. */
+    private static String quantileLabel(String key) {
+        return key.substring(1).replace('_', '.') + " %";
+    }
+
+    private static String numbers(double[] values) {
+        StringBuilder out = new StringBuilder();
+        for (double v : values) {
+            out.append(out.length() == 0 ? "" : " ").append(DoubleText.format(v));
+        }
+        return out.toString();
+    }
+
+    private static String e(String text) {
+        return StringEscapeUtils.escapeHtml4(text);
+    }
+}

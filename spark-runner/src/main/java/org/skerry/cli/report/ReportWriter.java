@@ -1,0 +1,47 @@
+package org.skerry.cli.report;
+
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import org.skerry.cli.output.AtomicFile;
+
+/**
+ * Makes the report of one run folder in its {@code report/} folder: reads and checks every file
+ * first ({@link RunReport#read}), so bad input writes nothing, then writes the figures and, last,
+ * {@code index.html} — each file atomically, so a page that exists has its figures.
+ */
+public final class ReportWriter {
+
+    /** The report's folder inside the run folder. */
+    public static final String FOLDER = "report";
+    /** The page. */
+    public static final String PAGE = "index.html";
+
+    private ReportWriter() {
+    }
+
+    /**
+     * Writes the report of {@code runFolder} and returns the page's path.
+     *
+     * @throws ReportInputException when the run folder cannot be reported (nothing is written)
+     * @throws IOException          when the report's files cannot be written
+     */
+    public static Path write(Path runFolder) throws IOException {
+        if (runFolder == null) {
+            throw new IllegalArgumentException("runFolder must not be null");
+        }
+        RunReport run = RunReport.read(runFolder);
+        List<Warnings.Note> notes = Warnings.of(run);
+        PairSelection pairs = PairSelection.of(run.values(), run.weights());
+        System.setProperty("java.awt.headless", "true");
+        Path folder = runFolder.resolve(FOLDER);
+        Files.createDirectories(folder);
+        List<PosteriorFigures.Figure> posteriors = PosteriorFigures.write(run, folder);
+        FigureFile.Written pairFigure = run.parameters().size() >= 2 ? PairFigure.write(run, pairs, folder) : null;
+        List<IterationFigures.Figure> iterations = IterationFigures.write(run, folder);
+        Path page = folder.resolve(PAGE);
+        AtomicFile.writeString(page, HtmlPage.of(run, notes, posteriors, pairs, pairFigure, iterations));
+        return page;
+    }
+}
