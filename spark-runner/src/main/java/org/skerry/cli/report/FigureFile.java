@@ -31,6 +31,15 @@ final class FigureFile {
     }
 
     static Written write(Path folder, String name, int width, int height, Drawing drawing) throws IOException {
+        return write(folder, name, width, height, drawing, java.util.Map.of());
+    }
+
+    /**
+     * As {@link #write(Path, String, int, int, Drawing)}, with {@code data-*} attributes on the
+     * SVG's root element: the numbers behind the figure, readable without the picture.
+     */
+    static Written write(Path folder, String name, int width, int height, Drawing drawing,
+            java.util.Map<String, String> svgAttributes) throws IOException {
         BufferedImage image = new BufferedImage(width, height, BufferedImage.TYPE_INT_RGB);
         Graphics2D g = image.createGraphics();
         try {
@@ -53,8 +62,18 @@ final class FigureFile {
         String svgName = name + ".svg";
         // The element alone: the full document's DOCTYPE points at a DTD on the network, which a
         // validating reader would try to fetch; the report must open offline.
+        String element = svg.getSVGElement();
+        StringBuilder attributes = new StringBuilder();
+        svgAttributes.forEach((key, value) -> {
+            if (!key.startsWith("data-")) {
+                throw new IllegalArgumentException("SVG attribute must be a data- attribute, was " + key);
+            }
+            attributes.append(' ').append(key).append("=\"")
+                    .append(org.apache.commons.text.StringEscapeUtils.escapeXml10(value)).append('"');
+        });
+        element = element.replaceFirst("^<svg", "<svg" + java.util.regex.Matcher.quoteReplacement(attributes.toString()));
         AtomicFile.writeString(folder.resolve(svgName), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
-                + svg.getSVGElement() + "\n");
+                + element + "\n");
         return new Written(png, svgName, width, height);
     }
 }

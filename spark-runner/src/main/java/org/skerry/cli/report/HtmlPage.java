@@ -7,7 +7,8 @@ import org.skerry.cli.output.DoubleText;
 /**
  * Writes {@code index.html}: one self-contained page (inline CSS, no scripts, fonts or network
  * addresses; images referenced by file name beside it) in the order a reader needs it —
- * warnings, summary table, posteriors, pairs, per-iteration diagnostics, how to read them. Every
+ * warnings, summary table, posteriors, pairs, the fit against the data, per-iteration diagnostics,
+ * how to read them. Every
  * text from the run is escaped with Commons Text. Table cells carry the exact value in {@code
  * data-value}, figures the numbers behind them, so the page can be checked against the files.
  */
@@ -36,13 +37,15 @@ final class HtmlPage {
     }
 
     static String of(RunReport run, List<Warnings.Note> notes, List<PosteriorFigures.Figure> posteriors,
-            PairSelection pairs, FigureFile.Written pairFigure, List<IterationFigures.Figure> iterations) {
+            PairSelection pairs, FigureFile.Written pairFigure, FitFigures.Written fit,
+            List<IterationFigures.Figure> iterations) {
         HtmlPage page = new HtmlPage();
         page.head(run);
         page.warnings(notes);
         page.summary(run);
         page.posteriors(run, posteriors);
         page.pairs(run, pairs, pairFigure);
+        page.fit(run, fit);
         page.iterations(iterations);
         page.reading();
         page.html.append("</body>\n</html>\n");
@@ -124,6 +127,27 @@ final class HtmlPage {
             html.append("</figcaption>\n</figure>\n");
         }
         html.append("</section>\n");
+    }
+
+    private void fit(RunReport run, FitFigures.Written figures) {
+        html.append("<section id=\"fit\">\n<h2>Fit against the data</h2>\n");
+        if (figures == null) {
+            html.append("<p>No fit figure: ").append(e(run.fit().note())).append(".</p>\n</section>\n");
+            return;
+        }
+        html.append("<p>The observed data with the posterior predictive: replicate datasets simulated from "
+                + "weighted draws of the final particles. Points far outside the bands, or residuals that "
+                + "run on one side or trend, mean the model misses something in the data; a good fit does "
+                + "not prove the model right.</p>\n");
+        html.append("<figure id=\"fit-data\">\n");
+        image(figures.fit(), "Observed data with 50 % and 95 % posterior predictive bands");
+        html.append("<figcaption>Observed data (points) with the predictive median and its 50 % and 95 % bands. ");
+        links(figures.fit());
+        html.append("</figcaption>\n</figure>\n<figure id=\"fit-residuals\">\n");
+        image(figures.residuals(), "Standardised residuals");
+        html.append("<figcaption>Standardised residuals, (observed − predictive mean) ÷ predictive sd. ");
+        links(figures.residuals());
+        html.append("</figcaption>\n</figure>\n</section>\n");
     }
 
     private void pairs(RunReport run, PairSelection pairs, FigureFile.Written figure) {

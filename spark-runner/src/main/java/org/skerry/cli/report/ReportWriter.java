@@ -39,9 +39,10 @@ public final class ReportWriter {
         Files.createDirectories(folder);
         List<PosteriorFigures.Figure> posteriors = PosteriorFigures.write(run, folder);
         FigureFile.Written pairFigure = run.parameters().size() >= 2 ? PairFigure.write(run, pairs, folder) : null;
+        FitFigures.Written fit = run.fit().available() ? FitFigures.write(run.fit(), folder) : null;
         List<IterationFigures.Figure> iterations = IterationFigures.write(run, folder);
         Path page = folder.resolve(PAGE);
-        AtomicFile.writeString(page, HtmlPage.of(run, notes, posteriors, pairs, pairFigure, iterations));
+        AtomicFile.writeString(page, HtmlPage.of(run, notes, posteriors, pairs, pairFigure, fit, iterations));
         return page;
     }
 }

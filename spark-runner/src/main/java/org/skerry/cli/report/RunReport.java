@@ -18,16 +18,17 @@ import org.skerry.engine.settings.SettingsException;
  * Everything a run report shows, read and checked before anything is written: {@code
  * summary.json}, {@code iterations.csv}, the parameter values and weights of {@code
  * particles.csv}, the resampling threshold and MH step cap of {@code run.conf}, and the prior
- * marginals when the model can be built again. Any file that is missing or does not fit the
+ * marginals and the posterior predictive of the data when the model can be built again. Any file that is missing or does not fit the
  * others is bad input naming it.
  *
  * @param threshold    {@code sampler.resampling.threshold}: resample when ESS/N is at or below it
  * @param maxSteps     {@code sampler.moves.max-steps}, or 0 with a fixed step count (no cap applies)
  * @param values       per parameter (summary order), the particles' values
  * @param weights      the particles' normalised weights
+ * @param fit          the posterior predictive of the observed data, or why there is none
  */
 record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<double[]> values, double[] weights,
-        double threshold, int maxSteps, PriorMarginals prior) {
+        double threshold, int maxSteps, PriorMarginals prior, PredictiveFit fit) {
 
     /** The columns of {@code iterations.csv} the figures use. */
     static final List<String> ITERATION_COLUMNS = List.of("iteration", "temperature", "ess", "resampled",
@@ -94,7 +95,8 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
         RunSpec spec = settings(folder.resolve(RunConfFile.FILE_NAME));
         MoveSettings moves = spec.sampler().moves();
         return new RunReport(folder, summary, iterations, values, weights, spec.sampler().resampling().threshold(),
-                moves.fixedSteps() == 0 ? moves.maxSteps() : 0, PriorMarginals.of(spec, names));
+                moves.fixedSteps() == 0 ? moves.maxSteps() : 0, PriorMarginals.of(spec, names),
+                PredictiveFit.of(spec, names, values, weights, summary.seed()));
     }
 
     private static RunSpec settings(Path runConf) {

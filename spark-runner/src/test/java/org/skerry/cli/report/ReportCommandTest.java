@@ -35,6 +35,7 @@ import org.skerry.cli.ConjugateRun;
 import org.skerry.cli.ExitCodes;
 import org.skerry.cli.output.JsonTree;
 import org.skerry.engine.Slow;
+import org.skerry.engine.reference.NormalMeanExact;
 
 /**
  * {@code skerry report} on real run folders made by the command: the page parsed with jsoup (an
@@ -108,11 +109,43 @@ class ReportCommandTest {
     }
 
     @Test
-    @DisplayName("the sections come in order: warnings, summary, posteriors, pairs, iterations, reading advice")
+    @DisplayName("the sections come in order: warnings, summary, posteriors, pairs, fit, iterations, reading advice")
     void order() throws IOException {
         List<String> ids = page(wide).select("body > section").eachAttr("id");
-        assertEquals(List.of("warnings", "summary", "posteriors", "pairs", "iterations", "reading"), ids);
+        assertEquals(List.of("warnings", "summary", "posteriors", "pairs", "fit", "iterations", "reading"), ids);
         assertTrue(page(wide).selectFirst("#reading").text().contains("independent review"));
+    }
+
+    @Test
+    @DisplayName("fit against the data: the SVG's points are the data file's values; the predictive mean and sd "
+            + "agree with the closed form (BDA3 §2.5) within Monte Carlo error")
+    void fitAgainstTheData() throws Exception {
+        Element section = page(conjugate).selectFirst("#fit");
+        assertEquals(2, section.select("figure img").size(), section.outerHtml());
+        DocumentBuilderFactory factory = DocumentBuilderFactory.newInstance();
+        factory.setFeature("http://apache.org/xml/features/disallow-doctype-decl", true);
+        org.w3c.dom.Element svg = factory.newDocumentBuilder()
+                .parse(conjugate.resolve("report/fit-data.svg").toFile()).getDocumentElement();
+        double[] observed = numbers(svg.getAttribute("data-observed"));
+        double[] fromFile = ConjugateRun.DATA.lines().filter(l -> !l.startsWith("#") && !l.equals("y"))
+                .mapToDouble(Double::parseDouble).toArray();
+        assertArrayEquals(fromFile, observed, 0.0, "the points are the data file's values, in its order");
+        // Closed form: y_new | y ~ Normal(mu_n, sigma^2 + tau_n^2), with sigma = 2, prior Normal(0, 3^2).
+        NormalMeanExact exact = new NormalMeanExact(
+                Arrays.stream(fromFile).mapToObj(v -> new double[] {v}).toArray(double[][]::new), 2.0, 0.0, 3.0);
+        double predictiveSd = Math.sqrt(4.0 + exact.posteriorVariance());
+        // Error of the estimate: the 200 particles' posterior (ESS at least N/2 after the last
+        // resampling) and the 400 replicate draws, four standard errors.
+        double tolerance = 4 * Math.sqrt(exact.posteriorVariance() / 100 + predictiveSd * predictiveSd / 400);
+        for (double mean : numbers(svg.getAttribute("data-predictive-mean"))) {
+            assertEquals(exact.posteriorMean(0), mean, tolerance, "predictive mean");
+        }
+        for (double sd : numbers(svg.getAttribute("data-predictive-sd"))) {
+            // The sd of 400 draws: relative standard error about 1/sqrt(2 * 399).
+            assertEquals(predictiveSd, sd, 4 * predictiveSd / Math.sqrt(2 * 399.0) + tolerance, "predictive sd");
+        }
+        assertTrue(page(wide).selectFirst("#fit").text().contains("offers no predictions"),
+                page(wide).selectFirst("#fit").text());
     }
 
     @Test
