@@ -18,6 +18,7 @@ import org.skerry.cli.output.ParticlesCsv;
 import org.skerry.cli.output.RunConfFile;
 import org.skerry.cli.output.SummaryJson;
 import org.skerry.cli.progress.ProgressDisplay;
+import org.skerry.cli.report.ReportWriter;
 import org.skerry.cli.runfile.AnswerSettings;
 import org.skerry.cli.runfile.ModelBuilder;
 import org.skerry.cli.runfile.RunFile;
@@ -382,7 +383,24 @@ public final class Analysis {
         } catch (java.io.UncheckedIOException e) {
             throw outputFailed(e, checkpoints, runFolder);
         }
+        if (spec.outputs().report()) {
+            writeReport(runFolder, notices);
+        }
         return new Outcome(runFolder, spec, result, wall);
+    }
+
+    /**
+     * The run's report (report/index.html and its figures). The results are written by now, so a
+     * report that cannot be made is a notice, not a failed run: {@code skerry report} can make it later.
+     */
+    private static void writeReport(Path runFolder, PrintWriter notices) {
+        try {
+            ReportWriter.write(runFolder);
+        } catch (java.io.IOException | RuntimeException e) {
+            notices.println("skerry: the run's results are written, but its report could not be: " + e.getMessage()
+                    + "; make it later with: skerry report " + runFolder);
+            notices.flush();
+        }
     }
 
     /** A run-folder file could not be written (full or read-only disk): say so, and what is kept. */

@@ -11,8 +11,9 @@ import org.skerry.engine.settings.SettingsReader;
  *
  * @param folder   the folder the run folder is made in
  * @param progress how progress is shown
+ * @param report   whether a finished run writes its report (report/index.html and figures)
  */
-public record OutputSpec(Path folder, Progress progress) {
+public record OutputSpec(Path folder, Progress progress, boolean report) {
 
     /** How progress is shown. */
     public enum Progress { AUTO, LIVE, LOG, OFF }
@@ -30,6 +31,6 @@ public record OutputSpec(Path folder, Progress progress) {
         }
         Progress progress = Progress.valueOf(r.choice("output.progress", List.of("auto", "live", "log", "off"))
                 .toUpperCase(Locale.ROOT));
-        return new OutputSpec(Path.of(folder), progress);
+        return new OutputSpec(Path.of(folder), progress, r.bool("output.report"));
     }
 }

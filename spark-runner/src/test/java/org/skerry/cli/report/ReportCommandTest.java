@@ -319,6 +319,17 @@ class ReportCommandTest {
     }
 
     @Test
+    @DisplayName("a run writes its report at its end, as skerry report would")
+    void runWritesItsReport() throws IOException {
+        Path folder = root.resolve("reported");
+        run(root.resolve("run.conf"), folder);
+        String written = Files.readString(folder.resolve("report/index.html"));
+        CommandRunner.Result again = CommandRunner.run("report", folder.toString());
+        assertEquals(ExitCodes.SUCCESS, again.exitCode(), again.err());
+        assertEquals(written, Files.readString(folder.resolve("report/index.html")));
+    }
+
+    @Test
     @DisplayName("bad folders: exit 2, one message naming the folder or file (and line, column), nothing written")
     void badInput() throws IOException {
         Path missing = root.resolve("no-such-run");
@@ -331,7 +342,8 @@ class ReportCommandTest {
         assertFalse(Files.exists(unfinished.resolve("report")));
 
         Path broken = root.resolve("broken");
-        run(root.resolve("run.conf"), broken);
+        run(root.resolve("run.conf"), broken, "--set", "output.report=false");
+        assertFalse(Files.exists(broken.resolve("report")), "output.report = false: the run writes no report");
         List<String> lines = new ArrayList<>(Files.readAllLines(broken.resolve("particles.csv")));
         lines.set(2, "oops," + lines.get(2).substring(lines.get(2).indexOf(',') + 1));
         Files.write(broken.resolve("particles.csv"), lines);
