@@ -340,7 +340,7 @@ public final class Population implements AutoCloseable {
      */
     public List<String> readBlocks(BlockStore store, List<StoredBlock> stored) {
         long[] first = StoredBlock.firstIndices(stored);
-        long running = stored.isEmpty() ? 0 : first[stored.size() - 1] + stored.get(stored.size() - 1).particles();
+        long running = stored.stream().mapToLong(StoredBlock::particles).sum();
         if (running != size) {
             return List.of("the checkpoint's blocks hold " + running + " particles; the run has " + size);
         }

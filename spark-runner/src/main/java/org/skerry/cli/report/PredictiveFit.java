@@ -1,9 +1,6 @@
 package org.skerry.cli.report;
 
 import java.util.List;
-import org.skerry.cli.runfile.ModelBuilder;
-import org.skerry.cli.runfile.RunSpec;
-import org.skerry.engine.model.Model;
 import org.skerry.engine.model.PredictiveModel;
 import org.skerry.engine.model.predictive.PosteriorPredictive;
 import org.skerry.engine.model.predictive.PredictiveSummary;
@@ -23,20 +20,13 @@ record PredictiveFit(PredictiveSummary summary, String note) {
         return summary != null;
     }
 
-    static PredictiveFit of(RunSpec spec, List<String> parameters, List<double[]> values, double[] weights,
-            long seed) {
-        Model model;
-        try {
-            model = ModelBuilder.build(spec).model();
-        } catch (RuntimeException e) {
-            return none("the model could not be built again from run.conf: " + e.getMessage());
+    static PredictiveFit of(RebuiltModel rebuilt, List<String> parameters, List<double[]> values,
+            double[] weights, long seed) {
+        if (rebuilt.model() == null) {
+            return none(rebuilt.note());
         }
-        if (!(model instanceof PredictiveModel predictive)) {
-            return none("model " + spec.model().label() + " offers no predictions of its data");
-        }
-        if (!model.parameters().names().equals(parameters)) {
-            return none("the model built from run.conf has the parameters " + model.parameters().names()
-                    + ", summary.json " + parameters);
+        if (!(rebuilt.model() instanceof PredictiveModel predictive)) {
+            return none("model " + rebuilt.label() + " offers no predictions of its data");
         }
         int d = parameters.size();
         int n = weights.length;

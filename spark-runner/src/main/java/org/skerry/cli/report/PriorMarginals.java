@@ -3,8 +3,6 @@ package org.skerry.cli.report;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.function.DoubleUnaryOperator;
-import org.skerry.cli.runfile.ModelBuilder;
-import org.skerry.cli.runfile.RunSpec;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.model.prior.IndependentPrior;
@@ -12,7 +10,7 @@ import org.skerry.engine.model.prior.MultivariateNormalPrior;
 
 /**
  * Each parameter's prior density, for the overlay on its posterior histogram: the model is built
- * again from the run's {@code run.conf} by the code the run used ({@link ModelBuilder}), and the
+ * again from the run's {@code run.conf} by the code the run used ({@link RebuiltModel}), and the
  * marginals are read off an independent or multivariate normal prior. Any other prior, or a model
  * that cannot be built here (a data file moved, a class not on the class path), gives no overlay
  * and a note saying why: the report does not need it.
@@ -30,17 +28,11 @@ record PriorMarginals(List<DoubleUnaryOperator> densities, String note) {
         return note == null;
     }
 
-    static PriorMarginals of(RunSpec spec, List<String> parameters) {
-        Model model;
-        try {
-            model = ModelBuilder.build(spec).model();
-        } catch (RuntimeException e) {
-            return none("the model could not be built again from run.conf: " + e.getMessage());
+    static PriorMarginals of(RebuiltModel rebuilt, List<String> parameters) {
+        if (rebuilt.model() == null) {
+            return none(rebuilt.note());
         }
-        if (!model.parameters().names().equals(parameters)) {
-            return none("the model built from run.conf has the parameters " + model.parameters().names()
-                    + ", summary.json " + parameters);
-        }
+        Model model = rebuilt.model();
         Prior prior = model.prior();
         List<DoubleUnaryOperator> densities = new ArrayList<>();
         if (prior instanceof IndependentPrior independent) {

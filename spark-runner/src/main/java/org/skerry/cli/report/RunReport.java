@@ -94,9 +94,10 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
         names.forEach(n -> values.add(particles.column(n)));
         RunSpec spec = settings(folder.resolve(RunConfFile.FILE_NAME));
         MoveSettings moves = spec.sampler().moves();
+        RebuiltModel rebuilt = RebuiltModel.of(spec, names);
         return new RunReport(folder, summary, iterations, values, weights, spec.sampler().resampling().threshold(),
-                moves.fixedSteps() == 0 ? moves.maxSteps() : 0, PriorMarginals.of(spec, names),
-                PredictiveFit.of(spec, names, values, weights, summary.seed()));
+                moves.fixedSteps() == 0 ? moves.maxSteps() : 0, PriorMarginals.of(rebuilt, names),
+                PredictiveFit.of(rebuilt, names, values, weights, summary.seed()));
     }
 
     private static RunSpec settings(Path runConf) {
