@@ -9,6 +9,7 @@ import java.time.Instant;
 import java.time.ZoneOffset;
 import java.time.format.DateTimeFormatter;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.SortedMap;
 import java.util.TreeMap;
@@ -394,8 +395,12 @@ public final class Analysis {
      * report that cannot be made is a notice, not a failed run: {@code skerry report} can make it later.
      */
     private static void writeReport(Path runFolder, PrintWriter notices) {
+        long start = System.nanoTime();
         try {
-            ReportWriter.write(runFolder);
+            Path page = ReportWriter.write(runFolder);
+            // Its path, and what it cost: the report must stay a small share of a run's wall time.
+            say(notices, String.format(Locale.ROOT, "report: %s (made in %.2f s)", page,
+                    (System.nanoTime() - start) * 1e-9));
         } catch (java.io.IOException | RuntimeException e) {
             notices.println("skerry: the run's results are written, but its report could not be: " + e.getMessage()
                     + "; make it later with: skerry report " + runFolder);

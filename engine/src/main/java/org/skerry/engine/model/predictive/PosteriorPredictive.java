@@ -1,6 +1,7 @@
 package org.skerry.engine.model.predictive;
 
 import java.util.Arrays;
+import java.util.stream.IntStream;
 import org.skerry.engine.model.PredictiveModel;
 import org.skerry.engine.population.FinalParticles;
 import org.skerry.engine.random.RandomStream;
@@ -75,15 +76,28 @@ public final class PosteriorPredictive {
         }
         // By value, then by draw, so each value's replicates are contiguous for its sort.
         double[] replicates = new double[n * draws];
-        double[] parameters = new double[d];
-        double[] replicate = new double[n];
-        RandomStream random = new RandomStream(seed, StreamPurpose.PREDICTIVE, 0, 0, REPLICATE_STEP);
-        for (int k = 0; k < draws; k++) {
+        // Draws are independent and each has its own keyed stream, so they run in parallel with
+        // the same result bit for bit; a report's cost is mostly these simulations (one ODE solve each).
+        RuntimeException[] failures = new RuntimeException[draws];
+        IntStream.range(0, draws).parallel().forEach(k -> {
+            double[] parameters = new double[d];
+            double[] replicate = new double[n];
             System.arraycopy(values, chosen[k] * d, parameters, 0, d);
-            random.reset(seed, StreamPurpose.PREDICTIVE, 0, k, REPLICATE_STEP);
-            simulate(model, parameters, random, replicate, k, chosen[k]);
+            RandomStream random = new RandomStream(seed, StreamPurpose.PREDICTIVE, 0, k, REPLICATE_STEP);
+            try {
+                simulate(model, parameters, random, replicate, k, chosen[k]);
+            } catch (RuntimeException e) {
+                failures[k] = e;
+                return;
+            }
             for (int j = 0; j < n; j++) {
                 replicates[j * draws + k] = replicate[j];
+            }
+        });
+        // The first failing draw in draw order, whichever thread met it first: the same message every time.
+        for (RuntimeException failure : failures) {
+            if (failure != null) {
+                throw failure;
             }
         }
         return summary(model, replicates, n, draws);

@@ -1,0 +1,34 @@
+#!/usr/bin/env bash
+# The report's share of the demo's wall time, two ways in one script:
+#  1. within each run with the report on: the time each analysis took to make its report (the
+#     "made in" seconds skerry prints) over the demo's wall time — free of run-to-run noise;
+#  2. side by side: `skerry demo` with the report on and off (--set output.report=false), the order
+#     alternating every round so that a burst of load hits both alike; the ratio per round.
+# Usage: benchmarks/report-cost.sh ROUNDS   (from the repository root, after one `bin/skerry demo`
+# or `mvn -q -B -o -DskipTests package` so that no build is timed)
+set -euo pipefail
+rounds="${1:-3}"
+out="$(mktemp -d)"
+trap 'rm -rf "$out"' EXIT
+now() { date +%s.%N; }
+wall() {
+  local label="$1" round="$2"; shift 2
+  local start end report
+  start=$(now)
+  bin/skerry demo --out "$out/$label-$round" "$@" >/dev/null 2>"$out/$label-$round.err"
+  end=$(now)
+  report=$(sed -n 's/.*report: .* (made in \([0-9.]*\) s)$/\1/p' "$out/$label-$round.err" | awk '{ s += $1 } END { printf "%.2f", s }')
+  awk -v l="$label" -v r="$round" -v s="$start" -v e="$end" -v rep="$report" -v load="$(cut -d' ' -f1-3 /proc/loadavg)" \
+    'BEGIN { printf "%s %d wall %.2f s, reports %s s (%.1f %%), load %s\n", l, r, e - s, rep, 100 * rep / (e - s), load }'
+}
+for round in $(seq 1 "$rounds"); do
+  if [ $((round % 2)) -eq 1 ]; then
+    wall on "$round"; wall off "$round" --set output.report=false
+  else
+    wall off "$round" --set output.report=false; wall on "$round"
+  fi
+done | tee "$out/lines"
+awk '/^on / { on[$2] = $4 } /^off / { off[$2] = $4 } /^on / { share += 100 * $7 / $4; n++ }
+     END { for (r in on) { q = on[r] / off[r]; printf "round %d: on/off %.3f\n", r, q; s += q; k++ }
+           printf "mean on/off %.3f over %d rounds; reports %.1f %% of the wall time with the report on\n", s / k, k, share / n }' \
+  "$out/lines"
