@@ -6,6 +6,7 @@ import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.skerry.cli.batch.BatchRunner;
 import org.skerry.cli.output.BatchSummary;
+import org.skerry.cli.report.BatchReportWriter;
 import org.skerry.cli.runfile.BatchSpec;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
@@ -59,6 +60,9 @@ final class BatchCommand implements Callable<Integer> {
         stdout.println("summary: " + batch.folder().resolve(BatchSummary.CSV_NAME) + ", "
                 + batch.folder().resolve(BatchSummary.JSON_NAME));
         stdout.flush();
+        if (!result.stopped() && batch.analyses().get(0).run().outputs().report()) {
+            writeReport(batch.folder(), stdout, spec.commandLine().getErr());
+        }
         if (result.stopped()) {
             stdout.println("stopped on a termination signal or Ctrl-C: unfinished analyses stopped at checkpoints; run the same "
                     + "command again to resume the batch");
@@ -66,6 +70,21 @@ final class BatchCommand implements Callable<Integer> {
             return ExitCodes.STOPPED_RESUMABLE;
         }
         return result.failed() > 0 ? ExitCodes.SOME_FAILED : ExitCodes.SUCCESS;
+    }
+
+    /**
+     * The batch's report (report/index.html). The summary is written by now, so a report that
+     * cannot be made is a notice, not a failed batch: {@code skerry report} can make it later.
+     */
+    static void writeReport(Path folder, PrintWriter stdout, PrintWriter notices) {
+        try {
+            stdout.println("report: " + BatchReportWriter.write(folder));
+            stdout.flush();
+        } catch (java.io.IOException | RuntimeException e) {
+            notices.println("skerry: the results are written, but their report could not be: " + e.getMessage()
+                    + "; make it later with: skerry report " + folder);
+            notices.flush();
+        }
     }
 
     private static String plusMinus(double value, double error) {

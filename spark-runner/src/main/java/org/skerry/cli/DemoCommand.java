@@ -1,6 +1,8 @@
 package org.skerry.cli;
 
+import java.io.IOException;
 import java.io.PrintWriter;
+import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Instant;
@@ -10,6 +12,9 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.skerry.cli.batch.BatchRunner;
+import org.skerry.cli.batch.BayesFactors;
+import org.skerry.cli.output.BatchSummary;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
@@ -21,7 +26,10 @@ import picocli.CommandLine.Model.CommandSpec;
 
 /**
  * {@code skerry demo}: the Lake Quellmar demo (an invented lake with synthetic data). Calibrates
- * the plankton model of the demo buoy under both grazing variants and compares them by evidence.
+ * the plankton model of the demo buoy under both grazing variants and compares them by evidence;
+ * the comparison is written like a batch of one dataset under two variants (batch-summary.csv and
+ * .json beside the two run folders) and, unless {@code output.report = false}, reported in
+ * {@code report/index.html} there with both variants' fits side by side.
  */
 @Command(name = "demo", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = {"Run the Lake Quellmar demo: the demo buoy's synthetic chlorophyll series under the "
@@ -29,8 +37,12 @@ import picocli.CommandLine.Model.CommandSpec;
             "The lake, its water board and the data are invented; see conf/demo/README.md."})
 final class DemoCommand implements Callable<Integer> {
 
-    /** The demo's two run files, relative to conf/demo. */
+    /** The demo's two run files, relative to conf/demo; the first is the reference variant. */
     static final List<String> RUN_FILES = List.of("buoy-07-saturating.conf", "buoy-07-sigmoidal.conf");
+    /** The grazing variant of each run file, in the same order, as the comparison names them. */
+    static final List<String> VARIANTS = List.of("saturating", "sigmoidal");
+    /** The demo's dataset, as the comparison names it. */
+    static final String DATASET = "buoy-07";
 
     @Spec
     CommandSpec spec;
@@ -57,8 +69,10 @@ final class DemoCommand implements Callable<Integer> {
         stdout.println("Lake Quellmar demo (invented lake, synthetic data): buoy-07, two grazing variants");
         stdout.flush();
         List<Analysis.Outcome> outcomes = new ArrayList<>();
+        boolean report = true;
         for (String name : RUN_FILES) {
             RunSpec run = RunSpec.from(RunFile.load(folder.resolve(name), overrides));
+            report &= run.outputs().report();
             Analysis.Outcome outcome = Analysis.run(run, base.resolve(run.name()), spec.commandLine().getErr());
             ResultTable.print(outcome, stdout);
             stdout.println();
@@ -79,7 +93,32 @@ final class DemoCommand implements Callable<Integer> {
         stdout.println("Errors are single-run estimates; before a decision rests on the comparison, re-run with other"
                 + " seeds and more particles and check that the Bayes factor is stable (see README).");
         stdout.flush();
+        writeComparison(base, outcomes, stdout);
+        if (report) {
+            BatchCommand.writeReport(base, stdout, spec.commandLine().getErr());
+        }
         return ExitCodes.SUCCESS;
+    }
+
+    /**
+     * The comparison as a batch of one dataset under two variants: batch-summary.csv and .json in
+     * the demo's folder, read back from the two run folders as a batch reads its analyses, so the
+     * same report (and the same table) serves the demo and a batch.
+     */
+    private static void writeComparison(Path base, List<Analysis.Outcome> outcomes, PrintWriter stdout) {
+        List<BatchSummary.Row> rows = new ArrayList<>();
+        try {
+            for (int i = 0; i < outcomes.size(); i++) {
+                Analysis.Outcome outcome = outcomes.get(i);
+                rows.add(BatchRunner.finishedRow(DATASET, VARIANTS.get(i), outcome.spec().sampler().population().seed(),
+                        base, outcome.folder()));
+            }
+            BatchSummary.write(base, VARIANTS.get(0), BayesFactors.add(rows, VARIANTS.get(0)));
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write the demo's comparison into " + base, e);
+        }
+        stdout.println("comparison: " + base.resolve(BatchSummary.CSV_NAME));
+        stdout.flush();
     }
 
     /** A value with its error, or a note that the error cannot be trusted: never a misleading ± figure. */

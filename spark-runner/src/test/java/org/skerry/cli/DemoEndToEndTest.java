@@ -1,5 +1,6 @@
 package org.skerry.cli;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -8,10 +9,14 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.jsoup.nodes.Element;
+import org.skerry.cli.output.JsonTree;
+import org.skerry.cli.report.ReportPages;
 import org.skerry.engine.Slow;
 
 /** The demo through the real program, in a separate JVM, at small N. */
@@ -29,7 +34,8 @@ class DemoEndToEndTest {
 
     @Test
     @Slow
-    @DisplayName("skerry demo at small N: both run folders hold all five files, and the Bayes factor is printed")
+    @DisplayName("skerry demo at small N: both run folders hold all five files, the Bayes factor is printed, and "
+            + "the comparison report shows both variants' fits with the data file's values as points")
     void demoWritesEverything() throws Exception {
         Path out = folder.resolve("demo");
         Path log = folder.resolve("log.txt");
@@ -45,6 +51,42 @@ class DemoEndToEndTest {
         }
         assertTrue(text.contains("log Bayes factor, sigmoidal vs saturating"), text);
         assertTrue(text.contains("synthetic"), "the demo says its data are synthetic");
+        comparisonReport(out, text);
+    }
+
+    /**
+     * The demo's comparison report: printed, offline, every figure readable, the two grazing
+     * variants' fits side by side with the data file's chlorophyll series as their points, and the
+     * Bayes factor of the comparison's summary in its table.
+     */
+    private static void comparisonReport(Path out, String log) throws Exception {
+        Path page = out.resolve("report").resolve("index.html");
+        assertTrue(log.contains("report: " + page), log);
+        ReportPages.assertOffline(out);
+        ReportPages.assertFiguresRead(out);
+        assertTrue(ReportPages.page(out).title().startsWith("Comparison report"));
+        org.w3c.dom.Element svg = ReportPages.svg(out.resolve("report").resolve("fits-01-buoy-07.svg"));
+        assertEquals("saturating sigmoidal", svg.getAttribute("data-variants"));
+        List<double[]> rows = new ArrayList<>();
+        for (String line : Files.readAllLines(DEMO.resolve("data").resolve("buoy-07.csv"))) {
+            if (!line.startsWith("#") && !line.startsWith("day")) {
+                String[] fields = line.split(",");
+                rows.add(new double[] {Double.parseDouble(fields[0]), Double.parseDouble(fields[1])});
+            }
+        }
+        for (int panel = 1; panel <= 2; panel++) {
+            String prefix = "data-panel-" + panel + "-";
+            assertArrayEquals(rows.stream().mapToDouble(r -> r[0]).toArray(),
+                    ReportPages.numbers(svg.getAttribute(prefix + "positions")), 0.0, "days of the data file");
+            assertArrayEquals(rows.stream().mapToDouble(r -> r[1]).toArray(),
+                    ReportPages.numbers(svg.getAttribute(prefix + "observed")), 0.0, "chlorophyll of the data file");
+        }
+        Map<String, Object> summary = JsonTree.read(out.resolve("batch-summary.json"));
+        @SuppressWarnings("unchecked")
+        Map<String, Object> sigmoidal = ((List<Map<String, Object>>) summary.get("analyses")).get(1);
+        assertEquals("sigmoidal", sigmoidal.get("variant"));
+        Element cell = ReportPages.page(out).selectFirst("tr[data-variant=sigmoidal] td[data-key=log_bayes_factor]");
+        assertEquals(((Number) sigmoidal.get("log_bayes_factor")).doubleValue(), ReportPages.value(cell), 0.0);
     }
 
     @Test

@@ -285,10 +285,7 @@ public final class BatchRunner {
         String relative = spec.folder().relativize(folder).toString().replace('\\', '/');
         if (Files.isRegularFile(folder.resolve(SummaryJson.FILE_NAME))) {
             try {
-                RunSummaryReader.RunSummary s = RunSummaryReader.read(folder);
-                return new BatchSummary.Row(p.dataset().name(), p.variant().name(), SUCCEEDED, s.logEvidence(),
-                        s.logEvidenceError(), Double.NaN, Double.NaN, s.iterations(), s.likelihoodEvaluations(),
-                        s.parameters(), p.seed(), relative, RunSummaryReader.wallSeconds(folder), null);
+                return finishedRow(p.dataset().name(), p.variant().name(), p.seed(), spec.folder(), folder);
             } catch (IOException e) {
                 return failedRow(p, relative, "cannot read its summary.json: " + e.getMessage());
             }
@@ -300,6 +297,19 @@ public final class BatchRunner {
         return new BatchSummary.Row(p.dataset().name(), p.variant().name(),
                 running.contains(p.label()) ? RUNNING : WAITING, Double.NaN, Double.NaN,
                 Double.NaN, Double.NaN, -1, -1, Map.of(), p.seed(), relative, Double.NaN, null);
+    }
+
+    /**
+     * The summary row of a finished analysis, read back from the files of its run folder (the
+     * Bayes factor left NaN for {@link BayesFactors#add}); the demo's comparison uses it too.
+     */
+    public static BatchSummary.Row finishedRow(String dataset, String variant, long seed, Path batchFolder,
+            Path runFolder) throws IOException {
+        RunSummaryReader.RunSummary s = RunSummaryReader.read(runFolder);
+        String relative = batchFolder.relativize(runFolder).toString().replace('\\', '/');
+        return new BatchSummary.Row(dataset, variant, SUCCEEDED, s.logEvidence(), s.logEvidenceError(), Double.NaN,
+                Double.NaN, s.iterations(), s.likelihoodEvaluations(), s.parameters(), seed, relative,
+                RunSummaryReader.wallSeconds(runFolder), null);
     }
 
     private static BatchSummary.Row failedRow(BatchSpec.Planned p, String folder, String message) {

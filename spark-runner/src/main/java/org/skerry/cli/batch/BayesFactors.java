@@ -12,12 +12,13 @@ import org.skerry.cli.output.BatchSummary;
  * independent (their seeds differ). Left NaN for the reference's own rows and where either
  * analysis has no evidence (failed or not yet run).
  */
-final class BayesFactors {
+public final class BayesFactors {
 
     private BayesFactors() {
     }
 
-    static List<BatchSummary.Row> add(List<BatchSummary.Row> rows, String referenceVariant) {
+    /** {@code rows} with each non-reference row's log Bayes factor and its error filled in. */
+    public static List<BatchSummary.Row> add(List<BatchSummary.Row> rows, String referenceVariant) {
         Map<String, BatchSummary.Row> reference = new HashMap<>();
         for (BatchSummary.Row r : rows) {
             if (r.variant().equals(referenceVariant)) {

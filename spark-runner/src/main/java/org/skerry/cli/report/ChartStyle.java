@@ -37,6 +37,15 @@ final class ChartStyle {
             new float[] {8f, 5f}, 0f);
     static final Shape DOT = new Ellipse2D.Double(-3.5, -3.5, 7, 7);
 
+    /** Markers told apart by shape, so series stay distinct in grey print too. */
+    private static final Shape[] MARKERS = {
+        new Ellipse2D.Double(-5, -5, 10, 10),
+        new java.awt.geom.Rectangle2D.Double(-4.5, -4.5, 9, 9),
+        new java.awt.Polygon(new int[] {0, 6, -6}, new int[] {-6, 5, 5}, 3),
+        new java.awt.Polygon(new int[] {0, 6, 0, -6}, new int[] {-6, 0, 6, 0}, 4),
+        new java.awt.Polygon(new int[] {-6, 6, 0}, new int[] {-5, -5, 6}, 3),
+    };
+
     private ChartStyle() {
     }
 
@@ -54,6 +63,12 @@ final class ChartStyle {
         }
         if (chart.getPlot() instanceof XYPlot plot) {
             xyPlot(plot);
+        } else if (chart.getPlot() instanceof org.jfree.chart.plot.CategoryPlot plot) {
+            plot.setBackgroundPaint(Palette.BACKGROUND);
+            plot.setRangeGridlinePaint(Palette.GRID);
+            plot.getDomainAxis().setLabelFont(LABEL);
+            plot.getDomainAxis().setTickLabelFont(TICK);
+            axis(plot.getRangeAxis());
         }
         return chart;
     }
@@ -73,6 +88,25 @@ final class ChartStyle {
             axis.setLabelFont(LABEL);
             axis.setTickLabelFont(TICK);
         }
+    }
+
+    /** The marker of series {@code i} (from 0): circle, square, triangle, diamond, then again. */
+    static Shape marker(int i) {
+        return MARKERS[Math.floorMod(i, MARKERS.length)];
+    }
+
+    /** A legend entry drawn as a filled box of the given paint, as bars and shaded areas are. */
+    static LegendItem boxItem(String label, Paint paint) {
+        LegendItem item = new LegendItem(label, paint);
+        item.setLabelFont(LEGEND);
+        return item;
+    }
+
+    /** A legend entry drawn as the given marker. */
+    static LegendItem markerItem(String label, Paint paint, Shape shape) {
+        LegendItem item = new LegendItem(label, null, null, null, shape, paint);
+        item.setLabelFont(LEGEND);
+        return item;
     }
 
     /** A legend entry drawn as a line of the given paint and stroke. */

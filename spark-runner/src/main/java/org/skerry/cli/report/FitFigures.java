@@ -32,18 +32,15 @@ final class FitFigures {
     record Written(FigureFile.Written fit, FigureFile.Written residuals) {
     }
 
+    /** The 95 % band's fill: a light tint of sky blue, so the 50 % band stands out inside it. */
+    private static final Color WIDE_BAND = new Color(0xCFE6F6);
+
     private FitFigures() {
     }
 
     static Written write(PredictiveFit fit, Path folder) throws IOException {
         PredictiveSummary s = fit.summary();
-        Map<String, String> data = new LinkedHashMap<>();
-        data.put("data-positions", numbers(s.positions()));
-        data.put("data-observed", numbers(s.observed()));
-        data.put("data-predictive-mean", numbers(s.mean()));
-        data.put("data-predictive-sd", numbers(s.sd()));
-        data.put("data-q2-5", numbers(s.quantile(0)));
-        data.put("data-q97-5", numbers(s.quantile(4)));
+        Map<String, String> data = bandData(s, "");
         FigureFile.Written bands = FigureFile.write(folder, "fit-data", ChartStyle.WIDTH, ChartStyle.HEIGHT,
                 bandChart(s)::draw, data);
         Map<String, String> residualData = new LinkedHashMap<>();
@@ -55,6 +52,18 @@ final class FitFigures {
     }
 
     private static JFreeChart bandChart(PredictiveSummary s) {
+        XYPlot plot = bandPlot(s);
+        plot.setFixedLegendItems(bandLegend());
+        return ChartStyle.apply(new JFreeChart("Fit against the data", ChartStyle.TITLE, plot, true),
+                s.draws() + " replicate datasets from weighted posterior draws; about 1 point in 20 should lie "
+                        + "outside the 95 % band");
+    }
+
+    /**
+     * The observed values over the 95 % and 50 % predictive bands and the predictive median, with
+     * labelled axes; the comparison of variants puts several side by side.
+     */
+    static XYPlot bandPlot(PredictiveSummary s) {
         double[] x = s.positions();
         XYPlot plot = new XYPlot();
         plot.setDomainAxis(new NumberAxis(label(s.positionQuantity())));
@@ -63,7 +72,7 @@ final class FitFigures {
         plot.setRangeAxis(y);
         // Bands as the area between two lines: the 95 % band below the 50 % band, the data on top.
         plot.setDataset(0, band("95 %", x, s.quantile(0), s.quantile(4)));
-        plot.setRenderer(0, bandRenderer(new Color(0xCFE6F6)));
+        plot.setRenderer(0, bandRenderer(WIDE_BAND));
         plot.setDataset(1, band("50 %", x, s.quantile(1), s.quantile(3)));
         plot.setRenderer(1, bandRenderer(Palette.SKY_BLUE));
         XYSeries median = new XYSeries("predictive median", false);
@@ -83,15 +92,29 @@ final class FitFigures {
         plot.setDataset(3, new XYSeriesCollection(observed));
         plot.setRenderer(3, dots);
         plot.setDatasetRenderingOrder(DatasetRenderingOrder.FORWARD);
+        return plot;
+    }
+
+    /** The legend of {@link #bandPlot}. */
+    static LegendItemCollection bandLegend() {
         LegendItemCollection legend = new LegendItemCollection();
         legend.add(item("observed (the data file)", Palette.VERMILLION));
         legend.add(ChartStyle.lineItem("posterior predictive median", Palette.BLUE, ChartStyle.LINE));
         legend.add(item("50 % predictive band", Palette.SKY_BLUE));
-        legend.add(item("95 % predictive band", new Color(0xCFE6F6)));
-        plot.setFixedLegendItems(legend);
-        return ChartStyle.apply(new JFreeChart("Fit against the data", ChartStyle.TITLE, plot, true),
-                s.draws() + " replicate datasets from weighted posterior draws; about 1 point in 20 should lie "
-                        + "outside the 95 % band");
+        legend.add(item("95 % predictive band", WIDE_BAND));
+        return legend;
+    }
+
+    /** The numbers behind a band plot as {@code data-<prefix>…} attributes. */
+    static Map<String, String> bandData(PredictiveSummary s, String prefix) {
+        Map<String, String> data = new LinkedHashMap<>();
+        data.put("data-" + prefix + "positions", numbers(s.positions()));
+        data.put("data-" + prefix + "observed", numbers(s.observed()));
+        data.put("data-" + prefix + "predictive-mean", numbers(s.mean()));
+        data.put("data-" + prefix + "predictive-sd", numbers(s.sd()));
+        data.put("data-" + prefix + "q2-5", numbers(s.quantile(0)));
+        data.put("data-" + prefix + "q97-5", numbers(s.quantile(4)));
+        return data;
     }
 
     private static JFreeChart residualChart(PredictiveSummary s) {
@@ -146,7 +169,7 @@ final class FitFigures {
         return item;
     }
 
-    private static String label(Quantity quantity) {
+    static String label(Quantity quantity) {
         return quantity.unit().isEmpty() ? quantity.label() : quantity.label() + " (" + quantity.unit() + ")";
     }
 

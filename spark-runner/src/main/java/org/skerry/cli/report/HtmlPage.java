@@ -1,35 +1,16 @@
 package org.skerry.cli.report;
 
 import java.util.List;
-import org.apache.commons.text.StringEscapeUtils;
-import org.skerry.cli.output.DoubleText;
 
 /**
- * Writes {@code index.html}: one self-contained page (inline CSS, no scripts, fonts or network
- * addresses; images referenced by file name beside it) in the order a reader needs it —
- * warnings, summary table, posteriors, pairs, the fit against the data, per-iteration diagnostics,
- * how to read them. Every
- * text from the run is escaped with Commons Text. Table cells carry the exact value in {@code
+ * Writes a run's {@code index.html}: one self-contained page (inline CSS, no scripts, fonts or
+ * network addresses; images referenced by file name beside it; the pieces every report shares in
+ * {@link PageParts}) in the order a reader needs it — warnings, summary table, posteriors, pairs,
+ * the fit against the data, per-iteration diagnostics, how to read them. Every text from the run
+ * is escaped with Commons Text. Table cells carry the exact value in {@code
  * data-value}, figures the numbers behind them, so the page can be checked against the files.
  */
 final class HtmlPage {
-
-    private static final String STYLE = """
-            body { font-family: sans-serif; max-width: 62rem; margin: 1.5rem auto; padding: 0 1rem; color: #111;
-                   line-height: 1.45; }
-            h1 { font-size: 1.6rem; } h2 { font-size: 1.3rem; margin-top: 2rem; border-bottom: 1px solid #ccc; }
-            .meta { color: #333; }
-            ul.notes { list-style: none; padding: 0; }
-            ul.notes li { padding: .5rem .75rem; margin: .4rem 0; border-left: .4rem solid #009E73; background: #f3f3f3; }
-            ul.notes li.warning { border-left-color: #D55E00; background: #fdf0e6; font-weight: bold; }
-            table { border-collapse: collapse; margin: .5rem 0 1rem; }
-            th, td { padding: .3rem .6rem; border-bottom: 1px solid #ddd; text-align: right;
-                     font-variant-numeric: tabular-nums; }
-            th:first-child { text-align: left; }
-            figure { margin: 1rem 0 2rem; } figure img { max-width: 100%; height: auto; border: 1px solid #eee; }
-            figcaption { font-size: .95rem; color: #222; }
-            @media print { body { max-width: none; } figure { break-inside: avoid; } }
-            """;
 
     private final StringBuilder html = new StringBuilder(64 * 1024);
 
@@ -47,19 +28,15 @@ final class HtmlPage {
         page.pairs(run, pairs, pairFigure);
         page.fit(run, fit);
         page.iterations(iterations);
-        page.reading();
-        page.html.append("</body>\n</html>\n");
+        PageParts.reading(page.html, "run");
+        PageParts.end(page.html);
         return page.html.toString();
     }
 
     private void head(RunReport run) {
         SummaryFile s = run.summary();
-        html.append("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n")
-                .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n")
-                .append("<title>Run report: ").append(e(s.name())).append("</title>\n<style>\n").append(STYLE)
-                .append("</style>\n</head>\n<body>\n")
-                .append("<h1>Run report: ").append(e(s.name())).append("</h1>\n")
-                .append("<p class=\"meta\">Model <b>").append(e(s.model())).append("</b>, N = ")
+        PageParts.head(html, "Run report: " + s.name());
+        html.append("<p class=\"meta\">Model <b>").append(e(s.model())).append("</b>, N = ")
                 .append(Readable.count(s.particles())).append(" particles, seed ").append(s.seed()).append(", ")
                 .append(Readable.count(s.iterations())).append(" tempering iterations, ")
                 .append(Readable.count(s.likelihoodEvaluations())).append(" likelihood evaluations. ")
@@ -69,12 +46,9 @@ final class HtmlPage {
     }
 
     private void warnings(List<Warnings.Note> notes) {
-        html.append("<section id=\"warnings\">\n<h2>Warnings and checks</h2>\n<ul class=\"notes\">\n");
-        for (Warnings.Note note : notes) {
-            html.append("<li class=\"").append(note.warning() ? "warning" : "ok").append("\">")
-                    .append(note.warning() ? "Warning: " : "Checked: ").append(e(note.text())).append("</li>\n");
-        }
-        html.append("</ul>\n</section>\n");
+        html.append("<section id=\"warnings\">\n<h2>Warnings and checks</h2>\n");
+        PageParts.notes(html, notes);
+        html.append("</section>\n");
     }
 
     private void summary(RunReport run) {
@@ -186,32 +160,16 @@ final class HtmlPage {
         html.append("</section>\n");
     }
 
-    private void reading() {
-        html.append("""
-                <section id="reading">
-                <h2>Before a decision rests on this run</h2>
-                <p>Every number here is an estimate with Monte Carlo error, and this page cannot show a mode the \
-                moves never reached. Repeat the run with other seeds and a larger N and compare; compare model \
-                variants by their evidence only where the difference is several combined errors; check the fit \
-                against the data. Conclusions that matter need an independent review of the model, the data and \
-                these results.</p>
-                </section>
-                """);
-    }
-
     private void image(FigureFile.Written files, String alt) {
-        html.append("<img src=\"").append(e(files.png())).append("\" width=\"").append(files.width())
-                .append("\" height=\"").append(files.height()).append("\" alt=\"").append(e(alt)).append("\">\n");
+        PageParts.image(html, files, alt);
     }
 
     private void links(FigureFile.Written files) {
-        html.append("Files: <a href=\"").append(e(files.png())).append("\">PNG</a>, <a href=\"")
-                .append(e(files.svg())).append("\">SVG</a>.");
+        PageParts.links(html, files);
     }
 
     private static String cell(String key, double value) {
-        return "<td data-key=\"" + e(key) + "\" data-value=\"" + DoubleText.format(value) + "\">"
-                + e(Readable.number(value)) + "</td>";
+        return PageParts.cell(key, value);
     }
 
     /** {@code q2_5} → {@code 2.5 %}. */
@@ -220,14 +178,10 @@ final class HtmlPage {
     }
 
     private static String numbers(double[] values) {
-        StringBuilder out = new StringBuilder();
-        for (double v : values) {
-            out.append(out.length() == 0 ? "" : " ").append(DoubleText.format(v));
-        }
-        return out.toString();
+        return PageParts.numbers(values);
     }
 
     private static String e(String text) {
-        return StringEscapeUtils.escapeHtml4(text);
+        return PageParts.e(text);
     }
 }

@@ -21,7 +21,19 @@ final class Palette {
     static final Color BACKGROUND = new Color(0xF7F7F7);
     static final Color GRID = new Color(0xD0D0D0);
 
+    /**
+     * Colours for series told apart by colour, in order of use: the strongest contrasts first, so
+     * two or three series (the common case) get the most distinct pair or triple.
+     */
+    static final java.util.List<Color> SERIES = java.util.List.of(BLUE, VERMILLION, BLUISH_GREEN, ORANGE,
+            REDDISH_PURPLE, SKY_BLUE, BLACK);
+
     private Palette() {
+    }
+
+    /** The colour of series {@code i} (from 0), repeating after {@link #SERIES}'s seven. */
+    static Color series(int i) {
+        return SERIES.get(Math.floorMod(i, SERIES.size()));
     }
 
     /**

@@ -1,6 +1,14 @@
 package org.skerry.cli.report;
 
+import java.io.IOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
+import java.util.function.Supplier;
 import org.skerry.engine.model.PredictiveModel;
 import org.skerry.engine.model.predictive.PosteriorPredictive;
 import org.skerry.engine.model.predictive.PredictiveSummary;
@@ -15,6 +23,52 @@ import org.skerry.engine.model.predictive.PredictiveSummary;
  * @param note    why there is no fit figure; null when there is one
  */
 record PredictiveFit(PredictiveSummary summary, String note) {
+
+    /** Fits already simulated in this JVM, by run folder and the state of its files; a few dozen suffice. */
+    private static final int REMEMBERED = 64;
+    private static final Map<Key, PredictiveFit> MEMORY = Collections.synchronizedMap(
+            new LinkedHashMap<>(16, 0.75f, true) {
+                private static final long serialVersionUID = 1L;
+
+                @Override
+                protected boolean removeEldestEntry(Map.Entry<Key, PredictiveFit> eldest) {
+                    return size() > REMEMBERED;
+                }
+            });
+
+    /** A run folder's fit inputs as they are now: the same key means the same files, hence the same fit. */
+    private record Key(Path folder, List<Long> stamps) {
+        static Key of(Path folder, List<Path> files) throws IOException {
+            List<Long> stamps = new ArrayList<>();
+            for (Path file : files) {
+                stamps.add(Files.size(file));
+                stamps.add(Files.getLastModifiedTime(file).toMillis());
+            }
+            return new Key(folder.toAbsolutePath().normalize(), stamps);
+        }
+    }
+
+    /**
+     * The fit {@code compute} gives, or the one it gave earlier in this JVM for the same files of
+     * {@code folder}: a batch's or the demo's report shows again the fits its runs' reports just
+     * simulated, and the simulation (hundreds of model solves) is the report's costly part. The
+     * fit is a function of the files and the seed, so a remembered one is the same numbers.
+     */
+    static PredictiveFit remembered(Path folder, List<Path> inputs, Supplier<PredictiveFit> compute) {
+        Key key;
+        try {
+            key = Key.of(folder, inputs);
+        } catch (IOException e) {
+            return compute.get();
+        }
+        PredictiveFit known = MEMORY.get(key);
+        if (known != null) {
+            return known;
+        }
+        PredictiveFit fit = compute.get();
+        MEMORY.put(key, fit);
+        return fit;
+    }
 
     boolean available() {
         return summary != null;

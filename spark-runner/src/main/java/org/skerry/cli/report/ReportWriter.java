@@ -31,11 +31,15 @@ public final class ReportWriter {
         if (runFolder == null) {
             throw new IllegalArgumentException("runFolder must not be null");
         }
-        RunReport run = RunReport.read(runFolder);
+        return write(RunReport.read(runFolder));
+    }
+
+    /** Writes the report of a run already read and checked; returns the page's path. */
+    static Path write(RunReport run) throws IOException {
         List<Warnings.Note> notes = Warnings.of(run);
         PairSelection pairs = PairSelection.of(run.values(), run.weights());
         System.setProperty("java.awt.headless", "true");
-        Path folder = runFolder.resolve(FOLDER);
+        Path folder = run.folder().resolve(FOLDER);
         Files.createDirectories(folder);
         List<PosteriorFigures.Figure> posteriors = PosteriorFigures.write(run, folder);
         FigureFile.Written pairFigure = run.parameters().size() >= 2 ? PairFigure.write(run, pairs, folder) : null;

@@ -97,7 +97,8 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
         RebuiltModel rebuilt = RebuiltModel.of(spec, names);
         return new RunReport(folder, summary, iterations, values, weights, spec.sampler().resampling().threshold(),
                 moves.fixedSteps() == 0 ? moves.maxSteps() : 0, PriorMarginals.of(rebuilt, names),
-                PredictiveFit.of(rebuilt, names, values, weights, summary.seed()));
+                PredictiveFit.remembered(folder, List.of(summaryFile, particlesFile, folder.resolve(RunConfFile.FILE_NAME)),
+                        () -> PredictiveFit.of(rebuilt, names, values, weights, summary.seed())));
     }
 
     private static RunSpec settings(Path runConf) {

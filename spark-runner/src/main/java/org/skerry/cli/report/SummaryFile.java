@@ -34,7 +34,7 @@ record SummaryFile(Path file, String name, String model, double logEvidence, dou
 
     static SummaryFile read(Path file) {
         Map<String, Object> json = JsonValues.readObject(file);
-        Reader r = new Reader(file, json);
+        JsonFields r = new JsonFields(file, json);
         Map<String, Object> parameterObjects = r.object(json, "parameters", "parameters");
         Map<String, ParameterSummary> parameters = new LinkedHashMap<>();
         List<String> quantileKeys = new ArrayList<>();
@@ -72,81 +72,5 @@ record SummaryFile(Path file, String name, String model, double logEvidence, dou
     private static String describe(Map<?, ?> first) {
         return "iteration " + first.get("iteration") + ", particle " + first.get("particle") + ": "
                 + first.get("reason") + (first.get("parameters") == null ? "" : " at " + first.get("parameters"));
-    }
-
-    /** Typed look-ups whose errors name the file and the key. */
-    private record Reader(Path file, Map<String, Object> json) {
-
-        String text(String key) {
-            String value = optionalText(key);
-            if (value == null) {
-                throw missing(key, "a text");
-            }
-            return value;
-        }
-
-        String optionalText(String key) {
-            Object value = json.get(key);
-            if (value != null && !(value instanceof String)) {
-                throw wrong(key, value, "a text or null");
-            }
-            return (String) value;
-        }
-
-        boolean flag(String key) {
-            Object value = json.get(key);
-            if (!(value instanceof Boolean)) {
-                throw value == null ? missing(key, "true or false") : wrong(key, value, "true or false");
-            }
-            return (Boolean) value;
-        }
-
-        long whole(String key) {
-            Object value = json.get(key);
-            if (!(value instanceof Long)) {
-                throw value == null ? missing(key, "a whole number") : wrong(key, value, "a whole number");
-            }
-            return (Long) value;
-        }
-
-        long count(String key) {
-            long value = whole(key);
-            if (value < 0) {
-                throw wrong(key, value, "a count (0 or more)");
-            }
-            return value;
-        }
-
-        /** A number; JSON null (how a non-finite number is written) reads as NaN. */
-        double number(Map<String, Object> in, String key, String where) {
-            if (!in.containsKey(key)) {
-                throw missing(where, "a number");
-            }
-            Object value = in.get(key);
-            if (value == null) {
-                return Double.NaN;
-            }
-            if (!(value instanceof Number)) {
-                throw wrong(where, value, "a number");
-            }
-            return ((Number) value).doubleValue();
-        }
-
-        @SuppressWarnings("unchecked")
-        Map<String, Object> object(Map<String, Object> in, String key, String where) {
-            Object value = in.get(key);
-            if (!(value instanceof Map)) {
-                throw value == null ? missing(where, "an object") : wrong(where, value, "an object");
-            }
-            return (Map<String, Object>) value;
-        }
-
-        ReportInputException missing(String key, String what) {
-            return new ReportInputException(file + ": key " + key + " is missing (expected " + what + ")");
-        }
-
-        ReportInputException wrong(String key, Object value, String what) {
-            return new ReportInputException(file + ": key " + key + " is " + value + ", expected " + what);
-        }
     }
 }

@@ -9,6 +9,7 @@ import java.util.List;
 import java.util.concurrent.Callable;
 import org.skerry.cli.ExitCodes;
 import org.skerry.cli.Version;
+import org.skerry.cli.report.StudyReportWriter;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
@@ -18,7 +19,8 @@ import picocli.CommandLine.Model.CommandSpec;
 /** {@code skerry scale STUDY_FILE}: a scaling study — runs a grid of runs and tabulates and plots how they scale. */
 @Command(name = "scale", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = {"Run a scaling study: every point of the study file's grid, repeated; resume a half-finished one.",
-            "Writes scaling.csv (one row per run), speed-up, efficiency and phase plots (PNG and SVG) and summary.md.",
+            "Writes scaling.csv (one row per run), speed-up, efficiency and phase plots (PNG and SVG), summary.md and, "
+                + "unless the study's settings say output.report = false, report/index.html.",
             "Study file keys and defaults: study-defaults.conf in the jar (spark-runner/src/main/resources)."})
 public final class ScaleCommand implements Callable<Integer> {
 
@@ -60,10 +62,27 @@ public final class ScaleCommand implements Callable<Integer> {
             stdout.println("study folder: " + folder);
             stdout.println("  " + csv.getFileName() + ", " + summary.getFileName() + ", "
                     + String.join(", ", plots.stream().map(p -> p.getFileName().toString()).toList()));
+            if (study.points().get(0).spec().outputs().report()) {
+                writeReport(folder, stdout, spec.commandLine().getErr());
+            }
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write the study's results into " + folder, e);
         }
         stdout.flush();
         return ExitCodes.SUCCESS;
+    }
+
+    /**
+     * The study's report (report/index.html). The table and plots are written by now, so a report
+     * that cannot be made is a notice, not a failed study: {@code skerry report} can make it later.
+     */
+    private static void writeReport(Path folder, PrintWriter stdout, PrintWriter notices) {
+        try {
+            stdout.println("  report: " + StudyReportWriter.write(folder));
+        } catch (IOException | RuntimeException e) {
+            notices.println("skerry: the study's results are written, but its report could not be: " + e.getMessage()
+                    + "; make it later with: skerry report " + folder);
+            notices.flush();
+        }
     }
 }
