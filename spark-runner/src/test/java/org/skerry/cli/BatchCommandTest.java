@@ -54,7 +54,8 @@ class BatchCommandTest {
                         + ", sd = " + WIDE_SD + " } } }",
                 "sampler { particles = 400 }",
                 backend,
-                "output.progress = off", ""));
+                // Reports are BatchReportTest's subject; here they would only cost time (10 batches of 6 runs).
+                "output.progress = off", "output.report = false", ""));
     }
 
     private Path batch(String... lines) throws IOException {
