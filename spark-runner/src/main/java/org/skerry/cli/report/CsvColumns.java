@@ -1,5 +1,6 @@
 package org.skerry.cli.report;
 
+import com.fasterxml.jackson.core.io.NumberInput;
 import java.io.IOException;
 import java.io.Reader;
 import java.io.UncheckedIOException;
@@ -102,7 +103,10 @@ record CsvColumns(Path file, List<String> header, Map<String, double[]> columns,
             }
             default -> {
                 try {
-                    return Double.parseDouble(text);
+                    // Jackson's bundled fast parser (Lemire's method), correctly rounded like
+                    // parseDouble but several times faster on 17-digit numbers: a report of 10⁵
+                    // particles spent half its time here.
+                    return NumberInput.parseDouble(text, true);
                 } catch (NumberFormatException e) {
                     throw new ReportInputException(file + " line " + line + " column " + column + ": '" + text
                             + "' is not a number");
