@@ -166,10 +166,20 @@ public final class AbcSequence implements TargetSequence {
                     }
                 }
             }
-            // Under new distance weights the last tolerance is in other units: every distance is a candidate.
-            boolean sameDistance = java.util.Arrays.equals(weights, from.weights());
-            double chosen = ToleranceChoice.next(logWeight, oldKernel, distances, m,
-                    sameDistance ? from.tolerance() : Double.POSITIVE_INFINITY, settings.essFactor(), settings.kernel());
+            // Under new distance weights the last tolerance is in other units. The new tolerance stays
+            // within the one whose ball holds the last ball, ε·maxₖ(w′ₖ/wₖ), so it never loosens; within
+            // that, the ESS rule chooses.
+            double bound = from.tolerance();
+            double[] last = from.weights();
+            if (last != null && bound < Double.POSITIVE_INFINITY) {
+                double ratio = 1.0;
+                for (int k = 0; k < s; k++) {
+                    ratio = Math.max(ratio, weights[k] / last[k]);
+                }
+                bound *= ratio;
+            }
+            double chosen = ToleranceChoice.next(logWeight, oldKernel, distances, m, bound, settings.essFactor(),
+                    settings.kernel());
             if (Double.isNaN(chosen)) {
                 throw new IllegalStateException("the tolerance cannot fall below " + from.tolerance()
                         + ": no living particle's simulation lies closer to the observed summaries");
