@@ -39,6 +39,52 @@ public interface SummarySimulator extends Model {
     }
 
     /**
+     * Calls the simulator once at a prior draw to see that it writes as many summaries as it names
+     * (a stream of its own purpose, so no run's answer changes): what can be known about the
+     * simulator before a run.
+     *
+     * @return null when it does, else what is wrong, naming the counts
+     */
+    static String checkSummaryCount(SummarySimulator simulator, long seed) {
+        int count = simulator.summaryNames().size();
+        org.skerry.engine.random.RandomStream random = new org.skerry.engine.random.RandomStream(seed,
+                org.skerry.engine.random.StreamPurpose.MODEL_CHECK, 0, 0, 0);
+        double[] x = new double[simulator.dimension()];
+        simulator.prior().sample(random, x);
+        double[] out = new double[count + 1];
+        java.util.Arrays.fill(out, Double.NaN);
+        LikelihoodContext context = new LikelihoodContext() {
+            @Override
+            public org.skerry.engine.random.RandomStream random() {
+                return random;
+            }
+
+            @Override
+            public long particleIndex() {
+                return 0;
+            }
+
+            @Override
+            public int iteration() {
+                return 0;
+            }
+        };
+        String names = count + " summaries " + simulator.summaryNames();
+        try {
+            simulator.simulate(x, context, out);
+        } catch (ArrayIndexOutOfBoundsException e) {
+            return "the simulator wrote more summaries than the " + names + " it names (" + e.getMessage() + ")";
+        } catch (RuntimeException e) {
+            // A simulation that fails is an invalid simulation, counted during the run, not a wrong count.
+            return null;
+        }
+        if (!Double.isNaN(out[count])) {
+            return "the simulator wrote more summaries than the " + names + " it names";
+        }
+        return null;
+    }
+
+    /**
      * {@code model} as a simulator.
      *
      * @throws IllegalArgumentException naming the model's class when it simulates no summaries
