@@ -32,7 +32,7 @@ public record SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> pa
 
     /** The last iteration's ABC record (tolerance, simulations), or null for a run without tolerances. */
     public ToleranceRecord lastTolerance() {
-        return iterations.get(iterations.size() - 1).abc();
+        return iterations.isEmpty() ? null : iterations.get(iterations.size() - 1).abc();
     }
 
     /** Simulations of the whole run (ABC), 0 for a run without tolerances. */

@@ -92,7 +92,8 @@ public final class ModelBuilder {
                 String key = message.contains("distance weight") ? "sampler.abc.distance-weights"
                         : message.contains("observed") ? (spec.file().config().hasPath("sampler.abc.observed-file")
                                 ? "sampler.abc.observed-file" : "sampler.abc.observed") : "sampler.abc";
-                throw new RunFileException(where(spec, key) + ": model " + spec.model().label() + ": " + message, e);
+                throw new RunFileException(where(spec, key) + ": " + key + ": model " + spec.model().label() + ": "
+                        + message, e);
             }
             String wrong = SummarySimulator.checkSummaryCount(simulator, spec.sampler().population().seed());
             if (wrong != null) {
