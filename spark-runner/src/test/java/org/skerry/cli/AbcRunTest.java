@@ -94,6 +94,50 @@ class AbcRunTest {
     }
 
     @Test
+    @DisplayName("resumed from the first, a middle and the last checkpoint (driver state format 2 and blocks with "
+            + "kept summaries), on other threads and blocks: the same bytes, tolerance columns included")
+    void resumes() throws IOException {
+        CommandRunner.Result whole = run(RUN, "whole", "checkpoint.keep=100", "sampler.abc.distance-weights=null");
+        assertEquals(ExitCodes.SUCCESS, whole.exitCode(), whole.err());
+        Path checkpoints = folder.resolve("whole/checkpoints");
+        List<Path> saved;
+        try (java.util.stream.Stream<Path> entries = Files.list(checkpoints)) {
+            saved = entries.filter(p -> p.getFileName().toString().startsWith("iteration-")).sorted().toList();
+        }
+        assertTrue(saved.size() >= 4, "checkpoints: " + saved);
+        for (int k : new int[] {0, saved.size() / 2, saved.size() - 2}) {
+            Path crashed = folder.resolve("crashed-" + k);
+            Files.createDirectories(crashed.resolve("checkpoints"));
+            Files.copy(folder.resolve("whole/run.conf"), crashed.resolve("run.conf"));
+            for (Path checkpoint : saved.subList(0, k + 1)) {
+                Path to = crashed.resolve("checkpoints").resolve(checkpoint.getFileName());
+                Files.createDirectories(to);
+                try (java.util.stream.Stream<Path> files = Files.list(checkpoint)) {
+                    for (Path file : files.toList()) {
+                        Files.copy(file, to.resolve(file.getFileName()));
+                    }
+                }
+            }
+            CommandRunner.Result resumed = CommandRunner.run("resume", crashed.toString(), "--set", "backend.threads=3",
+                    "--set", "backend.block-size=11", "--set", "output.progress=off");
+            assertEquals(ExitCodes.SUCCESS, resumed.exitCode(), resumed.err());
+            for (String file : List.of("summary.json", "particles.csv")) {
+                assertEquals(Files.readString(folder.resolve("whole").resolve(file)),
+                        Files.readString(crashed.resolve(file)), "resumed after checkpoint " + k + ": " + file);
+            }
+            assertEquals(abcColumns(folder.resolve("whole")), abcColumns(crashed), "tolerance columns after " + k);
+        }
+    }
+
+    /** The iteration, tolerance, share and simulation columns of a run folder's iterations.csv. */
+    private static List<String> abcColumns(Path run) throws IOException {
+        return Files.readAllLines(run.resolve("iterations.csv")).stream().map(row -> {
+            String[] cells = row.split(",", -1);
+            return cells[0] + "," + String.join(",", java.util.Arrays.copyOfRange(cells, cells.length - 3, cells.length));
+        }).toList();
+    }
+
+    @Test
     @DisplayName("a final tolerance the budget cannot reach: exit 0, the result kept, the end explained")
     void unreachableTolerance() throws IOException {
         CommandRunner.Result result = run(RUN, "budget", "sampler.abc.final-tolerance=1e-9",
