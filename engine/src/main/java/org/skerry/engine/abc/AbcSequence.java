@@ -181,8 +181,9 @@ public final class AbcSequence implements TargetSequence {
             double chosen = ToleranceChoice.next(logWeight, oldKernel, distances, m, bound, settings.essFactor(),
                     settings.kernel());
             if (Double.isNaN(chosen)) {
-                throw new IllegalStateException("the tolerance cannot fall below " + from.tolerance()
-                        + ": no living particle's simulation lies closer to the observed summaries");
+                throw new org.skerry.engine.sampler.SamplingFailedException(iteration, "the tolerance cannot fall "
+                        + "below " + from.tolerance() + ": no living particle's simulation lies closer to the observed "
+                        + "summaries (set sampler.abc.acceptance-floor or a larger final tolerance)");
             }
             tolerance = Math.max(chosen, settings.finalTolerance());
         }
