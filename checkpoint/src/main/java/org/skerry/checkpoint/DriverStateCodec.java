@@ -15,17 +15,22 @@ import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.sampler.IterationRecord;
 import org.skerry.engine.sampler.PhaseTimes;
 import org.skerry.engine.sampler.SamplerState;
+import org.skerry.engine.sampler.ToleranceRecord;
 
 /**
  * The byte form of the driver's part of a checkpoint: the settings that decide the answer (to
  * refuse a resume that would change it) and the {@link SamplerState}. Doubles are written as raw
  * IEEE-754 bits, so a resumed run continues from exactly the numbers the stopped one held.
+ * A run without tolerances is written in format 1; an ABC run in format 2, which appends each
+ * record's tolerance, share within it and simulations, and the target's state.
  */
 public final class DriverStateCodec {
 
     /** "SKDS" in ASCII. */
     private static final int MAGIC = 0x534B4453;
     private static final int VERSION = 1;
+    /** Format 1 followed by the ABC records and the target's state. */
+    private static final int VERSION_TOLERANCES = 2;
 
     /** What the driver saved. */
     public record Saved(SortedMap<String, String> answerSettings, SamplerState state) {
@@ -37,8 +42,9 @@ public final class DriverStateCodec {
     public static byte[] encode(Map<String, String> answerSettings, SamplerState state) {
         ByteArrayOutputStream bytes = new ByteArrayOutputStream();
         try (DataOutputStream out = new DataOutputStream(bytes)) {
+            boolean tolerances = state.targetState() != null;
             out.writeInt(MAGIC);
-            out.writeInt(VERSION);
+            out.writeInt(tolerances ? VERSION_TOLERANCES : VERSION);
             SortedMap<String, String> sorted = new TreeMap<>(answerSettings);
             out.writeInt(sorted.size());
             for (Map.Entry<String, String> e : sorted.entrySet()) {
@@ -66,6 +72,22 @@ public final class DriverStateCodec {
                 }
             }
             out.writeBoolean(state.islandsIndependent());
+            if (tolerances) {
+                for (IterationRecord r : state.records()) {
+                    ToleranceRecord abc = r.abc();
+                    out.writeBoolean(abc != null);
+                    if (abc != null) {
+                        writeDouble(out, abc.tolerance());
+                        writeDouble(out, abc.shareWithin());
+                        out.writeLong(abc.simulations());
+                    }
+                }
+                double[] target = state.targetState();
+                out.writeInt(target.length);
+                for (double value : target) {
+                    writeDouble(out, value);
+                }
+            }
         } catch (IOException e) {
             throw new IllegalStateException("writing to memory cannot fail", e);
         }
@@ -79,8 +101,9 @@ public final class DriverStateCodec {
             throw new IOException("not a driver state file");
         }
         int version = in.readInt();
-        if (version != VERSION) {
-            throw new IOException("driver state format version " + version + "; this build reads " + VERSION);
+        if (version != VERSION && version != VERSION_TOLERANCES) {
+            throw new IOException("driver state format version " + version + "; this build reads " + VERSION + " and "
+                    + VERSION_TOLERANCES);
         }
         int settings = in.readInt();
         SortedMap<String, String> answer = new TreeMap<>();
@@ -110,9 +133,26 @@ public final class DriverStateCodec {
             evidence[i] = readDouble(in);
         }
         boolean independent = in.readBoolean();
+        double[] target = null;
+        if (version == VERSION_TOLERANCES) {
+            for (int i = 0; i < count; i++) {
+                if (in.readBoolean()) {
+                    records.set(i, withTolerance(records.get(i),
+                            new ToleranceRecord(readDouble(in), readDouble(in), in.readLong())));
+                }
+            }
+            int length = in.readInt();
+            if (length < 0 || length > 1_000_000) {
+                throw new IOException("driver state with a target state of " + length + " values");
+            }
+            target = new double[length];
+            for (int i = 0; i < length; i++) {
+                target[i] = readDouble(in);
+            }
+        }
         try {
             return new Saved(answer, new SamplerState(iteration, temperature, scale, logEvidence, logTotal, resamplings,
-                    tally, records, sizes, evidence, independent));
+                    tally, records, sizes, evidence, independent, target));
         } catch (IllegalArgumentException e) {
             throw new IOException("inconsistent driver state: " + e.getMessage(), e);
         }
@@ -181,6 +221,13 @@ public final class DriverStateCodec {
         return new IterationRecord(iteration, temperature, ess, resampled, ancestors, moved, acceptance, steps, scale,
                 increment, logEvidence, evaluations, zero, invalid, firstInvalid, reason, times, retried,
                 failedAfterRetries, parameters);
+    }
+
+    private static IterationRecord withTolerance(IterationRecord r, ToleranceRecord abc) {
+        return new IterationRecord(r.iteration(), r.temperature(), r.ess(), r.resampled(), r.distinctAncestors(),
+                r.particlesMoved(), r.acceptanceRate(), r.mhSteps(), r.scale(), r.logEvidenceIncrement(), r.logEvidence(),
+                r.evaluations(), r.zeroLikelihood(), r.invalidEvaluations(), r.firstInvalidIndex(), r.firstInvalidReason(),
+                r.seconds(), r.retriedEvaluations(), r.failedAfterRetries(), r.firstInvalidParameters(), abc);
     }
 
     private static void writeTally(DataOutputStream out, EvaluationTally t) throws IOException {

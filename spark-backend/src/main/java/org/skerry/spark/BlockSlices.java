@@ -13,7 +13,7 @@ final class BlockSlices {
 
     /** Particles {@code [from, from+count)} of {@code block} (positions, not indices), copied. */
     static ParticleBlock slice(ParticleBlock block, int from, int count) {
-        ParticleBlock piece = new ParticleBlock(block.dimension(), count);
+        ParticleBlock piece = ParticleBlock.shapedLike(block, count);
         piece.resize(count);
         for (int i = 0; i < count; i++) {
             piece.copyParticle(block, from + i, i);
@@ -25,7 +25,10 @@ final class BlockSlices {
     static ParticleBlock join(int dimension, List<ParticleBlock> pieces) {
         List<ParticleBlock> sorted = new ArrayList<>();
         int total = 0;
+        int width = 0;
         for (ParticleBlock piece : pieces) {
+            // Every block of a population has the same auxiliary width; an empty piece may not know it.
+            width = Math.max(width, piece.auxiliaryWidth());
             if (piece.size() > 0) {
                 sorted.add(piece);
                 total += piece.size();
@@ -33,6 +36,7 @@ final class BlockSlices {
         }
         sorted.sort(Comparator.comparingLong(piece -> piece.index()[0]));
         ParticleBlock block = new ParticleBlock(dimension, total);
+        block.attachAuxiliary(width);
         block.resize(total);
         int at = 0;
         for (ParticleBlock piece : sorted) {

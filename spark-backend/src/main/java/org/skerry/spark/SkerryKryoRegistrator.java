@@ -38,6 +38,7 @@ public final class SkerryKryoRegistrator implements KryoRegistrator {
         kryo.register(BlockReports.Totals.class);
         kryo.register(BlockReports.Resampled.class);
         kryo.register(BlockReports.Increments.class);
+        kryo.register(BlockReports.Auxiliary.class);
         kryo.register(EvaluationTally.class);
         kryo.register(MoveTally.class);
         kryo.register(MomentSums.class, new MomentSumsSerializer());

@@ -17,6 +17,8 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.EnumSource;
 import org.skerry.engine.Slow;
+import org.skerry.engine.abc.AbcKernel;
+import org.skerry.engine.abc.AbcSettings;
 import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.builtin.NormalMeanModel;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
@@ -101,6 +103,32 @@ class SparkLocalModeTest {
             assertEquals(fingerprint(reference), fingerprint(spark), partitions + " partitions");
             assertArrayEquals(reference.particles().values(), spark.particles().values());
             assertArrayEquals(reference.normalisedWeights(), spark.normalisedWeights());
+        }
+    }
+
+    @Test
+    @DisplayName("ABC (MAD-scaled distance, M = 2; uniform and Gaussian kernels): bit-identical to the thread backend "
+            + "for 1, 3 and 8 partitions, tolerances and simulations included")
+    void abcBitIdentical() {
+        ModelSource source = new SimulatorSource(new double[] {0.4, 1.9, 1.1, 0.7, 1.6});
+        for (AbcKernel kernel : AbcKernel.values()) {
+            SamplerSettings settings = SamplerSettings.builder().particles(240).seed(23)
+                    .targets(SequenceSettings.abc(AbcSettings.of(0.05).withSimulations(2).withKernel(kernel))).build();
+            SamplerResult reference;
+            try (ThreadPoolBackend backend = new ThreadPoolBackend(2, 0)) {
+                reference = new SmcSampler(settings).run(source, backend, IterationListener.NONE);
+            }
+            assertTrue(reference.iterations().size() > 3, "several tolerances: " + reference.iterations().size());
+            for (int partitions : new int[] {1, 3, 8}) {
+                SamplerResult spark = new SmcSampler(settings).run(source, SparkBackend.on(context, partitions),
+                        IterationListener.NONE);
+                String where = kernel + ", " + partitions + " partitions";
+                assertEquals(fingerprint(reference), fingerprint(spark), where);
+                assertEquals(reference.iterations().stream().map(r -> String.valueOf(r.abc())).toList(),
+                        spark.iterations().stream().map(r -> String.valueOf(r.abc())).toList(), where);
+                assertArrayEquals(reference.particles().values(), spark.particles().values(), where);
+                assertArrayEquals(reference.normalisedWeights(), spark.normalisedWeights(), where);
+            }
         }
     }
 

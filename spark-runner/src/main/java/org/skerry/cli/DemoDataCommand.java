@@ -10,6 +10,7 @@ import org.skerry.cli.output.AtomicFile;
 import org.skerry.engine.model.plankton.QuellmarBuoy;
 import org.skerry.engine.model.plankton.QuellmarData;
 import org.skerry.engine.model.plankton.QuellmarScenario;
+import org.skerry.engine.model.plankton.ZooplanktonRicker;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Spec;
@@ -20,7 +21,8 @@ import picocli.CommandLine.Model.CommandSpec;
  * scenario's stated true parameters, so anyone can check the demo's data and its truth.
  */
 @Command(name = "generate-demo-data", mixinStandardHelpOptions = true, versionProvider = Version.class,
-        description = "Write the synthetic chlorophyll series of the twelve (invented) Lake Quellmar buoys as CSV files.")
+        description = "Write the synthetic chlorophyll series of the twelve (invented) Lake Quellmar buoys, and the "
+                + "north basin's zooplankton tow counts, as CSV files.")
 final class DemoDataCommand implements Callable<Integer> {
 
     /** The seed the committed demo data were generated with. */
@@ -48,6 +50,9 @@ final class DemoDataCommand implements Callable<Integer> {
                 AtomicFile.writeString(file, QuellmarData.toCsv(buoy, seed, rows));
                 stdout.println("wrote " + file + " (" + rows.length + " weekly observations, synthetic)");
             }
+            Path tows = folder.resolve(ZooplanktonRicker.DEMO_FILE);
+            AtomicFile.writeString(tows, ZooplanktonRicker.demoCsv(seed));
+            stdout.println("wrote " + tows + " (" + ZooplanktonRicker.DEMO_WEEKS + " weekly tow counts, synthetic)");
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write demo data into " + folder, e);
         }

@@ -5,6 +5,7 @@ import java.util.List;
 import org.skerry.cli.report.ReportInputException;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
+import org.skerry.engine.abc.DistanceScales;
 import org.skerry.engine.sampler.InvalidEvaluationsException;
 import org.skerry.engine.sampler.SamplingFailedException;
 import org.skerry.engine.settings.SettingsException;
@@ -31,6 +32,10 @@ public record Ending(int exitCode, String summary, List<String> lines, boolean t
     public static Ending of(Throwable e) {
         if (e instanceof RunFileException || e instanceof SettingsException || e instanceof ReportInputException) {
             String line = "bad input: " + e.getMessage();
+            return new Ending(ExitCodes.BAD_INPUT, line, List.of(line), false);
+        }
+        if (e instanceof DistanceScales.ZeroSpreadException) {
+            String line = "bad input: " + e.getMessage() + " (sampler.abc.distance-weights)";
             return new Ending(ExitCodes.BAD_INPUT, line, List.of(line), false);
         }
         if (e instanceof RunEnded) {

@@ -5,6 +5,7 @@ import java.util.Locale;
 import org.skerry.engine.sampler.EvidenceEstimate;
 import org.skerry.engine.sampler.ParameterSummary;
 import org.skerry.engine.sampler.SamplerResult;
+import org.skerry.engine.sampler.ToleranceRecord;
 
 /** The short result table printed at the end of a run. */
 final class ResultTable {
@@ -16,7 +17,15 @@ final class ResultTable {
         SamplerResult result = outcome.result();
         EvidenceEstimate evidence = result.evidence();
         out.println("run folder: " + outcome.folder());
-        if (evidence.reliable()) {
+        ToleranceRecord abc = result.lastTolerance();
+        if (abc != null) {
+            out.println(String.format(Locale.ROOT, "ABC: tolerance %.6g reached, %d simulations; evidence not reported "
+                    + "(see summary.json)", abc.tolerance(), result.simulations()));
+            if (result.endedEarly() != null) {
+                out.println("  warning: the run ended early: " + result.endedEarly()
+                        + "; the result is kept and is the ABC posterior at the tolerance reached");
+            }
+        } else if (evidence.reliable()) {
             out.println(String.format(Locale.ROOT, "log evidence: %.4f ± %.4f (single-run estimate)",
                     evidence.logEvidence(), evidence.standardError()));
         } else {

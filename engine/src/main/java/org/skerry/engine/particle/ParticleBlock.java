@@ -7,7 +7,10 @@ import java.util.Arrays;
  * vectors of all particles back to back (particle {@code i} at {@code values[i*d .. i*d+d)}, on
  * the model's own scale), and one array each holds the log-prior, log-likelihood, log-weight,
  * global particle index and Eve index (the particle's ancestor at iteration 0, which the
- * single-run variance estimate of the evidence needs).
+ * single-run variance estimate of the evidence needs). A target may attach a fixed number of
+ * auxiliary values to every particle (approximate Bayesian computation keeps each particle's
+ * simulated summaries there, so that its weight can be recomputed when the distance changes);
+ * they travel with the particle through resampling, exchange and checkpoints.
  *
  * <p>Blocks are the unit of parallel work: a thread or a Spark partition owns a block while it
  * works on it. The arrays are exposed directly so hot loops run over primitives; the block is
@@ -16,6 +19,8 @@ import java.util.Arrays;
 public final class ParticleBlock {
 
     private final int dimension;
+    private int auxiliaryWidth;
+    private double[] auxiliary = new double[0];
     private int size;
     private double[] values;
     private double[] logPrior;
@@ -63,6 +68,29 @@ public final class ParticleBlock {
     }
 
     /**
+     * Wraps existing arrays with {@code auxiliaryWidth} auxiliary values per particle, back to
+     * back in {@code auxiliary}.
+     */
+    public ParticleBlock(int dimension, int size, double[] values, double[] logPrior,
+            double[] logLikelihood, double[] logWeight, long[] index, long[] eve, int auxiliaryWidth,
+            double[] auxiliary) {
+        this(dimension, size, values, logPrior, logLikelihood, logWeight, index, eve);
+        if (auxiliaryWidth < 0 || auxiliary.length < (long) size * auxiliaryWidth) {
+            throw new IllegalArgumentException("auxiliary array too short for " + size + " particles of "
+                    + auxiliaryWidth + " values (width must be >= 0)");
+        }
+        this.auxiliaryWidth = auxiliaryWidth;
+        this.auxiliary = auxiliary;
+    }
+
+    /** An empty block shaped like {@code shape} (dimension, auxiliary width) with room for {@code capacity}. */
+    public static ParticleBlock shapedLike(ParticleBlock shape, int capacity) {
+        ParticleBlock block = new ParticleBlock(shape.dimension, capacity);
+        block.attachAuxiliary(shape.auxiliaryWidth);
+        return block;
+    }
+
+    /**
      * A block of {@code count} particles with global indices {@code firstIndex …
      * firstIndex+count−1} and every other value zero, ready for an initial draw.
      */
@@ -77,6 +105,31 @@ public final class ParticleBlock {
 
     public int dimension() {
         return dimension;
+    }
+
+    /** Auxiliary values per particle (0 for a likelihood run). */
+    public int auxiliaryWidth() {
+        return auxiliaryWidth;
+    }
+
+    /** Auxiliary values, particle {@code i} at {@code [i*w, i*w+w)} for width w. */
+    public double[] auxiliary() {
+        return auxiliary;
+    }
+
+    /**
+     * Gives every particle {@code width} auxiliary values (zero), dropping any it had; a no-op when
+     * the width is already {@code width}.
+     */
+    public void attachAuxiliary(int width) {
+        if (width < 0) {
+            throw new IllegalArgumentException("width must be >= 0, was " + width);
+        }
+        if (width == auxiliaryWidth) {
+            return;
+        }
+        auxiliaryWidth = width;
+        auxiliary = new double[Math.multiplyExact(capacity(), width)];
     }
 
     /** Number of particles in the block. */
@@ -101,6 +154,7 @@ public final class ParticleBlock {
             logWeight = Arrays.copyOf(logWeight, newSize);
             index = Arrays.copyOf(index, newSize);
             eve = Arrays.copyOf(eve, newSize);
+            auxiliary = Arrays.copyOf(auxiliary, Math.multiplyExact(newSize, auxiliaryWidth));
         }
         size = newSize;
     }
@@ -141,6 +195,13 @@ public final class ParticleBlock {
         logWeight[to] = source.logWeight[from];
         index[to] = source.index[from];
         eve[to] = source.eve[from];
+        if (auxiliaryWidth > 0 || source.auxiliaryWidth > 0) {
+            if (source.auxiliaryWidth != auxiliaryWidth) {
+                throw new IllegalArgumentException("auxiliary widths differ: " + source.auxiliaryWidth + " and "
+                        + auxiliaryWidth);
+            }
+            System.arraycopy(source.auxiliary, from * auxiliaryWidth, auxiliary, to * auxiliaryWidth, auxiliaryWidth);
+        }
     }
 
     /** A deep copy holding exactly {@link #size()} particles. */
@@ -148,6 +209,7 @@ public final class ParticleBlock {
         return new ParticleBlock(dimension, size,
                 Arrays.copyOf(values, size * dimension), Arrays.copyOf(logPrior, size),
                 Arrays.copyOf(logLikelihood, size), Arrays.copyOf(logWeight, size),
-                Arrays.copyOf(index, size), Arrays.copyOf(eve, size));
+                Arrays.copyOf(index, size), Arrays.copyOf(eve, size), auxiliaryWidth,
+                Arrays.copyOf(auxiliary, size * auxiliaryWidth));
     }
 }

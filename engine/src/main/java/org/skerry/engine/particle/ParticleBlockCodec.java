@@ -7,13 +7,17 @@ import java.io.IOException;
 /**
  * The byte form of a {@link ParticleBlock} for checkpoint files: a magic number, a format version,
  * the shape, then each array as raw IEEE-754 bits (so every value reads back bit for bit on any
- * JVM). Only the {@link ParticleBlock#size()} live particles are written.
+ * JVM). Only the {@link ParticleBlock#size()} live particles are written. A block without
+ * auxiliary values is written in format 1, as before they existed; one with them in format 2,
+ * which adds the width and the values at the end.
  */
 public final class ParticleBlockCodec {
 
     /** "SKBL" in ASCII. */
     static final int MAGIC = 0x534B424C;
     static final int VERSION = 1;
+    /** Format 1 followed by the auxiliary width and values. */
+    static final int VERSION_AUXILIARY = 2;
 
     private ParticleBlockCodec() {
     }
@@ -23,7 +27,8 @@ public final class ParticleBlockCodec {
         int size = block.size();
         int d = block.dimension();
         out.writeInt(MAGIC);
-        out.writeInt(VERSION);
+        int width = block.auxiliaryWidth();
+        out.writeInt(width == 0 ? VERSION : VERSION_AUXILIARY);
         out.writeInt(d);
         out.writeInt(size);
         writeDoubles(out, block.values(), size * d);
@@ -32,6 +37,10 @@ public final class ParticleBlockCodec {
         writeDoubles(out, block.logWeight(), size);
         writeLongs(out, block.index(), size);
         writeLongs(out, block.eve(), size);
+        if (width > 0) {
+            out.writeInt(width);
+            writeDoubles(out, block.auxiliary(), size * width);
+        }
     }
 
     /**
@@ -45,8 +54,9 @@ public final class ParticleBlockCodec {
             throw new IOException("not a particle block (magic number " + Integer.toHexString(magic) + ")");
         }
         int version = in.readInt();
-        if (version != VERSION) {
-            throw new IOException("particle block format version " + version + "; this build reads " + VERSION);
+        if (version != VERSION && version != VERSION_AUXILIARY) {
+            throw new IOException("particle block format version " + version + "; this build reads " + VERSION
+                    + " and " + VERSION_AUXILIARY);
         }
         int d = in.readInt();
         int size = in.readInt();
@@ -59,7 +69,15 @@ public final class ParticleBlockCodec {
         double[] logWeight = readDoubles(in, size);
         long[] index = readLongs(in, size);
         long[] eve = readLongs(in, size);
-        return new ParticleBlock(d, size, values, logPrior, logLikelihood, logWeight, index, eve);
+        if (version == VERSION) {
+            return new ParticleBlock(d, size, values, logPrior, logLikelihood, logWeight, index, eve);
+        }
+        int width = in.readInt();
+        if (width < 1 || width > 1 << 20) {
+            throw new IOException("particle block with " + width + " auxiliary values per particle");
+        }
+        double[] auxiliary = readDoubles(in, Math.multiplyExact(size, width));
+        return new ParticleBlock(d, size, values, logPrior, logLikelihood, logWeight, index, eve, width, auxiliary);
     }
 
     private static void writeDoubles(DataOutput out, double[] values, int count) throws IOException {

@@ -147,4 +147,34 @@ public final class BlockReports {
             return tally;
         }
     }
+
+    /**
+     * A block's log-weights, log-likelihoods and auxiliary values (ABC: the kept summaries), in
+     * block order: what the choice of the next ABC tolerance and distance needs.
+     */
+    public static final class Auxiliary implements Serializable {
+        private static final long serialVersionUID = 1L;
+        private final Weights weights;
+        private final double[] values;
+
+        public Auxiliary(Weights weights, double[] values) {
+            this.weights = weights;
+            this.values = values;
+        }
+
+        /** Copies of the block's current values. */
+        public static Auxiliary of(ParticleBlock block) {
+            return new Auxiliary(Weights.of(block),
+                    Arrays.copyOf(block.auxiliary(), block.size() * block.auxiliaryWidth()));
+        }
+
+        public Weights weights() {
+            return weights;
+        }
+
+        /** Auxiliary values, particle by particle. */
+        public double[] values() {
+            return values;
+        }
+    }
 }

@@ -2,6 +2,8 @@ package org.skerry.engine.population;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.skerry.engine.abc.AbcBlocks;
+import org.skerry.engine.abc.AbcTarget;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.move.MetropolisHastingsMover;
 import org.skerry.engine.move.Proposal;
@@ -107,8 +109,11 @@ public final class Population implements AutoCloseable {
         int tries = retries;
         List<Drawn> drawn = blocks.create(first, sizes, cursor -> {
             ParticleBlock block = cursor.block();
-            EvaluationTally tally = InitialDraw.draw(block, proposal,
-                    new LikelihoodEvaluator(cursor.model(), streamSeed, tries, target), streamSeed);
+            // An ABC target simulates instead of evaluating, and keeps each particle's summaries.
+            EvaluationTally tally = target instanceof AbcTarget abc
+                    ? AbcBlocks.draw(block, proposal, abc, cursor.model(), streamSeed, tries)
+                    : InitialDraw.draw(block, proposal,
+                            new LikelihoodEvaluator(cursor.model(), streamSeed, tries, target), streamSeed);
             return new Drawn(tally, Weights.of(block));
         });
         EvaluationTally total = EvaluationTally.NONE;
@@ -268,7 +273,7 @@ public final class Population implements AutoCloseable {
 
     /**
      * Metropolis–Hastings steps {@code firstStep … firstStep+steps−1} of every living particle,
-     * invariant for {@code target}; with {@code withInputs} the blocks also send the tempering
+     * invariant for {@code target} (ABC moves for an ABC target); with {@code withInputs} the blocks also send the tempering
      * inputs the next target's choice needs, so they cost no round trip of their own.
      */
     public Moves move(Proposal proposal, Target target, int iteration, int firstStep, int steps, boolean withInputs) {
@@ -276,8 +281,10 @@ public final class Population implements AutoCloseable {
         int tries = retries;
         List<Moved> moved = update(cursor -> {
             ParticleBlock block = cursor.block();
-            MoveTally tally = MetropolisHastingsMover.move(block, proposal, target, iteration, firstStep, steps,
-                    new LikelihoodEvaluator(cursor.model(), streamSeed, tries, target), streamSeed);
+            MoveTally tally = target instanceof AbcTarget abc
+                    ? AbcBlocks.move(block, proposal, abc, iteration, firstStep, steps, cursor.model(), streamSeed, tries)
+                    : MetropolisHastingsMover.move(block, proposal, target, iteration, firstStep, steps,
+                            new LikelihoodEvaluator(cursor.model(), streamSeed, tries, target), streamSeed);
             return new Moved(tally, withInputs ? Weights.of(block) : null);
         });
         MoveTally total = MoveTally.NONE;

@@ -23,6 +23,11 @@ public enum StreamPurpose {
      * data sets from them; never used by the sampler, so it cannot change a run's answer.
      */
     PREDICTIVE(7),
+    /**
+     * Checking a model before a run (a simulator's first call, to see how many summaries it
+     * writes); never used by the sampler, so it cannot change a run's answer.
+     */
+    MODEL_CHECK(8),
     /** Free for tests and benchmarks; never used by the sampler. */
     TESTING(255);
 

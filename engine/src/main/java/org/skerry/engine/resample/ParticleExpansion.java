@@ -40,7 +40,7 @@ public final class ParticleExpansion {
             throw new IllegalArgumentException("total offspring must be <= 2^31 - 1, was " + total);
         }
         int d = source.dimension();
-        ParticleBlock result = new ParticleBlock(d, (int) total);
+        ParticleBlock result = ParticleBlock.shapedLike(source, (int) total);
         result.resize((int) total);
         double[] values = source.values();
         double[] logPrior = source.logPrior();
@@ -51,6 +51,9 @@ public final class ParticleExpansion {
         double[] newLogLikelihood = result.logLikelihood();
         long[] newIndex = result.index();
         long[] newEve = result.eve();
+        int w = source.auxiliaryWidth();
+        double[] auxiliary = source.auxiliary();
+        double[] newAuxiliary = result.auxiliary();
         int slot = 0;
         for (int i = 0; i < size; i++) {
             for (int c = offspring[i]; c > 0; c--) {
@@ -59,6 +62,9 @@ public final class ParticleExpansion {
                 newLogLikelihood[slot] = logLikelihood[i];
                 newIndex[slot] = firstNewIndex + slot;
                 newEve[slot] = eve[i];
+                if (w > 0) {
+                    System.arraycopy(auxiliary, i * w, newAuxiliary, slot * w, w);
+                }
                 slot++;
             }
         }

@@ -182,7 +182,7 @@ public final class Redistribution implements Serializable {
         }
         ParticleBlock[] result = new ParticleBlock[blocks.length];
         for (int b = 0; b < blocks.length; b++) {
-            result[b] = new ParticleBlock(blocks[b].dimension(), targetSize[b]);
+            result[b] = ParticleBlock.shapedLike(blocks[b], targetSize[b]);
             result[b].resize(targetSize[b]);
             long keptFirst = Math.max(sourceFirstIndex[b], targetFirstIndex[b]);
             long keptEnd = Math.min(sourceFirstIndex[b] + sourceSize[b], targetFirstIndex[b] + targetSize[b]);

@@ -30,15 +30,35 @@ import org.skerry.engine.population.EvaluationTally;
  * @param failedAfterRetries   of those, evaluations still invalid after the last retry
  * @param firstInvalidParameters the parameter values of the particle {@code firstInvalidIndex}
  *                             names, in parameter order; empty when there is none
+ * @param abc                  ABC runs: tolerance, share within it and simulations; null otherwise
  */
 public record IterationRecord(int iteration, double temperature, double ess, boolean resampled,
         long distinctAncestors, long particlesMoved, double acceptanceRate, int mhSteps, double scale,
         double logEvidenceIncrement, double logEvidence, long evaluations, long zeroLikelihood,
         long invalidEvaluations, long firstInvalidIndex, String firstInvalidReason, PhaseTimes seconds,
-        long retriedEvaluations, long failedAfterRetries, List<Double> firstInvalidParameters) {
+        long retriedEvaluations, long failedAfterRetries, List<Double> firstInvalidParameters, ToleranceRecord abc) {
 
     public IterationRecord {
         firstInvalidParameters = firstInvalidParameters == null ? List.of() : List.copyOf(firstInvalidParameters);
+    }
+
+    /** A record of an iteration of a run without tolerances. */
+    public IterationRecord(int iteration, double temperature, double ess, boolean resampled,
+            long distinctAncestors, long particlesMoved, double acceptanceRate, int mhSteps, double scale,
+            double logEvidenceIncrement, double logEvidence, long evaluations, long zeroLikelihood,
+            long invalidEvaluations, long firstInvalidIndex, String firstInvalidReason, PhaseTimes seconds,
+            long retriedEvaluations, long failedAfterRetries, List<Double> firstInvalidParameters) {
+        this(iteration, temperature, ess, resampled, distinctAncestors, particlesMoved, acceptanceRate, mhSteps, scale,
+                logEvidenceIncrement, logEvidence, evaluations, zeroLikelihood, invalidEvaluations, firstInvalidIndex,
+                firstInvalidReason, seconds, retriedEvaluations, failedAfterRetries, firstInvalidParameters, null);
+    }
+
+    /** This record with its phase times replaced. */
+    public IterationRecord withSeconds(PhaseTimes times) {
+        return new IterationRecord(iteration, temperature, ess, resampled, distinctAncestors, particlesMoved,
+                acceptanceRate, mhSteps, scale, logEvidenceIncrement, logEvidence, evaluations, zeroLikelihood,
+                invalidEvaluations, firstInvalidIndex, firstInvalidReason, times, retriedEvaluations, failedAfterRetries,
+                firstInvalidParameters, abc);
     }
 
     /** A record of an iteration without retries and without the first invalid particle's values. */

@@ -16,10 +16,33 @@ import org.skerry.engine.population.FinalParticles;
  * @param particles   the final population
  * @param normalisedWeights normalised weights of the final particles (summing to 1)
  * @param stepCap     iterations whose adaptive MH step count reached the cap
+ * @param endedEarly  why the run ended before the last target of its sequence (ABC: an
+ *                    acceptance floor or a simulation budget), or null when it reached it
  */
 public record SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,
         List<IterationRecord> iterations, EvaluationTally evaluations, FinalParticles particles,
-        double[] normalisedWeights, StepCapReport stepCap) {
+        double[] normalisedWeights, StepCapReport stepCap, String endedEarly) {
+
+    /** The outcome of a run that reached the last target. */
+    public SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,
+            List<IterationRecord> iterations, EvaluationTally evaluations, FinalParticles particles,
+            double[] normalisedWeights, StepCapReport stepCap) {
+        this(evidence, parameters, iterations, evaluations, particles, normalisedWeights, stepCap, null);
+    }
+
+    /** The last iteration's ABC record (tolerance, simulations), or null for a run without tolerances. */
+    public ToleranceRecord lastTolerance() {
+        return iterations.isEmpty() ? null : iterations.get(iterations.size() - 1).abc();
+    }
+
+    /** Simulations of the whole run (ABC), 0 for a run without tolerances. */
+    public long simulations() {
+        long total = 0;
+        for (IterationRecord record : iterations) {
+            total += record.abc() == null ? 0 : record.abc().simulations();
+        }
+        return total;
+    }
 
     /** Number of tempering iterations after the initial draw. */
     public int iterationCount() {

@@ -20,10 +20,20 @@ import org.skerry.engine.population.EvaluationTally;
  * @param islandSizes        particles per island, or null outside island mode
  * @param islandLogEvidence  each island's running log evidence, or null outside island mode
  * @param islandsIndependent whether the islands have never interacted
+ * @param targetState        what the sequence keeps of the target besides its progress (ABC: the
+ *                           tolerance and the distance weights), or null
  */
 public record SamplerState(int iteration, double temperature, double scale, double logEvidence, double logTotal,
         int resamplings, EvaluationTally evaluations, List<IterationRecord> records, int[] islandSizes,
-        double[] islandLogEvidence, boolean islandsIndependent) {
+        double[] islandLogEvidence, boolean islandsIndependent, double[] targetState) {
+
+    /** A state whose target its progress alone restores. */
+    public SamplerState(int iteration, double temperature, double scale, double logEvidence, double logTotal,
+            int resamplings, EvaluationTally evaluations, List<IterationRecord> records, int[] islandSizes,
+            double[] islandLogEvidence, boolean islandsIndependent) {
+        this(iteration, temperature, scale, logEvidence, logTotal, resamplings, evaluations, records, islandSizes,
+                islandLogEvidence, islandsIndependent, null);
+    }
 
     public SamplerState {
         if (iteration < 0) {
@@ -40,6 +50,12 @@ public record SamplerState(int iteration, double temperature, double scale, doub
         records = List.copyOf(records);
         islandSizes = islandSizes == null ? null : islandSizes.clone();
         islandLogEvidence = islandLogEvidence == null ? null : islandLogEvidence.clone();
+        targetState = targetState == null ? null : targetState.clone();
+    }
+
+    @Override
+    public double[] targetState() {
+        return targetState == null ? null : targetState.clone();
     }
 
     @Override

@@ -2,6 +2,7 @@ package org.skerry.engine.sampler;
 
 import java.util.ArrayList;
 import java.util.List;
+import org.skerry.engine.abc.AbcSequence;
 import org.skerry.engine.model.Model;
 import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.model.Prior;
@@ -151,6 +152,8 @@ public final class SmcSampler {
         private final int n = settings.population().particles();
         private final double logN = StrictMath.log(n);
         private final List<IterationRecord> records = new ArrayList<>();
+        /** The ABC sequence when the run walks tolerances, else null. */
+        private final AbcSequence abc;
 
         private TemperingInputs inputs;
         private int iteration;
@@ -171,6 +174,7 @@ public final class SmcSampler {
             this.listener = listener;
             this.checkpointer = checkpointer;
             this.stop = stop;
+            this.abc = sequence instanceof AbcSequence tolerances ? tolerances : null;
         }
 
         /** The initial draw: iteration 0. */
@@ -197,7 +201,9 @@ public final class SmcSampler {
                     false, n, 0, Double.NaN, 0, scale, logEvidence, logEvidence, total.evaluations(),
                     total.zeroLikelihood(), total.invalid(), total.firstInvalidIndex(), total.firstInvalidReason(),
                     new PhaseTimes(evaluateSeconds, 0, 0, 0, 0, 0, 0, 0),
-                    total.retried(), total.failedAfterRetries(), IterationRecord.valuesOf(total)));
+                    total.retried(), total.failedAfterRetries(), IterationRecord.valuesOf(total),
+                    abc == null ? null : new ToleranceRecord(abc.tolerance(target), 1.0,
+                            total.evaluations() * abc.simulationsPerEvaluation())));
         }
 
         /** Continues from a saved state, the population already holding the saved blocks. */
@@ -207,7 +213,7 @@ public final class SmcSampler {
                         + " islands; the settings ask for " + settings.islands().count());
             }
             iteration = state.iteration();
-            target = sequence.at(state.temperature());
+            target = sequence.restore(state.temperature(), state.targetState());
             scale = state.scale();
             logEvidence = state.logEvidence();
             logTotal = state.logTotal();
@@ -222,7 +228,7 @@ public final class SmcSampler {
 
         SamplerResult toEnd() {
             boolean progressed = false;
-            while (!sequence.isLast(target)) {
+            while (!sequence.isLast(target) && endedEarly() == null) {
                 String reason = stop.reasonToStop(state(), predictedSeconds());
                 // A resumed run makes at least one iteration before a wall-time stop, so that a job
                 // requeued again and again always gets further.
@@ -241,7 +247,24 @@ public final class SmcSampler {
         private SamplerState state() {
             return new SamplerState(iteration, target.progress(), scale, logEvidence, logTotal, resamplings, total, records,
                     islands == null ? null : islands.sizes(), islands == null ? null : islands.logEvidences(),
-                    islands == null || islands.independent());
+                    islands == null || islands.independent(), sequence.state(target));
+        }
+
+        /**
+         * Why an ABC run ends before its final tolerance (its acceptance floor, its budget of
+         * simulations), from the recorded iterations alone, so a resumed run decides alike; null
+         * to go on, and always for other runs.
+         */
+        private String endedEarly() {
+            if (abc == null || records.isEmpty()) {
+                return null;
+            }
+            IterationRecord last = records.get(records.size() - 1);
+            long simulations = 0;
+            for (IterationRecord record : records) {
+                simulations += record.abc().simulations();
+            }
+            return abc.endReason(target, last.iteration() == 0 ? Double.NaN : last.acceptanceRate(), simulations);
         }
 
         /** The longest of the last three iterations: a cautious guess at the next one's wall time. */
@@ -256,16 +279,12 @@ public final class SmcSampler {
         /** Records an iteration, checkpoints when due (and at the end), then tells the listener. */
         private void finishIteration(IterationRecord record) {
             records.add(record);
-            if (checkpointer.due(iteration) || (sequence.isLast(target) && checkpointer.enabled())) {
+            boolean ending = sequence.isLast(target) || endedEarly() != null;
+            if (checkpointer.due(iteration) || (ending && checkpointer.enabled())) {
                 long phase = System.nanoTime();
                 checkpointer.write(state(), population);
                 checkpointed = iteration;
-                record = new IterationRecord(record.iteration(), record.temperature(), record.ess(), record.resampled(),
-                        record.distinctAncestors(), record.particlesMoved(), record.acceptanceRate(), record.mhSteps(),
-                        record.scale(), record.logEvidenceIncrement(), record.logEvidence(), record.evaluations(),
-                        record.zeroLikelihood(), record.invalidEvaluations(), record.firstInvalidIndex(),
-                        record.firstInvalidReason(), record.seconds().withCheckpoint(seconds(phase)),
-                        record.retriedEvaluations(), record.failedAfterRetries(), record.firstInvalidParameters());
+                record = record.withSeconds(record.seconds().withCheckpoint(seconds(phase)));
                 records.set(records.size() - 1, record);
             }
             listener.iterationFinished(record);
@@ -367,7 +386,27 @@ public final class SmcSampler {
             boolean randomWalk = settings.moves().kernel() == MoveKernel.RANDOM_WALK;
             double targetAcceptance = settings.moves().targetAcceptance(model.parameters().dimension());
             boolean more = !sequence.isLast(target);
-            if (settings.moves().fixedSteps() > 0) {
+            if (abc != null) {
+                // ABC: the scale stays as set (its acceptance is held down by the tolerance, not the
+                // step size), and the step count follows ABC's own rule, never the likelihood runs'.
+                int fixed = abc.settings().fixedSteps();
+                if (fixed > 0) {
+                    steps = fixed;
+                    Population.Moves all = population.move(proposal, target, iteration, 0, steps, more);
+                    moves = all.tally();
+                    inputs = all.inputs();
+                } else {
+                    Population.Moves pilot = population.move(proposal, target, iteration, 0, 1, more);
+                    moves = pilot.tally();
+                    inputs = pilot.inputs();
+                    steps = abc.steps(moves.acceptanceRate());
+                    if (steps > 1) {
+                        Population.Moves rest = population.move(proposal, target, iteration, 1, steps - 1, more);
+                        moves = moves.plus(rest.tally());
+                        inputs = rest.inputs();
+                    }
+                }
+            } else if (settings.moves().fixedSteps() > 0) {
                 steps = settings.moves().fixedSteps();
                 Population.Moves last = population.move(proposal, target, iteration, 0, steps, more);
                 moves = last.tally();
@@ -416,7 +455,9 @@ public final class SmcSampler {
                     evaluations.firstInvalidReason(),
                     new PhaseTimes(0, temperatureSeconds, reweightSeconds, resampleSeconds, redistributeSeconds,
                             fitSeconds, moveSeconds, 0),
-                    evaluations.retried(), evaluations.failedAfterRetries(), IterationRecord.valuesOf(evaluations)));
+                    evaluations.retried(), evaluations.failedAfterRetries(), IterationRecord.valuesOf(evaluations),
+                    abc == null ? null : new ToleranceRecord(abc.tolerance(target), advance.shareWithin(),
+                            evaluations.evaluations() * abc.simulationsPerEvaluation())));
         }
 
         private String describeTarget(Target next) {
@@ -436,7 +477,8 @@ public final class SmcSampler {
                 evidence = evidence.withIslands(islands.islands(), islands.standardError());
             }
             return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights,
-                    StepCapReport.of(records, settings));
+                    abc == null ? StepCapReport.of(records, settings) : new StepCapReport(0, records.size() - 1, 0),
+                    endedEarly());
         }
     }
 

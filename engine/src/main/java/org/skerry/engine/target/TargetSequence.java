@@ -20,6 +20,19 @@ public interface TargetSequence {
     /** The target a checkpoint saved by its {@link Target#progress()}. */
     Target at(double progress);
 
+    /**
+     * What a checkpoint must keep of {@code target} besides its progress, or null when the
+     * progress is enough ({@link #at}).
+     */
+    default double[] state(Target target) {
+        return null;
+    }
+
+    /** The target a checkpoint saved by its progress and {@link #state(Target)}. */
+    default Target restore(double progress, double[] state) {
+        return at(progress);
+    }
+
     /** Whether {@code target} is the last one, the posterior. */
     default boolean isLast(Target target) {
         return target.progress() >= 1.0;
@@ -41,8 +54,14 @@ public interface TargetSequence {
 
     /**
      * One step along the sequence: the next target, every particle's log incremental weight in
-     * the order of the inputs, and the likelihood evaluations the step made (none for tempering).
+     * the order of the inputs, the likelihood evaluations the step made (none for tempering), and
+     * for ABC the share of the kept simulations within the new tolerance (NaN otherwise).
      */
-    record Step(Target next, double[] logIncrement, EvaluationTally evaluations) {
+    record Step(Target next, double[] logIncrement, EvaluationTally evaluations, double shareWithin) {
+
+        /** A step of a sequence without tolerances. */
+        public Step(Target next, double[] logIncrement, EvaluationTally evaluations) {
+            this(next, logIncrement, evaluations, Double.NaN);
+        }
     }
 }

@@ -24,6 +24,13 @@ import org.skerry.engine.sampler.PhaseTimes;
  * moves); {@code resampled} is {@code true} or {@code false}; the three {@code first_invalid}
  * fields, and the seconds of a record without phase times, are empty when there is nothing to
  * report.
+ *
+ * <p>An ABC run (approximate Bayesian computation) adds the columns {@code tolerance} (the
+ * tolerance reached; {@code Infinity} for the initial draw), {@code share_within_tolerance} (the
+ * share of the particles' kept simulations within it when it was chosen) and {@code simulations}
+ * (simulations made in the iteration); its {@code temperature} column holds the progress along
+ * the tolerance sequence (1 at the final tolerance), and its two evidence columns are empty: an
+ * ABC evidence is not a likelihood evidence, and skerry does not report one.
  */
 public final class IterationsCsv {
 
@@ -37,6 +44,8 @@ public final class IterationsCsv {
         "seconds_temperature", "seconds_reweight", "seconds_resample", "seconds_redistribute", "seconds_fit",
         "seconds_move", "seconds_checkpoint", "retried", "failed_after_retries", "first_invalid_parameters",
     };
+
+    static final String[] ABC_COLUMNS = {"tolerance", "share_within_tolerance", "simulations"};
 
     private IterationsCsv() {
     }
@@ -66,19 +75,35 @@ public final class IterationsCsv {
             throw new IllegalArgumentException("records must not be null");
         }
         Path file = folder.resolve(FILE_NAME);
+        boolean abc = !records.isEmpty() && records.get(0).abc() != null;
+        String[] header = COLUMNS;
+        if (abc) {
+            header = java.util.Arrays.copyOf(COLUMNS, COLUMNS.length + ABC_COLUMNS.length);
+            System.arraycopy(ABC_COLUMNS, 0, header, COLUMNS.length, ABC_COLUMNS.length);
+        }
+        String[] columns = header;
         AtomicFile.writeText(file, out -> {
-            CSVPrinter printer = new CSVPrinter(out, CsvOutput.withHeader(COLUMNS));
+            CSVPrinter printer = new CSVPrinter(out, CsvOutput.withHeader(columns));
             for (IterationRecord r : records) {
                 boolean invalid = r.firstInvalidIndex() >= 0;
                 PhaseTimes t = r.seconds();
-                printer.printRecord(r.iteration(), DoubleText.format(r.temperature()), DoubleText.format(r.ess()),
+                java.util.List<Object> row = new java.util.ArrayList<>(java.util.Arrays.asList(r.iteration(),
+                        DoubleText.format(r.temperature()), DoubleText.format(r.ess()),
                         r.resampled(), r.distinctAncestors(), r.particlesMoved(), DoubleText.format(r.acceptanceRate()),
-                        r.mhSteps(), DoubleText.format(r.scale()), DoubleText.format(r.logEvidenceIncrement()),
-                        DoubleText.format(r.logEvidence()), r.evaluations(), r.zeroLikelihood(), r.invalidEvaluations(),
+                        r.mhSteps(), DoubleText.format(r.scale()),
+                        abc ? null : DoubleText.format(r.logEvidenceIncrement()),
+                        abc ? null : DoubleText.format(r.logEvidence()), r.evaluations(), r.zeroLikelihood(),
+                        r.invalidEvaluations(),
                         invalid ? r.firstInvalidIndex() : null, invalid ? r.firstInvalidReason() : null,
                         seconds(t, 0), seconds(t, 1), seconds(t, 2), seconds(t, 3), seconds(t, 4), seconds(t, 5),
                         seconds(t, 6), seconds(t, 7), r.retriedEvaluations(), r.failedAfterRetries(),
-                        invalid ? ParameterValues.text(parameterNames, r.firstInvalidParameters(), ";") : null);
+                        invalid ? ParameterValues.text(parameterNames, r.firstInvalidParameters(), ";") : null));
+                if (abc) {
+                    row.add(DoubleText.format(r.abc().tolerance()));
+                    row.add(DoubleText.format(r.abc().shareWithin()));
+                    row.add(r.abc().simulations());
+                }
+                printer.printRecord(row);
             }
             printer.flush();
         });

@@ -10,6 +10,7 @@ import org.skerry.engine.sampler.EvidenceEstimate;
 import org.skerry.engine.sampler.IterationRecord;
 import org.skerry.engine.sampler.ParameterSummary;
 import org.skerry.engine.sampler.SamplerResult;
+import org.skerry.engine.sampler.ToleranceRecord;
 
 /**
  * Writes {@code summary.json}, the answer of a run: its name and model, log evidence and its
@@ -35,11 +36,23 @@ import org.skerry.engine.sampler.SamplerResult;
  * {@code iteration} null when the result has no iteration records; or null when every evaluation
  * was valid), {@code particles} and {@code seed}. A number that is not finite (an error that
  * cannot be estimated, say) is written as null.
+ *
+ * <p>An ABC run writes null for {@code log_evidence}, {@code log_evidence_error} and
+ * {@code island_log_evidence_error} and says why in {@code log_evidence_error_warning}
+ * ({@link #ABC_EVIDENCE_NOTE}), and adds before {@code particles} the object {@code abc}:
+ * {@code final_tolerance} (the tolerance reached), {@code reached_final_tolerance} (false when
+ * the run ended early), {@code ended_early} (why, or null) and {@code simulations} (all the run
+ * made); its evaluation counts count evaluations of M simulations each.
  */
 public final class SummaryJson {
 
     /** The file's name in the run folder. */
     public static final String FILE_NAME = "summary.json";
+
+    /** Why an ABC run reports no evidence (Robert, Cornuet, Marin &amp; Pillai 2011, PNAS 108(37)). */
+    public static final String ABC_EVIDENCE_NOTE = "not reported for an ABC run: the ABC approximation of the evidence "
+            + "is not a likelihood evidence, and summaries sufficient within each model are in general not sufficient "
+            + "for choosing between models (Robert, Cornuet, Marin & Pillai 2011)";
 
     private SummaryJson() {
     }
@@ -86,13 +99,14 @@ public final class SummaryJson {
             JsonOutput.text(json, "name", name);
             json.writeStringField("model", model);
             EvidenceEstimate evidence = result.evidence();
-            JsonOutput.number(json, "log_evidence", evidence.logEvidence());
-            JsonOutput.number(json, "log_evidence_error", evidence.standardError());
-            json.writeBooleanField("log_evidence_error_reliable", evidence.reliable());
-            JsonOutput.text(json, "log_evidence_error_warning", evidence.warning());
+            ToleranceRecord abc = result.lastTolerance();
+            JsonOutput.number(json, "log_evidence", abc != null ? Double.NaN : evidence.logEvidence());
+            JsonOutput.number(json, "log_evidence_error", abc != null ? Double.NaN : evidence.standardError());
+            json.writeBooleanField("log_evidence_error_reliable", abc == null && evidence.reliable());
+            JsonOutput.text(json, "log_evidence_error_warning", abc != null ? ABC_EVIDENCE_NOTE : evidence.warning());
             json.writeNumberField("distinct_ancestors_at_end", evidence.distinctEves());
             json.writeNumberField("islands", evidence.islands());
-            JsonOutput.number(json, "island_log_evidence_error", evidence.islandStandardError());
+            JsonOutput.number(json, "island_log_evidence_error", abc != null ? Double.NaN : evidence.islandStandardError());
             json.writeObjectFieldStart("parameters");
             for (ParameterSummary p : result.parameters()) {
                 json.writeObjectFieldStart(p.name());
@@ -138,6 +152,14 @@ public final class SummaryJson {
                     }
                     json.writeEndObject();
                 }
+                json.writeEndObject();
+            }
+            if (abc != null) {
+                json.writeObjectFieldStart("abc");
+                JsonOutput.number(json, "final_tolerance", abc.tolerance());
+                json.writeBooleanField("reached_final_tolerance", result.endedEarly() == null);
+                JsonOutput.text(json, "ended_early", result.endedEarly());
+                json.writeNumberField("simulations", result.simulations());
                 json.writeEndObject();
             }
             json.writeNumberField("particles", result.particles().size());

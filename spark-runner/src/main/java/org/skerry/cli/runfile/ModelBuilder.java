@@ -10,6 +10,7 @@ import org.skerry.cli.data.CsvDataReader;
 import org.skerry.cli.data.DataException;
 import org.skerry.cli.data.DataTable;
 import org.skerry.engine.model.Model;
+import org.skerry.engine.model.SummarySimulator;
 import org.skerry.engine.model.ObservationLikelihood;
 import org.skerry.engine.target.SequenceSettings;
 import org.skerry.engine.model.settings.ModelCatalog;
@@ -71,8 +72,34 @@ public final class ModelBuilder {
         return new Built(model, data, source);
     }
 
-    /** Refuses data tempering for a model whose likelihood does not come per observation range. */
+    /**
+     * Refuses data tempering for a model whose likelihood does not come per observation range, and
+     * ABC for a model that simulates no summaries, whose summaries' names do not match the observed
+     * summaries or distance weights the run gives, or that writes more summaries than it names.
+     */
     private static void checkSequence(RunSpec spec, Model model) {
+        if (spec.sampler().targets().kind() == SequenceSettings.Kind.ABC) {
+            if (!(model instanceof SummarySimulator simulator)) {
+                throw new RunFileException(where(spec, "sampler.sequence") + ": sampler.sequence = abc needs a model "
+                        + "that simulates summaries; model " + spec.model().label() + " simulates none (it offers a "
+                        + "likelihood: use likelihood-tempering)");
+            }
+            try {
+                spec.sampler().targets().create(model, spec.sampler().tempering().rule(),
+                        spec.sampler().population().seed(), spec.sampler().evaluation().retries());
+            } catch (IllegalArgumentException e) {
+                String message = String.valueOf(e.getMessage());
+                String key = message.contains("distance weight") ? "sampler.abc.distance-weights"
+                        : message.contains("observed") ? (spec.file().config().hasPath("sampler.abc.observed-file")
+                                ? "sampler.abc.observed-file" : "sampler.abc.observed") : "sampler.abc";
+                throw new RunFileException(where(spec, key) + ": " + key + ": model " + spec.model().label() + ": "
+                        + message, e);
+            }
+            String wrong = SummarySimulator.checkSummaryCount(simulator, spec.sampler().population().seed());
+            if (wrong != null) {
+                throw new RunFileException("model " + spec.model().label() + ": " + wrong);
+            }
+        }
         if (spec.sampler().targets().kind() == SequenceSettings.Kind.DATA_TEMPERING
                 && !(model instanceof ObservationLikelihood)) {
             throw new RunFileException(where(spec, "sampler.sequence") + ": sampler.sequence = data-tempering needs a "

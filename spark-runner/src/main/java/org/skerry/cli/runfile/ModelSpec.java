@@ -80,7 +80,7 @@ public record ModelSpec(String name, String className, Config settings, Path dat
      * The folder a relative path in {@code value} is read from: that of the file it is written in
      * (an included file's own folder), else the run file's (a --set override, a batch's layers).
      */
-    private static Path folderOf(ConfigValue value, RunFile file) {
+    static Path folderOf(ConfigValue value, RunFile file) {
         String written = value.origin().filename();
         Path in = written != null ? Path.of(written) : file.path();
         return in.toAbsolutePath().getParent();

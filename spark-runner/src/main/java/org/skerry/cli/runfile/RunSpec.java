@@ -57,7 +57,7 @@ public record RunSpec(RunFile file, String name, ModelSpec model, SamplerSetting
             throw r.error("name", "must be letters, digits, '.', '_' or '-' (it names the run folder)");
         }
         ModelSpec model = ModelSpec.read(r, file);
-        SamplerSettings sampler = SamplerSection.read(r);
+        SamplerSettings sampler = SamplerSection.read(r, file);
         BackendSpec backend = BackendSpec.read(r);
         OutputSpec outputs = OutputSpec.read(r);
         CheckpointSpec checkpoints = CheckpointSpec.read(r);

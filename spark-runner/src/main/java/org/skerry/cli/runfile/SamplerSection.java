@@ -20,8 +20,8 @@ final class SamplerSection {
     private SamplerSection() {
     }
 
-    /** Reads and checks the sampler settings. */
-    static SamplerSettings read(SettingsReader r) {
+    /** Reads and checks the sampler settings (a relative observed-summary file is read from {@code file}'s folder). */
+    static SamplerSettings read(SettingsReader r, RunFile file) {
         SamplerSettings.Builder b = SamplerSettings.builder();
         b.particles(r.integer("sampler.particles", 2, 100_000_000));
         b.seed(r.seed("sampler.seed"));
@@ -48,7 +48,11 @@ final class SamplerSection {
                 throw r.error("sampler.tempering.schedule", e.getMessage());
             }
         }
-        if (r.choice("sampler.sequence", List.of("likelihood-tempering", "data-tempering")).equals("data-tempering")) {
+        String sequence = r.choice("sampler.sequence", List.of("likelihood-tempering", "data-tempering", "abc"));
+        if (sequence.equals("abc")) {
+            b.targets(SequenceSettings.abc(AbcSection.read(r, file)));
+        }
+        if (sequence.equals("data-tempering")) {
             ConfigValue batch = r.config().getValue("sampler.data-tempering.batch");
             if (batch.valueType() == ConfigValueType.NUMBER) {
                 b.targets(SequenceSettings.fixedBatches(r.integer("sampler.data-tempering.batch", 1, 100_000_000)));

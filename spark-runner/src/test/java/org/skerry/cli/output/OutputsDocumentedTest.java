@@ -106,6 +106,32 @@ class OutputsDocumentedTest {
         for (String column : ParticlesCsv.FIXED_COLUMNS) {
             assertDocumented("particles.csv", column);
         }
+        for (String column : IterationsCsv.ABC_COLUMNS) {
+            assertDocumented("iterations.csv (ABC)", column);
+        }
+    }
+
+    @Test
+    @DisplayName("summary.json of an ABC run: every key, those of its abc object included, snake_case and in the README")
+    void abcKeys() throws IOException {
+        org.skerry.engine.model.builtin.NormalMeanSimulator model = org.skerry.engine.model.builtin.NormalMeanSimulator
+                .of(new double[] {0.5, 1.5}, 1, 0, 2);
+        SamplerResult result;
+        try (org.skerry.engine.population.threads.ThreadPoolBackend backend
+                = new org.skerry.engine.population.threads.ThreadPoolBackend(1, 0)) {
+            result = new org.skerry.engine.sampler.SmcSampler(org.skerry.engine.sampler.SamplerSettings.builder()
+                    .particles(100).targets(org.skerry.engine.target.SequenceSettings.abc(
+                            org.skerry.engine.abc.AbcSettings.of(0.3).withStops(0, 2000))).build()).run(model, backend);
+        }
+        Map<String, Object> summary = JsonTree.read(SummaryJson.write(folder, "abc", "m", 3, result));
+        @SuppressWarnings("unchecked")
+        Map<String, Object> abc = (Map<String, Object>) summary.get("abc");
+        for (String key : summary.keySet()) {
+            assertDocumented("summary.json", key);
+        }
+        for (String key : abc.keySet()) {
+            assertDocumented("summary.json abc", key);
+        }
     }
 
     @Test

@@ -1,0 +1,210 @@
+package org.skerry.engine.sampler;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertNotNull;
+import static org.junit.jupiter.api.Assertions.assertNull;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import org.junit.jupiter.api.DisplayName;
+import org.junit.jupiter.api.Test;
+import org.skerry.engine.abc.AbcKernel;
+import org.skerry.engine.abc.AbcSettings;
+import org.skerry.engine.abc.DistanceScales;
+import org.skerry.engine.model.LikelihoodContext;
+import org.skerry.engine.model.ParameterSpace;
+import org.skerry.engine.model.Prior;
+import org.skerry.engine.model.SummarySimulator;
+import org.skerry.engine.model.Support;
+import org.skerry.engine.model.builtin.NormalMeanSimulator;
+import org.skerry.engine.model.prior.IndependentPrior;
+import org.skerry.engine.model.prior.Normal;
+import org.skerry.engine.population.threads.ThreadPoolBackend;
+import org.skerry.engine.target.SequenceSettings;
+
+/**
+ * ABC-SMC on the sampler's loop: the same answer whatever the threads and blocks, resumed from any
+ * checkpoint, MAD-scaled distances and the Gaussian kernel included; the early ends (acceptance
+ * floor, simulation budget) reported with the result kept; a summary without spread refused,
+ * naming it.
+ */
+@org.skerry.engine.Slow
+class AbcLoopTest {
+
+    /** Two summaries on very different scales (mean and 100 × the range), so the MAD scaling matters. */
+    static final class TwoSummaries implements SummarySimulator {
+        private final ParameterSpace space = ParameterSpace.of(List.of("mu", "sigma"),
+                List.of(Support.real(), Support.positive()));
+        private final Prior prior = IndependentPrior.of(Normal.of(0, 2), org.skerry.engine.model.prior.Gamma.of(2, 2));
+        private final boolean constantSecond;
+
+        TwoSummaries(boolean constantSecond) {
+            this.constantSecond = constantSecond;
+        }
+
+        @Override
+        public ParameterSpace parameters() {
+            return space;
+        }
+
+        @Override
+        public Prior prior() {
+            return prior;
+        }
+
+        @Override
+        public double logLikelihood(double[] parameters, LikelihoodContext context) {
+            throw new UnsupportedOperationException();
+        }
+
+        @Override
+        public List<String> summaryNames() {
+            return List.of("mean", "range");
+        }
+
+        @Override
+        public void simulate(double[] parameters, LikelihoodContext context, double[] summaries) {
+            double total = 0;
+            double low = Double.POSITIVE_INFINITY;
+            double high = Double.NEGATIVE_INFINITY;
+            for (int j = 0; j < 8; j++) {
+                double y = parameters[0] + parameters[1] * context.random().nextNormal();
+                total += y;
+                low = Math.min(low, y);
+                high = Math.max(high, y);
+            }
+            summaries[0] = total / 8;
+            summaries[1] = constantSecond ? 3.0 : 100 * (high - low);
+        }
+
+        @Override
+        public double[] observedSummaries() {
+            return new double[] {0.7, 250.0};
+        }
+    }
+
+    private static SamplerSettings settings(AbcSettings abc) {
+        return SamplerSettings.builder().particles(300).seed(17).targets(SequenceSettings.abc(abc)).build();
+    }
+
+    private static final AbcSettings ADAPTIVE = AbcSettings.of(0.4).withSimulations(2);
+
+    static List<String> toleranceLines(SamplerResult result) {
+        List<String> lines = new ArrayList<>(SameSeedSameAnswerTest.fingerprint(result));
+        for (IterationRecord r : result.iterations()) {
+            lines.add(String.valueOf(r.abc()));
+        }
+        return lines;
+    }
+
+    private static SamplerResult run(SamplerSettings settings, int threads, int blockSize) {
+        try (ThreadPoolBackend backend = new ThreadPoolBackend(threads, blockSize)) {
+            return new SmcSampler(settings).run(new TwoSummaries(false), backend);
+        }
+    }
+
+    @Test
+    @DisplayName("MAD-scaled distances, M = 2, uniform and Gaussian kernels: bit-identical on 1 to 7 threads and "
+            + "blocks of 1 to 1000 particles")
+    void sameAnswerWhateverTheGrouping() {
+        for (AbcSettings abc : List.of(ADAPTIVE, ADAPTIVE.withKernel(AbcKernel.GAUSSIAN).withSteps(3))) {
+            SamplerResult reference = run(settings(abc), 1, 0);
+            assertEquals(0.4, reference.lastTolerance().tolerance(), "reaches the final tolerance");
+            assertNull(reference.endedEarly());
+            for (int[] layout : new int[][] {{2, 0}, {7, 0}, {2, 1}, {3, 13}, {2, 1000}}) {
+                SamplerResult other = run(settings(abc), layout[0], layout[1]);
+                String where = abc.kernel() + " on " + layout[0] + " threads, blocks of " + layout[1];
+                assertEquals(toleranceLines(reference), toleranceLines(other), where);
+                assertArrayEquals(reference.particles().values(), other.particles().values(), where);
+                assertArrayEquals(reference.normalisedWeights(), other.normalisedWeights(), where);
+            }
+        }
+    }
+
+    @Test
+    @DisplayName("ABC resumed from any iteration's checkpoint, on other threads and blocks: bit-identical")
+    void resumesFromEveryCheckpoint() {
+        ResumeFromCheckpointTest.resumeFromEvery(settings(ADAPTIVE), new TwoSummaries(false));
+    }
+
+    @Test
+    @DisplayName("the ESS falls by the set factor, progress grows, simulations are M per evaluation; with fixed "
+            + "weights the tolerances fall strictly")
+    void tolerancesFall() {
+        SamplerResult fixed = run(settings(ADAPTIVE.withWeights(Map.of("mean", 1.0, "range", 0.01))), 2, 0);
+        double last = Double.POSITIVE_INFINITY;
+        for (IterationRecord r : fixed.iterations()) {
+            assertTrue(r.abc().tolerance() < last || r.iteration() == 0, "iteration " + r.iteration());
+            last = r.abc().tolerance();
+        }
+        SamplerResult result = run(settings(ADAPTIVE), 2, 0);
+        double progress = -1;
+        double before = 300;
+        for (IterationRecord r : result.iterations()) {
+            assertTrue(r.temperature() > progress, "progress grows");
+            progress = r.temperature();
+            assertEquals(2 * r.evaluations(), r.abc().simulations(), "M = 2 simulations per evaluation");
+            if (r.iteration() > 0 && r.abc().tolerance() > 0.4) {
+                // The ESS falls to the factor (0.5) of the last ESS (N after a resampling), or a little
+                // above it when tied distances enter together (M = 2: a particle's weight moves in halves).
+                assertTrue(r.ess() >= 0.5 * before - 1e-9 && r.ess() <= 0.5 * before + 30,
+                        "ESS " + r.ess() + " after " + before + " at iteration " + r.iteration());
+            }
+            before = r.resampled() ? 300 : r.ess();
+        }
+        assertEquals(result.simulations(), 2 * result.evaluations().evaluations());
+    }
+
+    @Test
+    @DisplayName("a simulation budget ends the run early, says why, and keeps the result")
+    void budgetEndsEarly() {
+        SamplerResult result = run(settings(AbcSettings.of(1e-6).withStops(0, 20_000)), 2, 0);
+        assertNotNull(result.endedEarly());
+        assertTrue(result.endedEarly().contains("budget of 20000 simulations"), result.endedEarly());
+        assertTrue(result.simulations() >= 20_000, "stops once the budget is spent");
+        assertTrue(result.lastTolerance().tolerance() > 1e-6, "the final tolerance is not reached");
+        assertEquals(300, result.particles().size(), "the population is kept");
+    }
+
+    @Test
+    @DisplayName("an acceptance floor ends the run early and names the acceptance")
+    void acceptanceFloorEndsEarly() {
+        SamplerResult result = run(settings(AbcSettings.of(1e-6).withStops(0.2, 0)), 2, 0);
+        assertNotNull(result.endedEarly());
+        assertTrue(result.endedEarly().contains("under the floor 0.2"), result.endedEarly());
+        IterationRecord last = result.iterations().get(result.iterations().size() - 1);
+        assertTrue(last.acceptanceRate() < 0.2, "the last acceptance is under the floor: " + last.acceptanceRate());
+        for (IterationRecord r : result.iterations().subList(1, result.iterations().size() - 1)) {
+            assertTrue(r.acceptanceRate() >= 0.2, "it went on while the acceptance was above the floor");
+        }
+    }
+
+    @Test
+    @DisplayName("a summary without spread is refused at the first scale estimate, named")
+    void zeroSpread() {
+        SamplerSettings settings = settings(ADAPTIVE);
+        try (ThreadPoolBackend backend = new ThreadPoolBackend(2, 0)) {
+            DistanceScales.ZeroSpreadException e = assertThrows(DistanceScales.ZeroSpreadException.class,
+                    () -> new SmcSampler(settings).run(new TwoSummaries(true), backend));
+            assertEquals("range", e.summary());
+            assertTrue(e.getMessage().contains("no spread"), e.getMessage());
+        }
+    }
+
+    @Test
+    @DisplayName("observed summaries and weights by name: an unknown or missing name is refused, named")
+    void namesChecked() {
+        NormalMeanSimulator model = NormalMeanSimulator.of(new double[] {1, 2}, 1, 0, 1);
+        IllegalArgumentException unknown = assertThrows(IllegalArgumentException.class, () -> SequenceSettings.abc(
+                AbcSettings.of(0.1).withWeights(Map.of("average", 1.0))).create(model, null, 1, 0));
+        assertTrue(unknown.getMessage().contains("'average'") && unknown.getMessage().contains("[mean]"),
+                unknown.getMessage());
+        IllegalArgumentException missing = assertThrows(IllegalArgumentException.class, () -> SequenceSettings.abc(
+                AbcSettings.of(0.1).withObserved(Map.of())).create(model, null, 1, 0));
+        assertTrue(missing.getMessage().contains("missing for summary 'mean'"), missing.getMessage());
+    }
+}
