@@ -35,8 +35,9 @@ final class ResultTable {
         if (result.stepCap().warning() != null) {
             out.println("  warning: " + result.stepCap().warning());
         }
-        out.println(String.format(Locale.ROOT, "iterations: %d, likelihood evaluations: %d, invalid: %d, wall time: %.1f s",
-                result.iterationCount(), result.evaluations().evaluations(), result.evaluations().invalid(),
+        out.println(String.format(Locale.ROOT, "iterations: %d, %s: %d, invalid: %d, wall time: %.1f s",
+                result.iterationCount(), abc != null ? "simulator evaluations" : "likelihood evaluations",
+                result.evaluations().evaluations(), result.evaluations().invalid(),
                 outcome.wallSeconds()));
         int width = 9;
         for (ParameterSummary p : result.parameters()) {

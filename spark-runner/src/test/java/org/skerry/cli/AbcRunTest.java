@@ -21,6 +21,7 @@ import org.skerry.engine.Slow;
  * naming the key or file).
  */
 @Slow
+@SuppressWarnings("unchecked")
 class AbcRunTest {
 
     @TempDir
@@ -202,5 +203,25 @@ class AbcRunTest {
                 .replace("data.inline { columns = [\"y\"], rows = [[0.4], [1.9], [1.1], [0.7], [1.6]] }\n", "");
         CommandRunner.Result result = run(noData, "file");
         assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
+    }
+
+    @Test
+    @DisplayName("the report of an ABC run: the tolerance and simulations of summary.json, no evidence table or "
+            + "figure, a tolerance figure instead of the temperature, and the ABC caveat first among the warnings")
+    void report() throws IOException {
+        CommandRunner.Result result = run(RUN, "reported", "output.report=true");
+        assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
+        Map<String, Object> abc = (Map<String, Object>) JsonTree.read(folder.resolve("reported/summary.json")).get("abc");
+        org.jsoup.nodes.Document page = org.jsoup.Jsoup.parse(
+                folder.resolve("reported/report/index.html").toFile(), "UTF-8");
+        assertEquals(((Number) abc.get("final_tolerance")).doubleValue(),
+                Double.parseDouble(page.selectFirst("#tolerance td[data-key=final_tolerance]").attr("data-value")), 0.0);
+        assertEquals(((Number) abc.get("simulations")).longValue(),
+                Long.parseLong(page.selectFirst("#tolerance td[data-key=simulations]").attr("data-value")));
+        assertTrue(page.select("#evidence, figure#evidence, figure#temperature").isEmpty(), "evidence or temperature shown");
+        assertFalse(page.select("figure#tolerance img").isEmpty(), "no tolerance figure");
+        assertTrue(Files.isRegularFile(folder.resolve("reported/report/tolerance.svg")));
+        String first = page.selectFirst("#warnings li").text();
+        assertTrue(first.contains("An ABC run") && first.contains("Robert, Cornuet, Marin & Pillai 2011"), first);
     }
 }

@@ -2,6 +2,7 @@ package org.skerry.cli.progress;
 
 import java.io.PrintWriter;
 import java.math.BigDecimal;
+import java.math.MathContext;
 import java.math.RoundingMode;
 import java.time.Clock;
 import java.time.Duration;
@@ -16,7 +17,8 @@ import org.skerry.engine.sampler.IterationRecord;
 
 /**
  * Shows a run's progress after each iteration: iteration, temperature (φ, the {@code temperature}
- * column of iterations.csv), ESS, acceptance rate, likelihood evaluations per second, elapsed time
+ * column of iterations.csv; for an ABC run the tolerance and the share within it), ESS, acceptance
+ * rate, likelihood evaluations (or simulations) per second, elapsed time
  * and an estimate of the time left. On a terminal ({@code interactive}) it keeps rewriting one
  * line, ending it when the temperature reaches 1 or on {@link #close()}; otherwise (a log file, a
  * pipe) it prints one line per iteration, stamped with the UTC time and, when it has one, the
@@ -195,9 +197,24 @@ public final class ProgressDisplay implements IterationListener, AutoCloseable {
         String rate = seconds > 0 ? count(evaluations / seconds) : "-";
         String acceptance = Double.isNaN(record.acceptanceRate()) ? "-"
                 : String.format(Locale.ROOT, "%.0f%%", 100 * record.acceptanceRate());
+        if (record.abc() != null) {
+            // An ABC run walks down a tolerance, not up a temperature; its evaluations are simulations.
+            return String.format(Locale.ROOT, "iter %d  tolerance %s  within %.0f%%  ESS %.0f  acc %s  %s sim/s  %s  %s",
+                    record.iteration(), tolerance(record.abc().tolerance()), 100 * record.abc().shareWithin(),
+                    record.ess(), acceptance, rate, clockTime(seconds), remaining);
+        }
         return String.format(Locale.ROOT, "iter %d  temperature %s  ESS %.0f  acc %s  %s eval/s  %s  %s",
                 record.iteration(), temperature(record.temperature()), record.ess(), acceptance, rate,
                 clockTime(seconds), remaining);
+    }
+
+    /** A tolerance to four significant digits: {@code -} for the prior draw's (infinite) one. */
+    static String tolerance(double epsilon) {
+        if (Double.isInfinite(epsilon)) {
+            return "-";
+        }
+        return new BigDecimal(epsilon).round(new MathContext(4, RoundingMode.HALF_EVEN)).stripTrailingZeros()
+                .toPlainString();
     }
 
     /** 0, 2.31e-06 (below 0.001), 0.0230, 0.9999, 1.0000. */

@@ -38,8 +38,9 @@ final class HtmlPage {
         PageParts.head(html, "Run report: " + s.name());
         html.append("<p class=\"meta\">Model <b>").append(e(s.model())).append("</b>, N = ")
                 .append(Readable.count(s.particles())).append(" particles, seed ").append(s.seed()).append(", ")
-                .append(Readable.count(s.iterations())).append(" tempering iterations, ")
-                .append(Readable.count(s.likelihoodEvaluations())).append(" likelihood evaluations. ")
+                .append(Readable.count(s.iterations())).append(s.isAbc() ? " ABC iterations, " : " tempering iterations, ")
+                .append(Readable.count(s.likelihoodEvaluations()))
+                .append(s.isAbc() ? " simulator evaluations. " : " likelihood evaluations. ")
                 .append("Made from the files of the run folder <code>")
                 .append(e(String.valueOf(run.folder().toAbsolutePath().normalize().getFileName())))
                 .append("</code>; the exact numbers are in its summary.json.</p>\n");
@@ -53,14 +54,25 @@ final class HtmlPage {
 
     private void summary(RunReport run) {
         SummaryFile s = run.summary();
-        html.append("<section id=\"summary\">\n<h2>Summary</h2>\n<table id=\"evidence\">\n<tr><th>log evidence, log Ẑ")
-                .append(" (natural log)</th>").append(cell("log_evidence", s.logEvidence())).append("</tr>\n");
-        if (s.errorReliable() && Double.isFinite(s.logEvidenceError())) {
-            html.append("<tr><th>its single-run standard error (±)</th>")
-                    .append(cell("log_evidence_error", s.logEvidenceError())).append("</tr>\n");
+        html.append("<section id=\"summary\">\n<h2>Summary</h2>\n");
+        if (s.isAbc()) {
+            html.append("<table id=\"tolerance\">\n<tr><th>tolerance reached (scaled distance)</th>")
+                    .append(cell("final_tolerance", s.abc().finalTolerance())).append("</tr>\n<tr><th>the final ")
+                    .append("tolerance asked for reached</th><td data-key=\"reached_final_tolerance\">")
+                    .append(s.abc().reachedFinalTolerance() ? "yes" : "no").append("</td></tr>\n<tr><th>simulations</th>")
+                    .append("<td data-key=\"simulations\" data-value=\"").append(s.abc().simulations()).append("\">")
+                    .append(Readable.count(s.abc().simulations())).append("</td></tr>\n<tr><th>log evidence</th><td>")
+                    .append("not reported for an ABC run (see the warnings)</td></tr>\n");
         } else {
-            html.append("<tr><th>its single-run standard error</th><td>not shown: not reliable (see the warnings)</td>")
-                    .append("</tr>\n");
+            html.append("<table id=\"evidence\">\n<tr><th>log evidence, log Ẑ")
+                    .append(" (natural log)</th>").append(cell("log_evidence", s.logEvidence())).append("</tr>\n");
+            if (s.errorReliable() && Double.isFinite(s.logEvidenceError())) {
+                html.append("<tr><th>its single-run standard error (±)</th>")
+                        .append(cell("log_evidence_error", s.logEvidenceError())).append("</tr>\n");
+            } else {
+                html.append("<tr><th>its single-run standard error</th><td>not shown: not reliable (see the ")
+                        .append("warnings)</td></tr>\n");
+            }
         }
         html.append("</table>\n<table id=\"parameters\">\n<thead><tr><th>parameter</th><th>mean</th><th>sd</th>");
         for (String q : s.quantileKeys()) {

@@ -34,10 +34,21 @@ final class IterationFigures {
         CsvColumns rows = run.iterations();
         double[] it = rows.column("iteration");
         List<Figure> figures = new ArrayList<>();
-        figures.add(figure(folder, "temperature", "Temperature per iteration",
-                "How the run walked from the prior (0) to the posterior (1). Many small steps mean the likelihood "
-                        + "is sharp relative to the prior; with data tempering it is the share of observations "
-                        + "included.", temperature(it, rows.column("temperature"))));
+        boolean abc = run.summary().isAbc();
+        if (abc) {
+            figures.add(figure(folder, "tolerance", "Tolerance per iteration",
+                    "Top: the ABC tolerance on the scaled distance between simulated and observed summaries (the "
+                            + "prior draw at iteration 0 has none). Where the distance's scales are re-estimated "
+                            + "each iteration, its unit changes as the run goes. Bottom: the share of particles "
+                            + "within the tolerance. A tolerance that stops falling while acceptance drops means "
+                            + "the summaries cannot be matched more closely at this budget.",
+                    tolerance(it, rows.column("tolerance"), rows.column("share_within_tolerance"))));
+        } else {
+            figures.add(figure(folder, "temperature", "Temperature per iteration",
+                    "How the run walked from the prior (0) to the posterior (1). Many small steps mean the "
+                            + "likelihood is sharp relative to the prior; with data tempering it is the share of "
+                            + "observations included.", temperature(it, rows.column("temperature"))));
+        }
         figures.add(figure(folder, "ess", "Effective sample size per iteration",
                 "ESS/N after reweighting, before any resampling; the population is resampled when it falls to the "
                         + "dashed threshold (filled markers). Repeated drops far below the threshold mean the targets "
@@ -47,9 +58,11 @@ final class IterationFigures {
                         + (run.maxSteps() > 0 ? ", with the step cap (sampler.moves.max-steps) dashed; steps at the "
                         + "cap mean many particles may not have moved and the posterior may be under-explored."
                         : " (a fixed count)."), moves(run, it, rows)));
-        figures.add(figure(folder, "evidence", "Log evidence per iteration",
-                "Top: the log evidence increment of each reweighting. Bottom: the running log evidence, their sum; "
-                        + "its last value is log Ẑ of the summary.", evidence(it, rows)));
+        if (!abc) {
+            figures.add(figure(folder, "evidence", "Log evidence per iteration",
+                    "Top: the log evidence increment of each reweighting. Bottom: the running log evidence, their sum; "
+                            + "its last value is log Ẑ of the summary.", evidence(it, rows)));
+        }
         figures.add(figure(folder, "invalid", "Invalid and zero-likelihood evaluations per iteration",
                 "Invalid: NaN, +∞ or an exception from the model, after retries (weight zero, counted apart). "
                         + "Zero likelihood: the model returned −∞ (a valid zero). Invalid evaluations make the "
@@ -68,6 +81,15 @@ final class IterationFigures {
                 series("temperature", it, temperature, 0), Palette.BLUE, ChartStyle.LINE, true);
         ((NumberAxis) plot.getRangeAxis()).setRange(0, 1.02);
         return chart("Temperature per iteration", plot, "iteration 0 is the draw from the prior");
+    }
+
+    private static JFreeChart tolerance(double[] it, double[] tolerance, double[] share) {
+        XYPlot top = plot(axis("tolerance (scaled distance)"), series("tolerance", it, tolerance, 1), Palette.BLUE,
+                ChartStyle.LINE, true);
+        XYPlot bottom = plot(axis("share within the tolerance"), series("share within", it, share, 1),
+                Palette.BLUISH_GREEN, ChartStyle.LINE, true);
+        ((NumberAxis) bottom.getRangeAxis()).setRange(0, 1.02);
+        return chart("Tolerance per iteration", combined(top, bottom), "ABC; iteration 0 is the draw from the prior");
     }
 
     private static JFreeChart ess(RunReport run, double[] it, CsvColumns rows) {

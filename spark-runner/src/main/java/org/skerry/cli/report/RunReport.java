@@ -34,6 +34,8 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
     static final List<String> ITERATION_COLUMNS = List.of("iteration", "temperature", "ess", "resampled",
             "acceptance", "mh_steps", "log_evidence_increment", "log_evidence", "evaluations", "zero_likelihood",
             "invalid");
+    /** The further columns of an ABC run's {@code iterations.csv}. */
+    static final List<String> ABC_COLUMNS = List.of("tolerance", "share_within_tolerance", "simulations");
 
     RunReport {
         values = List.copyOf(values);
@@ -70,7 +72,11 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
             throw new ReportInputException(reportFolder + " is in the way: a file where the report folder goes");
         }
         SummaryFile summary = SummaryFile.read(summaryFile);
-        CsvColumns iterations = CsvColumns.read(folder.resolve(IterationsCsv.FILE_NAME), ITERATION_COLUMNS);
+        List<String> columns = new ArrayList<>(ITERATION_COLUMNS);
+        if (summary.isAbc()) {
+            columns.addAll(ABC_COLUMNS);
+        }
+        CsvColumns iterations = CsvColumns.read(folder.resolve(IterationsCsv.FILE_NAME), columns);
         if (iterations.rows() == 0) {
             throw new ReportInputException(folder.resolve(IterationsCsv.FILE_NAME) + ": no iteration rows");
         }

@@ -18,7 +18,20 @@ import java.util.Map;
 record SummaryFile(Path file, String name, String model, double logEvidence, double logEvidenceError,
         boolean errorReliable, String errorWarning, long distinctAncestorsAtEnd, Map<String, ParameterSummary> parameters,
         List<String> quantileKeys, long iterations, long iterationsAtStepCap, String stepCapWarning,
-        long likelihoodEvaluations, long invalidEvaluations, String firstInvalid, long particles, long seed) {
+        long likelihoodEvaluations, long invalidEvaluations, String firstInvalid, long particles, long seed,
+        Abc abc) {
+
+    /**
+     * An ABC run's {@code abc} object: the tolerance reached, whether it is the final one asked
+     * for, why the run ended before it (or null) and the simulations made.
+     */
+    record Abc(double finalTolerance, boolean reachedFinalTolerance, String endedEarly, long simulations) {
+    }
+
+    /** Whether the run is an ABC run: no evidence, a tolerance instead of a temperature. */
+    boolean isAbc() {
+        return abc != null;
+    }
 
     /** One parameter's summary: mean, sd and the quantiles keyed as in the file. */
     record ParameterSummary(double mean, double sd, Map<String, Double> quantiles) {
@@ -65,7 +78,22 @@ record SummaryFile(Path file, String name, String model, double logEvidence, dou
                 r.optionalText("log_evidence_error_warning"), r.count("distinct_ancestors_at_end"), parameters,
                 quantileKeys, r.count("iterations"), r.count("iterations_at_step_cap"),
                 r.optionalText("step_cap_warning"), r.count("likelihood_evaluations"), r.count("invalid_evaluations"),
-                firstInvalid instanceof Map<?, ?> m ? describe(m) : null, r.count("particles"), r.whole("seed"));
+                firstInvalid instanceof Map<?, ?> m ? describe(m) : null, r.count("particles"), r.whole("seed"),
+                abc(r, json));
+    }
+
+    private static Abc abc(JsonFields r, Map<String, Object> json) {
+        if (json.get("abc") == null) {
+            return null;
+        }
+        Map<String, Object> abc = r.object(json, "abc", "abc");
+        Object reached = abc.get("reached_final_tolerance");
+        if (!(reached instanceof Boolean)) {
+            throw r.wrong("abc.reached_final_tolerance", reached, "true or false");
+        }
+        return new Abc(r.number(abc, "final_tolerance", "abc.final_tolerance"), (Boolean) reached,
+                r.optionalText(abc, "ended_early", "abc.ended_early"),
+                r.optionalCount(abc, "simulations", "abc.simulations"));
     }
 
     /** {@code first_invalid} in words: iteration, particle, reason and the parameter values. */

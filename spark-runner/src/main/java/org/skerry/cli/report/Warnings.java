@@ -20,7 +20,21 @@ final class Warnings {
     static List<Note> of(RunReport run) {
         SummaryFile s = run.summary();
         List<Note> notes = new ArrayList<>();
-        if (!s.errorReliable()) {
+        if (s.isAbc()) {
+            SummaryFile.Abc abc = s.abc();
+            notes.add(new Note(true, "An ABC run: the posterior is the approximate one at tolerance "
+                    + Readable.number(abc.finalTolerance()) + " on the scaled distance between simulated and "
+                    + "observed summaries, not the exact posterior; it is only as informative as the summaries. "
+                    + "No evidence is reported: summaries sufficient within each model are in general not "
+                    + "sufficient for choosing between models (Robert, Cornuet, Marin & Pillai 2011)."));
+            if (!abc.reachedFinalTolerance()) {
+                notes.add(new Note(true, "The final tolerance was not reached"
+                        + (abc.endedEarly() == null ? "." : ": " + abc.endedEarly() + ".")
+                        + " The result is the ABC posterior at the tolerance reached, wider than asked for."));
+            } else {
+                notes.add(new Note(false, "The final tolerance asked for was reached."));
+            }
+        } else if (!s.errorReliable()) {
             notes.add(new Note(true, "The error of the log evidence is not reliable, so it is not shown"
                     + (s.errorWarning() == null ? "." : ": " + s.errorWarning())
                     + " Repeat the run with other seeds and use the spread of log Ẑ."));
@@ -38,11 +52,12 @@ final class Warnings {
         }
         if (s.invalidEvaluations() > 0) {
             notes.add(new Note(true, Readable.count(s.invalidEvaluations()) + " of "
-                    + Readable.count(s.likelihoodEvaluations()) + " likelihood evaluations were invalid (NaN, +∞ or an "
+                    + Readable.count(s.likelihoodEvaluations())
+                    + (s.isAbc() ? " simulator evaluations" : " likelihood evaluations") + " were invalid (NaN, +∞ or an "
                     + "exception) and got zero weight; the posterior is conditional on where the model works."
                     + (s.firstInvalid() == null ? "" : " The first: " + s.firstInvalid() + ".")));
         } else {
-            notes.add(new Note(false, "No likelihood evaluation was invalid."));
+            notes.add(new Note(false, s.isAbc() ? "No simulator evaluation was invalid." : "No likelihood evaluation was invalid."));
         }
         double ess = finalEss(run.weights());
         double share = ess / run.particles();

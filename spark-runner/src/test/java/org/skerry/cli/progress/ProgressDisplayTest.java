@@ -228,4 +228,26 @@ class ProgressDisplayTest {
         assertTrue(lines[1].contains("warning: iter 1: 30 of 2000") && lines[1].contains("at x0=2.75, x1="), lines[1]);
         assertTrue(lines[2].startsWith("\riter 2 "), lines[2]);
     }
+
+    @Test
+    @DisplayName("an ABC run shows its tolerance (four significant digits, - for the prior draw) and the share "
+            + "within it, and its evaluations as simulations per second")
+    void abcLine() {
+        ProgressDisplay display = new ProgressDisplay(out, false, clock);
+        clock.advance(2);
+        display.iterationFinished(abc(0, Double.POSITIVE_INFINITY, 1.0, 1000));
+        clock.advance(2);
+        display.iterationFinished(abc(1, 4.672097333448, 0.5, 3000));
+        String[] lines = text().split(NL);
+        assertEquals("2025-03-01T09:30:02Z iter 0  tolerance -  within 100%  ESS 1000  acc -  500 sim/s  0:00:02  left ?",
+                lines[0]);
+        assertTrue(lines[1].startsWith("2025-03-01T09:30:04Z iter 1  tolerance 4.672  within 50%  ESS 500  acc 20%  "
+                + "1000 sim/s  0:00:04"), lines[1]);
+    }
+
+    private static IterationRecord abc(int iteration, double tolerance, double within, long evaluations) {
+        return new IterationRecord(iteration, 0.0, 1000 * within, false, 1000, 0, iteration == 0 ? Double.NaN : 0.2, 3,
+                1.0, 0, 0, evaluations, 0, 0, -1, null, new PhaseTimes(0, 0, 0, 0, 0, 0, 0, 0), 0, 0, List.of(),
+                new org.skerry.engine.sampler.ToleranceRecord(tolerance, within, evaluations));
+    }
 }
