@@ -21,6 +21,7 @@ import org.skerry.cli.progress.ProgressDisplay;
 import org.skerry.cli.report.ReportWriter;
 import org.skerry.cli.runfile.AnswerSettings;
 import org.skerry.cli.runfile.ModelBuilder;
+import org.skerry.cli.runfile.ModelSpec;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
@@ -96,6 +97,7 @@ public final class Analysis {
     public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut, IterationListener observer) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         checkParameterNames(spec, built);
+        ModelBuilder.checkStarts(built);
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder
                 : spec.outputs().folder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
@@ -151,7 +153,9 @@ public final class Analysis {
      */
     public static Outcome resume(Path runFolder, List<String> overrides, PrintWriter progressOut) {
         RunSpec spec = savedSpec(runFolder, overrides);
-        return execute(new Job(spec, ModelBuilder.build(spec), runFolder, Instant.now(), System.nanoTime(),
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        ModelBuilder.checkStarts(built);
+        return execute(new Job(spec, built, runFolder, Instant.now(), System.nanoTime(),
                 Start.FROM_CHECKPOINT), progressOut, IterationListener.NONE);
     }
 
@@ -231,6 +235,10 @@ public final class Analysis {
         if (spec.model().dataFile() != null) {
             file = file.withValue("data.file", spec.model().dataFile().toString());
         }
+        if (spec.model().program()) {
+            // Absolute paths (files, ./ commands), so the run folder resumes from anywhere.
+            file = file.withValue(ModelSpec.PROGRAM_KEY, spec.model().settings().root().unwrapped());
+        }
         String checkpoints = spec.checkpoints().path();
         if (checkpoints != null && new org.apache.hadoop.fs.Path(checkpoints).toUri().getScheme() == null) {
             file = file.withValue("checkpoint.path", Path.of(checkpoints).toAbsolutePath().normalize().toString());
@@ -297,6 +305,7 @@ public final class Analysis {
             StopCondition stop, PrintWriter notices) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         checkParameterNames(spec, built);
+        ModelBuilder.checkStarts(built);
         Instant started = Instant.now();
         prepare(folder);
         RunOutputs.writeSettings(folder, forRunFolder(spec).render());
@@ -311,7 +320,9 @@ public final class Analysis {
     public static Outcome resume(Path folder, PopulationBackend backend, IterationListener listener,
             StopCondition stop, PrintWriter notices) {
         RunSpec spec = savedSpec(folder, List.of());
-        return core(new Job(spec, ModelBuilder.build(spec), folder, Instant.now(), System.nanoTime(),
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        ModelBuilder.checkStarts(built);
+        return core(new Job(spec, built, folder, Instant.now(), System.nanoTime(),
                 Start.FROM_CHECKPOINT), backend, listener, stop, notices);
     }
 

@@ -19,6 +19,8 @@ import org.skerry.engine.model.settings.ModelFactory;
 import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.SettingDescription;
 import org.skerry.engine.model.settings.SettingsModelSource;
+import org.skerry.engine.program.ProgramModel;
+import org.skerry.engine.program.ProgramStartException;
 
 /**
  * Builds the model a run file asks for: reads its data (CSV file or inline), binds data columns
@@ -26,9 +28,6 @@ import org.skerry.engine.model.settings.SettingsModelSource;
  * failure is bad input and becomes a {@link RunFileException}.
  */
 public final class ModelBuilder {
-
-    /** Where a model's settings sit in a run file, as messages name their keys. */
-    private static final String MODEL_SETTINGS = "model.settings";
 
     private ModelBuilder() {
     }
@@ -52,9 +51,9 @@ public final class ModelBuilder {
             checkModelKeys(spec, factory);
         }
         SettingsModelSource source = new SettingsModelSource(chosen.name(), chosen.className(),
-                chosen.settings(), MODEL_SETTINGS, columns, dataSource);
+                chosen.settings(), chosen.settingsKey(), columns, dataSource);
         Model model;
-        ModelSettings settings = ModelSettings.of(chosen.settings(), MODEL_SETTINGS, columns, dataSource);
+        ModelSettings settings = ModelSettings.of(chosen.settings(), chosen.settingsKey(), columns, dataSource);
         try {
             model = ModelCreator.create(chosen.name(), chosen.className(), settings, where(spec, "model.class"));
         } catch (ModelNotCreatedException e) {
@@ -69,6 +68,21 @@ public final class ModelBuilder {
         checkBindingsRead(spec, settings.rolesRead());
         checkSequence(spec, model);
         return new Built(model, data, source);
+    }
+
+    /**
+     * For a program model: starts one worker and completes its handshake, so a program that cannot
+     * start (missing, an import error, another protocol version) stops the run before iteration 0
+     * as bad input, with its standard error. Other models need nothing.
+     */
+    public static void checkStarts(Built built) {
+        if (built.model() instanceof ProgramModel) {
+            try {
+                ((ProgramModel) built.model()).probe();
+            } catch (ProgramStartException e) {
+                throw new RunFileException(e.getMessage(), e);
+            }
+        }
     }
 
     /** Refuses data tempering for a model whose likelihood does not come per observation range. */
