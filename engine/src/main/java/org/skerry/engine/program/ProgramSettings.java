@@ -160,8 +160,8 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
         try {
             list = r.config().getConfigList("parameters");
         } catch (ConfigException.WrongType e) {
-            throw r.error("parameters", "expected a list of parameters, e.g. [{ name = mu, prior { distribution = "
-                    + "normal, mean = 0, sd = 10 } }]");
+            throw new SettingsException(r.where("parameters") + ": " + r.fullKey("parameters") + ": expected a list "
+                    + "of parameters, e.g. [{ name = mu, prior { distribution = normal, mean = 0, sd = 10 } }]");
         }
         if (list.isEmpty()) {
             throw r.error("parameters", "declare at least one parameter");
@@ -183,7 +183,13 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
             }
             ModelSettings parameter = ModelSettings.of(list.get(i), path, Map.of(), "no data");
             names.add(name);
-            priors.add(PriorSettings.distribution(parameter, "prior"));
+            try {
+                priors.add(PriorSettings.distribution(parameter, "prior"));
+            } catch (SettingsException e) {
+                throw e;
+            } catch (IllegalArgumentException e) {
+                throw new SettingsException(e.getMessage(), e);
+            }
         }
     }
 }
