@@ -5,7 +5,8 @@ header line 'y' and '#' comments. --jitter adds a term in [0, 1e-3) taken from t
 as a stochastic simulator's answer depends on its seed, so that tests of identical answers also
 check the seeds. The one-at-a-time and the batched (numpy) forms do the same floating-point
 operations in the same order, so they give the same bits. --sleep makes each request take that
-long (runs long enough to interrupt); --pids writes the worker's process id into FOLDER at start.
+long (runs long enough to interrupt); --pids (or the variable SKERRY_TEST_PIDS) names a folder
+where the worker writes its process id at start.
 """
 import math
 import os
@@ -20,8 +21,9 @@ BATCHED = "--batched" in sys.argv
 JITTER = "--jitter" in sys.argv
 CONSTANT = -0.5 * math.log(2 * math.pi * SIGMA * SIGMA)
 SLEEP = float(sys.argv[sys.argv.index("--sleep") + 1]) if "--sleep" in sys.argv else 0.0
-if "--pids" in sys.argv:
-    with open(os.path.join(sys.argv[sys.argv.index("--pids") + 1], "worker-%d" % os.getpid()), "w") as f:
+PIDS = sys.argv[sys.argv.index("--pids") + 1] if "--pids" in sys.argv else os.environ.get("SKERRY_TEST_PIDS")
+if PIDS:
+    with open(os.path.join(PIDS, "worker-%d" % os.getpid()), "w") as f:
         f.write(str(os.getpid()))
 
 
