@@ -15,7 +15,7 @@ class WireNumbersTest {
     }
 
     @Test
-    @DisplayName("hexadecimal text (Double.toHexString) reads back to the same bits: random bit patterns, subnormals, extremes")
+    @DisplayName("hexadecimal text (the characters of Double.toHexString) reads back to the same bits: random bit patterns, subnormals, extremes")
     void hexRoundTrip() {
         SplittableRandom random = new SplittableRandom(5);
         for (int i = 0; i < 20_000; i++) {
@@ -24,10 +24,13 @@ class WireNumbersTest {
                 continue;
             }
             assertEquals(Double.doubleToRawLongBits(x), Double.doubleToRawLongBits(roundTrip(x)), Double.toHexString(x));
+            assertEquals(Double.toHexString(x), WireNumbers.appendHex(new StringBuilder(), x).toString());
         }
         for (double x : new double[] {0.0, -0.0, Double.MIN_VALUE, -Double.MIN_VALUE, Double.MIN_NORMAL,
                 Math.nextDown(Double.MIN_NORMAL), Double.MAX_VALUE, 1.0, -2.5, 0.1}) {
             assertEquals(Double.doubleToRawLongBits(x), Double.doubleToRawLongBits(roundTrip(x)), Double.toHexString(x));
+            assertEquals(Double.toHexString(x), WireNumbers.appendHex(new StringBuilder(), x).toString(),
+                    "the same characters as Double.toHexString");
         }
     }
 
