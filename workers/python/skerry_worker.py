@@ -173,19 +173,22 @@ def serve(log_likelihood=None, setup=None, batched=False, stdin=None, stdout=Non
         if len(words) != 4 or words[0] != "evaluate":
             raise ProtocolError("expected 'evaluate REQUEST ITERATION COUNT', got %r" % header)
         request, count = words[1], int(words[3])
-        seeds, rows = [], []
-        for _ in range(count):
-            line = source.readline()
-            if not line:
-                return
-            fields = line.split()
-            seeds.append(int(fields[0]))
-            rows.append([float.fromhex(v.decode("ascii")) for v in fields[1:]])
+        lines = [source.readline() for _ in range(count)]
+        if count and not lines[-1].endswith(b"\n"):
+            return
+        # One split of the whole request, then a column at a time: map() over builtins keeps the
+        # per-particle cost of a large batch to a few hundred nanoseconds.
+        fields = b"".join(lines).decode("ascii").split()
+        width = len(names) + 1
+        if len(fields) != count * width:
+            raise ProtocolError("request %s: expected %d fields, got %d" % (request, count * width, len(fields)))
+        seeds = list(map(int, fields[0::width]))
+        columns = [list(map(float.fromhex, fields[j::width])) for j in range(1, width)]
         out = ["result %s %d\n" % (request, count)]
         if batched:
-            out.extend(_evaluate_batch(function, rows, seeds, numpy))
+            out.extend(_evaluate_batch(function, columns, seeds, numpy))
         else:
-            for row, seed in zip(rows, seeds):
+            for row, seed in zip(zip(*columns), seeds):
                 try:
                     out.append("value %s\n" % _number_text(function(dict(zip(names, row)), seed)))
                 except Exception as error:  # the model's own failure: reported, the worker goes on
@@ -195,20 +198,26 @@ def serve(log_likelihood=None, setup=None, batched=False, stdin=None, stdout=Non
         sink.flush()
 
 
-def _evaluate_batch(function, rows, seeds, numpy):
-    count = len(rows)
+def _evaluate_batch(function, columns, seeds, numpy):
+    count = len(seeds)
     try:
-        values = numpy.array(rows, dtype=float) if numpy is not None else rows
+        if numpy is not None:
+            values = numpy.array(columns, dtype=float).reshape(len(columns), count).T
+        else:
+            values = [list(row) for row in zip(*columns)]
         results = list(function(values, seeds))
         if len(results) != count:
             raise ValueError("the batch function returned %d numbers for %d particles" % (len(results), count))
     except Exception as error:
         traceback.print_exc(file=sys.stderr)
         return ["error %s\n" % _failure_text(error)] * count
-    lines = []
-    for result in results:
-        try:
-            lines.append("value %s\n" % _number_text(result))
-        except (TypeError, ValueError) as error:
-            lines.append("error %s\n" % _failure_text(error))
-    return lines
+    try:
+        return ["value " + float(result).hex() + "\n" for result in results]
+    except (TypeError, ValueError):
+        lines = []
+        for result in results:
+            try:
+                lines.append("value %s\n" % _number_text(result))
+            except (TypeError, ValueError) as error:
+                lines.append("error %s\n" % _failure_text(error))
+        return lines

@@ -41,6 +41,7 @@ import org.skerry.checkpoint.CheckpointFileSystem;
 import org.skerry.checkpoint.CheckpointFolder;
 import org.skerry.checkpoint.CheckpointResumption;
 import org.skerry.spark.CheckpointVisibility;
+import org.skerry.spark.ProgramStartCheck;
 import org.skerry.checkpoint.CheckpointWriteException;
 import org.skerry.checkpoint.FileCheckpointer;
 import org.skerry.checkpoint.NoUsableCheckpointException;
@@ -97,7 +98,7 @@ public final class Analysis {
     public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut, IterationListener observer) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         checkParameterNames(spec, built);
-        ModelBuilder.checkStarts(built);
+        ModelBuilder.checkStarts(spec, built);
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder
                 : spec.outputs().folder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
@@ -154,7 +155,7 @@ public final class Analysis {
     public static Outcome resume(Path runFolder, List<String> overrides, PrintWriter progressOut) {
         RunSpec spec = savedSpec(runFolder, overrides);
         ModelBuilder.Built built = ModelBuilder.build(spec);
-        ModelBuilder.checkStarts(built);
+        ModelBuilder.checkStarts(spec, built);
         return execute(new Job(spec, built, runFolder, Instant.now(), System.nanoTime(),
                 Start.FROM_CHECKPOINT), progressOut, IterationListener.NONE);
     }
@@ -305,7 +306,7 @@ public final class Analysis {
             StopCondition stop, PrintWriter notices) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         checkParameterNames(spec, built);
-        ModelBuilder.checkStarts(built);
+        ModelBuilder.checkStarts(spec, built);
         Instant started = Instant.now();
         prepare(folder);
         RunOutputs.writeSettings(folder, forRunFolder(spec).render());
@@ -321,7 +322,7 @@ public final class Analysis {
             StopCondition stop, PrintWriter notices) {
         RunSpec spec = savedSpec(folder, List.of());
         ModelBuilder.Built built = ModelBuilder.build(spec);
-        ModelBuilder.checkStarts(built);
+        ModelBuilder.checkStarts(spec, built);
         return core(new Job(spec, built, folder, Instant.now(), System.nanoTime(),
                 Start.FROM_CHECKPOINT), backend, listener, stop, notices);
     }
@@ -343,6 +344,9 @@ public final class Analysis {
         SortedMap<String, String> answer = AnswerSettings.of(spec);
         if (spec.checkpoints().enabled()) {
             checkVisible(backend, checkpoints);
+        }
+        if (spec.model().program()) {
+            checkProgramStarts(backend, built);
         }
         Checkpointer checkpointer = spec.checkpoints().enabled()
                 ? new FileCheckpointer(checkpoints, spec.checkpoints().everyIterations(), spec.checkpoints().everyMinutes(),
@@ -438,6 +442,25 @@ public final class Analysis {
         } catch (java.io.IOException e) {
             throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot write to the checkpoint folder "
                     + checkpoints.files().root() + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * On a cluster, every executor must be able to start the model program (the driver's check,
+     * {@link ModelBuilder#checkStarts}, covers local mode and the thread backend).
+     */
+    private static void checkProgramStarts(PopulationBackend backend, ModelBuilder.Built built) {
+        if (!(backend instanceof SparkBackend)) {
+            return;
+        }
+        JavaSparkContext context = ((SparkBackend) backend).context();
+        if (SparkMasters.isInProcess(context.master())) {
+            return;
+        }
+        try {
+            ProgramStartCheck.check(context, built.source());
+        } catch (IllegalArgumentException e) {
+            throw new RunFileException(e.getMessage(), e);
         }
     }
 

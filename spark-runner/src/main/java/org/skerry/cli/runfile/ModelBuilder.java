@@ -73,10 +73,13 @@ public final class ModelBuilder {
     /**
      * For a program model: starts one worker and completes its handshake, so a program that cannot
      * start (missing, an import error, another protocol version) stops the run before iteration 0
-     * as bad input, with its standard error. Other models need nothing.
+     * as bad input, with its standard error. Other models need nothing. On a cluster the workers
+     * run on the executors, not here (the driver may be a node without the program), so the check
+     * happens there instead, once the backend is up.
      */
-    public static void checkStarts(Built built) {
-        if (built.model() instanceof ProgramModel) {
+    public static void checkStarts(RunSpec spec, Built built) {
+        boolean onCluster = spec.backend().kind().equals("spark") && !SparkMasters.isInProcess(spec.backend().master());
+        if (built.model() instanceof ProgramModel && !onCluster) {
             try {
                 ((ProgramModel) built.model()).probe();
             } catch (ProgramStartException e) {
