@@ -36,6 +36,8 @@ public final class ProgramModel implements BatchedModel, AutoCloseable {
     private final ParameterSpace space;
     private final IndependentPrior prior;
     private final WorkerPool pool;
+    private FileModeRun fileRun;
+    private java.nio.file.Path fileRoot;
 
     public ProgramModel(ProgramSettings settings) {
         this.settings = settings;
@@ -97,6 +99,19 @@ public final class ProgramModel implements BatchedModel, AutoCloseable {
      */
     private void evaluate(double[] parameters, int count, long[] seeds, int iteration, double[] out, String[] errors) {
         int d = space.dimension();
+        if (settings.mode() == ProgramSettings.Mode.FILE) {
+            FileModeRun run = fileRun();
+            for (int i = 0; i < count; i++) {
+                try {
+                    out[i] = run.evaluate(parameters, d, i, seeds[i], iteration);
+                    errors[i] = null;
+                } catch (ProgramFailureException | ProgramStartException e) {
+                    out[i] = Double.NaN;
+                    errors[i] = e.getMessage();
+                }
+            }
+            return;
+        }
         Worker worker = null;
         try {
             for (int from = 0; from < count; from += settings.batch()) {
@@ -139,6 +154,17 @@ public final class ProgramModel implements BatchedModel, AutoCloseable {
      * @throws ProgramStartException with the program's standard-error tail
      */
     public void probe() {
+        if (settings.mode() == ProgramSettings.Mode.FILE) {
+            // A file-mode run has no handshake; what can be checked is that the program is there.
+            try {
+                org.skerry.engine.process.ProcessLauncher.resolveExecutable(settings.command().get(0),
+                        org.skerry.engine.process.ChildEnvironment.of(settings.environment(), null).get("PATH"));
+            } catch (java.io.IOException e) {
+                throw new ProgramStartException("cannot start the model program " + String.join(" ", settings.command())
+                        + ": " + e.getMessage());
+            }
+            return;
+        }
         try (WorkerPool trial = new WorkerPool(settings)) {
             trial.giveBack(trial.borrow());
         }
@@ -149,9 +175,26 @@ public final class ProgramModel implements BatchedModel, AutoCloseable {
         return pool.started();
     }
 
-    /** Ends every worker of this model and removes their scratch folders. */
+    private synchronized FileModeRun fileRun() {
+        if (fileRun == null) {
+            fileRoot = ScratchFolders.createRoot(settings.scratch());
+            fileRun = new FileModeRun(settings, InputTemplate.parse(settings.fileMode().templateText(), settings.names()),
+                    fileRoot);
+        }
+        return fileRun;
+    }
+
+    /**
+     * Ends every worker of this model and removes their scratch folders; in file mode the scratch
+     * folder stays when it holds failed evaluations' folders kept for inspection.
+     */
     @Override
     public void close() {
         pool.close();
+        synchronized (this) {
+            if (fileRun != null && !fileRun.keptAny()) {
+                ScratchFolders.remove(fileRoot);
+            }
+        }
     }
 }

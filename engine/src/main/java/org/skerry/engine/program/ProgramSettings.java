@@ -36,17 +36,30 @@ import org.skerry.engine.settings.SettingsReader;
  * @param priors       each parameter's prior, in vector order
  * @param scratch      the folder under which workers get their scratch folders, or null for the
  *                     system's temporary folder
+ * @param fileMode     file mode's settings, or null in worker mode
  */
 public record ProgramSettings(List<String> command, List<Path> files, Map<String, String> environment,
         Duration timeout, Duration startTimeout, Mode mode, int batch, List<String> names,
-        List<UnivariateDistribution> priors, Path scratch) {
+        List<UnivariateDistribution> priors, Path scratch, FileMode fileMode) {
 
     /** How skerry talks to the program. */
     public enum Mode { WORKER, FILE }
 
+    /**
+     * File mode: the input file's template (absolute) and text, the names of the input file skerry
+     * writes and the output file the program writes in its folder, and how many failed
+     * evaluations' folders are kept.
+     */
+    public record FileMode(Path template, String templateText, String inputName, String outputName, int keepFailed) {
+    }
+
     /** The keys {@code model.program} may hold. */
     public static final Set<String> KEYS = Set.of("command", "files", "environment", "timeout", "start-timeout",
-            "mode", "batch", "parameters", "scratch");
+            "mode", "batch", "parameters", "scratch", "input-template", "input-file", "output-file", "keep-failed");
+
+    /** The keys only file mode reads. */
+    public static final Set<String> FILE_MODE_KEYS = Set.of("input-template", "input-file", "output-file",
+            "keep-failed");
 
     /** The default of {@code timeout}. */
     public static final Duration DEFAULT_TIMEOUT = Duration.ofMinutes(5);
@@ -70,6 +83,24 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
         if (batch < 1 || batch > MAX_BATCH) {
             throw new IllegalArgumentException("batch must be in [1, " + MAX_BATCH + "], was " + batch);
         }
+        if ((mode == Mode.FILE) != (fileMode != null)) {
+            throw new IllegalArgumentException("file mode needs its settings, worker mode none");
+        }
+    }
+
+    /** The input file's name in file mode. */
+    public String inputName() {
+        return fileMode.inputName();
+    }
+
+    /** The output file's name in file mode. */
+    public String outputName() {
+        return fileMode.outputName();
+    }
+
+    /** How many failed evaluations' folders file mode keeps. */
+    public int keepFailed() {
+        return fileMode.keepFailed();
     }
 
     /**
@@ -117,16 +148,54 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
         Duration startTimeout = r.has("start-timeout") ? r.duration("start-timeout") : DEFAULT_START_TIMEOUT;
         String modeText = r.has("mode") ? r.choice("mode", List.of("worker", "file")) : "worker";
         Mode mode = modeText.equals("file") ? Mode.FILE : Mode.WORKER;
+        FileMode fileMode = null;
         if (mode == Mode.FILE) {
-            throw r.error("mode", "file mode is not available yet; use mode = worker");
+            fileMode = readFileMode(r);
+        } else {
+            for (String key : FILE_MODE_KEYS) {
+                if (r.has(key)) {
+                    throw r.error(key, "only file mode (mode = file) reads this setting");
+                }
+            }
         }
         int batch = r.has("batch") ? r.integer("batch", 1, MAX_BATCH) : 1;
         Path scratch = r.has("scratch") ? Path.of(r.text("scratch")) : null;
         List<String> names = new ArrayList<>();
         List<UnivariateDistribution> priors = new ArrayList<>();
         readParameters(r, names, priors);
+        if (fileMode != null) {
+            try {
+                InputTemplate.parse(fileMode.templateText(), names);
+            } catch (IllegalArgumentException e) {
+                throw r.error("input-template", "in " + fileMode.template() + ": " + e.getMessage());
+            }
+        }
         return new ProgramSettings(command, files, environment, timeout, startTimeout, mode, batch, names, priors,
-                scratch);
+                scratch, fileMode);
+    }
+
+    private static FileMode readFileMode(SettingsReader r) {
+        String written = r.requiredText("input-template");
+        Path template = Path.of(written);
+        String text;
+        try {
+            text = java.nio.file.Files.readString(template, java.nio.charset.StandardCharsets.UTF_8);
+        } catch (java.io.IOException | RuntimeException e) {
+            throw r.error("input-template", "cannot read the template " + template + ": " + e.getMessage());
+        }
+        String input = r.has("input-file") ? r.text("input-file") : "input.txt";
+        String output = r.has("output-file") ? r.text("output-file") : "output.txt";
+        for (String key : List.of("input-file", "output-file")) {
+            String name = key.equals("input-file") ? input : output;
+            if (name.isEmpty() || name.contains("/") || name.contains("\\") || name.equals(".") || name.equals("..")) {
+                throw r.error(key, "a file name inside the evaluation's folder, without '/'");
+            }
+        }
+        if (input.equals(output)) {
+            throw r.error("output-file", "must differ from input-file");
+        }
+        int keepFailed = r.has("keep-failed") ? r.integer("keep-failed", 0, 10_000) : 10;
+        return new FileMode(template, text, input, output, keepFailed);
     }
 
     private static List<String> texts(SettingsReader r, String key, boolean required) {

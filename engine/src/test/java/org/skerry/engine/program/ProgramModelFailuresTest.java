@@ -170,7 +170,7 @@ class ProgramModelFailuresTest {
     void cannotStart() {
         ProgramSettings missing = new ProgramSettings(List.of("python-that-is-not-installed", "x.py"), List.of(),
                 PythonWorkers.environment(), Duration.ofSeconds(5), Duration.ofSeconds(30), ProgramSettings.Mode.WORKER,
-                1, List.of("mu"), List.of(org.skerry.engine.model.prior.Normal.of(0, 1)), scratch);
+                1, List.of("mu"), List.of(org.skerry.engine.model.prior.Normal.of(0, 1)), scratch, null);
         assertHas(assertThrows(ProgramStartException.class, () -> new ProgramModel(missing).probe()).getMessage(),
                 "program 'python-that-is-not-installed' is not on the PATH");
         assertHas(startFailure("import-error"), "exited with status 1 before saying it was ready",

@@ -52,6 +52,6 @@ public final class PythonWorkers {
         List<String> command = new ArrayList<>(List.of(PYTHON, SCRIPTS.resolve(script).toString()));
         command.addAll(List.of(arguments));
         return new ProgramSettings(command, files, environment(), timeout, Duration.ofSeconds(60),
-                ProgramSettings.Mode.WORKER, batch, List.of("mu"), List.of(Normal.of(0, 3)), scratch);
+                ProgramSettings.Mode.WORKER, batch, List.of("mu"), List.of(Normal.of(0, 3)), scratch, null);
     }
 }

@@ -69,6 +69,10 @@ public final class AnswerSettings {
                 }
                 settings.put(ModelSpec.PROGRAM_KEY + ".files", String.join(",", hashes));
             }
+            if (spec.model().settings().hasPath("input-template")) {
+                settings.put(ModelSpec.PROGRAM_KEY + ".input-template",
+                        "sha256:" + sha256(Path.of(spec.model().settings().getString("input-template"))));
+            }
         }
         return settings;
     }

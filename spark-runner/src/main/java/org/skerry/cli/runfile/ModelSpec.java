@@ -123,6 +123,14 @@ public record ModelSpec(String name, String className, Config settings, Path dat
             throw r.error(PROGRAM_KEY, "expected an object { command = [...], parameters = [...] }");
         }
         Config raw = r.object(PROGRAM_KEY);
+        if (raw.hasPath("input-template") && raw.getValue("input-template").valueType()
+                == com.typesafe.config.ConfigValueType.STRING) {
+            // Read the template from the run file's folder, as every path of the run file is.
+            Path template = folderOf(raw.getValue("input-template"), file).resolve(raw.getString("input-template"))
+                    .normalize();
+            raw = raw.withValue("input-template", ConfigValueFactory.fromAnyRef(template.toString(),
+                    RunFile.describe(raw.getValue("input-template").origin())));
+        }
         ProgramSettings.read(ModelSettings.of(raw, PROGRAM_KEY, Map.of(), "no data"));
         Config resolved = raw;
         SettingsReader p = SettingsReader.of(raw, PROGRAM_KEY);

@@ -78,6 +78,36 @@ class ProgramModelRunTest {
     }
 
     @Test
+    @DisplayName("the file-mode example (conf/examples/file-mode, shell and awk) from the command: every particle's "
+            + "log-likelihood equals the closed form, the sum of normal log-densities (Commons Math)")
+    void fileModeExample() throws IOException {
+        Path example = Path.of("..", "conf", "examples", "file-mode").toAbsolutePath().normalize();
+        run(example.resolve("run.conf"), "file-mode", "sampler.particles=20", "output.progress=off",
+                "checkpoint.enabled=false");
+        List<Double> y = new java.util.ArrayList<>();
+        for (String line : Files.readAllLines(example.resolve("observations.csv"))) {
+            if (!line.isBlank() && !line.startsWith("#") && !line.equals("y")) {
+                y.add(Double.parseDouble(line));
+            }
+        }
+        List<String> lines = Files.readAllLines(folder.resolve("file-mode").resolve("particles.csv"));
+        List<String> header = List.of(lines.get(0).split(","));
+        int mu = header.indexOf("mu");
+        int logLikelihood = header.indexOf("log_likelihood");
+        assertEquals(21, lines.size(), "20 particles");
+        for (String line : lines.subList(1, lines.size())) {
+            String[] cells = line.split(",");
+            org.apache.commons.math3.distribution.NormalDistribution normal =
+                    new org.apache.commons.math3.distribution.NormalDistribution(null, Double.parseDouble(cells[mu]), 2.0);
+            double exact = 0;
+            for (double v : y) {
+                exact += normal.logDensity(v);
+            }
+            assertEquals(exact, Double.parseDouble(cells[logLikelihood]), 1e-12 * Math.abs(exact), line);
+        }
+    }
+
+    @Test
     @DisplayName("a seeded worker: the same bytes on threads (1 and 2, block size 7), Spark local with 1, 3 and 8 "
             + "partitions, and numpy batches of 7 and 1000 (neither divides the block size)")
     void sameBytesEverywhere() throws IOException {
