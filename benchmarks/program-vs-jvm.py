@@ -3,9 +3,11 @@
 likelihood after the same timed busy wait (TimedSpinNormal, d = 2), same run file otherwise, thread backend with 2 threads: wall time of
 the program model divided by the in-JVM model's, measured side by side in rounds whose order
 alternates, with the load average beside every figure. Also the protocol's cost: the same pair
-with no busy work, the wall-time difference divided by the evaluations.
+with no busy work, the wall-time difference divided by the evaluations (which includes starting the
+workers), and the move phase's difference divided by the moves' evaluations (which does not).
 
-usage: benchmarks/program-vs-jvm.py ROUNDS > benchmarks/results/program-vs-jvm.txt
+usage: benchmarks/program-vs-jvm.py ROUNDS [CASE[:COST]...] > benchmarks/results/program-vs-jvm.txt
+  (all four by default; e.g. single:0 for the one-at-a-time protocol cost only)
 Cases: single (1 ms per evaluation, one particle per request, N = 1000) and batch (100 us per
 evaluation, numpy batches of up to 1000 particles, block size 1000, N = 4000), each also at cost 0.
 Run from the project root after `mvn -q -B -o -pl benchmarks -am package -DskipTests`; the work
@@ -84,15 +86,16 @@ def run_file(name, case, cost, program):
 
 
 def measure(path, out):
+    """Wall seconds, evaluations, and the move phase's seconds (no worker start in it)."""
     shutil.rmtree(out, ignore_errors=True)
     environment = dict(os.environ, SKERRY_CLASSPATH=os.path.join(FROZEN, "spin.jar"))
     subprocess.run([SKERRY, "run", path, "--out", out], check=True, env=environment,
                    stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
     with open(os.path.join(out, "timing.json")) as f:
-        wall = json.load(f)["wall_seconds"]
+        timing = json.load(f)
     with open(os.path.join(out, "summary.json")) as f:
         evaluations = json.load(f)["likelihood_evaluations"]
-    return wall, evaluations
+    return timing["wall_seconds"], evaluations, timing["phase_seconds"]["move"]
 
 
 def main():
@@ -101,10 +104,14 @@ def main():
     shutil.rmtree(WORK, ignore_errors=True)
     os.makedirs(WORK)
     SKERRY, FROZEN = freeze()
-    print("# benchmarks/program-vs-jvm.py %d; python %s" % (rounds, PYTHON))
-    print("case cost_us round load program_s jvm_s ratio program_evals jvm_evals protocol_us_per_eval")
-    for case in CASES:
-        for cost in (CASES[case]["cost"], 0):
+    print("# benchmarks/program-vs-jvm.py %s; python %s" % (" ".join(sys.argv[1:]), PYTHON))
+    print("case cost_us round load program_s jvm_s ratio program_evals jvm_evals protocol_us_per_eval "
+          "move_protocol_us_per_eval")
+    chosen = sys.argv[2:] or ["%s:%s" % (case, cost) for case in CASES for cost in (CASES[case]["cost"], 0)]
+    for choice in chosen:
+        case, cost = choice.split(":") if ":" in choice else (choice, CASES[choice]["cost"])
+        cost = int(cost)
+        if True:
             files = {kind: run_file("%s-%s-%s" % (case, cost, kind), case, cost, kind == "program")
                      for kind in ("program", "jvm")}
             for r in range(rounds):
@@ -113,9 +120,11 @@ def main():
                 result = {}
                 for kind in order:
                     result[kind] = measure(files[kind], os.path.join(WORK, "out-%s-%s-%s" % (case, cost, kind)))
-                (pw, pe), (jw, je) = result["program"], result["jvm"]
-                print("%s %s %d %s %.3f %.3f %.4f %d %d %.2f" % (case, cost, r, before, pw, jw, pw / jw, pe, je,
-                                                                (pw - jw) / pe * 1e6), flush=True)
+                (pw, pe, pm), (jw, je, jm) = result["program"], result["jvm"]
+                moved = pe - CASES[case]["particles"]
+                print("%s %s %d %s %.3f %.3f %.4f %d %d %.2f %.2f" % (case, cost, r, before, pw, jw, pw / jw, pe, je,
+                                                                     (pw - jw) / pe * 1e6, (pm - jm) / moved * 1e6),
+                      flush=True)
 
 
 if __name__ == "__main__":

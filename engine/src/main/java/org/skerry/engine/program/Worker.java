@@ -7,7 +7,6 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Path;
 import java.time.Duration;
 import java.util.concurrent.ScheduledExecutorService;
-import java.util.concurrent.ScheduledFuture;
 import java.util.concurrent.ScheduledThreadPoolExecutor;
 import java.util.concurrent.TimeUnit;
 import org.skerry.engine.process.ChildEnvironment;
@@ -16,7 +15,9 @@ import org.skerry.engine.process.ChildProcess;
 /**
  * One long-lived worker process and the conversation with it ({@link WorkerProtocol}): the start
  * message and the worker's ready line, then requests and replies. A request has a deadline; a
- * timer kills the worker's process tree when it passes, which ends the read in progress. Any
+ * watchdog that looks at every worker 20 times a second kills the process tree of one past its
+ * deadline, which ends the read in progress. (A timer task per request would cost a wake-up of
+ * the timer thread per request, measurable at a millisecond an evaluation.) Any
  * breach of the protocol, an exit, a crash or a timeout leaves the worker broken: it is killed and
  * never used again, and the particles of the request in progress fail with a reason that ends
  * with the worker's standard-error tail. Used by one thread at a time.
@@ -26,6 +27,9 @@ final class Worker implements AutoCloseable {
     private static final int MAX_LINE = 1 << 20;
     /** How long a worker may take to exit after its input closes before it is killed. */
     private static final long STOP_GRACE_MILLIS = 2000;
+    private static final long WATCH_MILLIS = 50;
+    /** The workers whose deadlines the watchdog checks. */
+    private static final java.util.Set<Worker> WATCHED = java.util.concurrent.ConcurrentHashMap.newKeySet();
     private static final ScheduledExecutorService TIMER = timer();
 
     private final ChildProcess child;
@@ -36,6 +40,9 @@ final class Worker implements AutoCloseable {
     private final Duration timeout;
     private final StringBuilder request = new StringBuilder(256);
     private long requests;
+    /** The current request's deadline ({@link System#nanoTime}), checked while {@link #armed}. */
+    private volatile long deadline;
+    private volatile boolean armed;
     private volatile boolean timedOut;
     private boolean broken;
 
@@ -70,8 +77,8 @@ final class Worker implements AutoCloseable {
     }
 
     private void handshake(ProgramSettings settings) {
-        ScheduledFuture<?> deadline = TIMER.schedule(this::expire, settings.startTimeout().toMillis(),
-                TimeUnit.MILLISECONDS);
+        WATCHED.add(this);
+        arm(settings.startTimeout());
         String line;
         try {
             in.write(WorkerProtocol.start(settings.names(), settings.files(), WorkerProtocol.REPLY_LOG_LIKELIHOOD)
@@ -81,7 +88,7 @@ final class Worker implements AutoCloseable {
         } catch (IOException e) {
             line = null;
         } finally {
-            deadline.cancel(false);
+            armed = false;
         }
         if (WorkerProtocol.ready().equals(line)) {
             return;
@@ -123,7 +130,7 @@ final class Worker implements AutoCloseable {
         long number = ++requests;
         request.setLength(0);
         WorkerProtocol.request(request, number, iteration, values, d, from, count, seeds);
-        ScheduledFuture<?> deadline = TIMER.schedule(this::expire, timeout.toMillis(), TimeUnit.MILLISECONDS);
+        arm(timeout);
         try {
             in.write(request.toString().getBytes(StandardCharsets.US_ASCII));
             in.flush();
@@ -159,7 +166,23 @@ final class Worker implements AutoCloseable {
         } catch (IOException e) {
             throw broke(null);
         } finally {
-            deadline.cancel(false);
+            armed = false;
+        }
+    }
+
+    private void arm(Duration limit) {
+        deadline = System.nanoTime() + limit.toNanos();
+        armed = true;
+    }
+
+    /** The watchdog's round: kills every worker past its deadline. */
+    private static void expireOverdue() {
+        long now = System.nanoTime();
+        for (Worker worker : WATCHED) {
+            if (worker.armed && now - worker.deadline >= 0) {
+                worker.armed = false;
+                worker.expire();
+            }
         }
     }
 
@@ -212,12 +235,14 @@ final class Worker implements AutoCloseable {
     /** Kills the worker's process tree at once. */
     void kill() {
         broken = true;
+        WATCHED.remove(this);
         child.kill();
     }
 
     /** Ends the worker politely (its input closes), then removes its scratch folder. */
     @Override
     public void close() {
+        WATCHED.remove(this);
         if (child.isAlive()) {
             child.stop(STOP_GRACE_MILLIS);
         }
@@ -239,7 +264,7 @@ final class Worker implements AutoCloseable {
             thread.setDaemon(true);
             return thread;
         });
-        timer.setRemoveOnCancelPolicy(true);
+        timer.scheduleWithFixedDelay(Worker::expireOverdue, WATCH_MILLIS, WATCH_MILLIS, TimeUnit.MILLISECONDS);
         return timer;
     }
 }

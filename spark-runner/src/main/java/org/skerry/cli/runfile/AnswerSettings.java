@@ -26,10 +26,13 @@ public final class AnswerSettings {
     /**
      * Keys (or prefixes, ending in a dot) that never change the answer (see the design's "same
      * seed, same answer"). The invalid-evaluation limit only decides whether a run stops, so a run
-     * stopped by it can be resumed with a higher limit.
+     * stopped by it can be resumed with a higher limit. Where a program model's scratch folders go,
+     * how long a worker may take to start and how many failed file-mode folders are kept decide
+     * nothing either.
      */
     static final List<String> NEUTRAL = List.of("name", "output.", "backend.", "checkpoint.", "limits.",
-            "sampler.max-invalid-fraction", "model.program.scratch", "model.program.start-timeout");
+            "sampler.max-invalid-fraction", "model.program.scratch", "model.program.start-timeout",
+            "model.program.keep-failed");
 
     private AnswerSettings() {
     }
