@@ -9,7 +9,8 @@ workers), and the move phase's difference divided by the moves' evaluations (whi
 usage: benchmarks/program-vs-jvm.py ROUNDS [CASE[:COST]...] > benchmarks/results/program-vs-jvm.txt
   (all four by default; e.g. single:0 for the one-at-a-time protocol cost only)
 Cases: single (1 ms per evaluation, one particle per request, N = 1000) and batch (100 us per
-evaluation, numpy batches of up to 1000 particles, block size 1000, N = 4000), each also at cost 0.
+evaluation, numpy batches of up to 1000 particles, block size 1000, N = 4000), each also at cost 0
+(the default set); single-1thread (single with one thread, N = 500) on request.
 Run from the project root after `mvn -q -B -o -pl benchmarks -am package -DskipTests`; the work
 folder is benchmarks/target/program-bench, which gets a frozen copy of the built program (so editing
 sources meanwhile cannot set off a rebuild mid-run), of the worker and of the worker library. Wall times are timing.json's wall_seconds (the run
@@ -26,9 +27,12 @@ WORK = os.path.join(ROOT, "benchmarks", "target", "program-bench")
 PYTHON = subprocess.run(["python3", "-c", "import sys; print(sys.executable)"], capture_output=True,
                         text=True).stdout.strip()
 CASES = {
-    "single": dict(cost=1000, batch=1, particles=1000, block=0, batched=False),
-    "batch": dict(cost=100, batch=1000, particles=4000, block=1000, batched=True),
+    "single": dict(cost=1000, batch=1, particles=1000, block=0, batched=False, threads=2),
+    "batch": dict(cost=100, batch=1000, particles=4000, block=1000, batched=True, threads=2),
+    # One thread on the two cores: the JVM's reading thread finds a free core when a reply comes.
+    "single-1thread": dict(cost=1000, batch=1, particles=500, block=0, batched=False, threads=1),
 }
+DEFAULT = ["single:1000", "single:0", "batch:100", "batch:0"]
 
 
 SKERRY = None  # the frozen copy, set in main
@@ -77,7 +81,8 @@ def run_file(name, case, cost, program):
         lines += ["model { class = org.skerry.benchmarks.TimedSpinNormal, settings { dimension = 2, "
                   "cost-micros = %s } }" % cost]
     lines += ["sampler { particles = %d, seed = 5 }" % c["particles"],
-              "backend { kind = threads, threads = 2%s }" % (", block-size = %d" % c["block"] if c["block"] else ""),
+              "backend { kind = threads, threads = %d%s }" % (c["threads"],
+                                                               ", block-size = %d" % c["block"] if c["block"] else ""),
               "checkpoint.enabled = false", "output.progress = off", "output.report = false"]
     path = os.path.join(WORK, name + ".conf")
     with open(path, "w") as f:
@@ -107,7 +112,7 @@ def main():
     print("# benchmarks/program-vs-jvm.py %s; python %s" % (" ".join(sys.argv[1:]), PYTHON))
     print("case cost_us round load program_s jvm_s ratio program_evals jvm_evals protocol_us_per_eval "
           "move_protocol_us_per_eval")
-    chosen = sys.argv[2:] or ["%s:%s" % (case, cost) for case in CASES for cost in (CASES[case]["cost"], 0)]
+    chosen = sys.argv[2:] or DEFAULT
     for choice in chosen:
         case, cost = choice.split(":") if ":" in choice else (choice, CASES[choice]["cost"])
         cost = int(cost)
