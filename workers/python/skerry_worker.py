@@ -153,6 +153,11 @@ def serve(log_likelihood=None, setup=None, batched=False, stdin=None, stdout=Non
         sink.write(("ready %d\n" % PROTOCOL_VERSION).encode("ascii"))
         sink.flush()
         return
+    if start.reply != "log-likelihood":
+        # A reply kind of a later skerry (summaries for ABC): say so rather than answer wrongly.
+        print("skerry_worker: skerry asks for replies of kind %r; this library gives log-likelihoods only"
+              % start.reply, file=sys.stderr)
+        sys.exit(2)
     function = setup(start) if setup is not None else log_likelihood
     if function is None:
         raise TypeError("setup returned no function")
