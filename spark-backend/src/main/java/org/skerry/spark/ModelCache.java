@@ -40,7 +40,7 @@ final class ModelCache {
 
     /** Drops the model of the source with this id from this JVM. */
     static void release(String id) {
-        MODELS.remove(id);
+        closeModel(MODELS.remove(id));
         OWNERS.removeIf(owner -> owner.id.equals(id));
         dropCollected();
     }
@@ -55,7 +55,18 @@ final class ModelCache {
         for (Reference<? extends ModelSource> gone = COLLECTED.poll(); gone != null; gone = COLLECTED.poll()) {
             Owner owner = (Owner) gone;
             OWNERS.remove(owner);
-            MODELS.remove(owner.id);
+            closeModel(MODELS.remove(owner.id));
+        }
+    }
+
+    /** Ends a model that holds processes or connections (a program model's workers). */
+    private static void closeModel(Model model) {
+        if (model instanceof AutoCloseable) {
+            try {
+                ((AutoCloseable) model).close();
+            } catch (Exception e) {
+                // the model is dropped either way; what it held ends with the JVM at the latest
+            }
         }
     }
 

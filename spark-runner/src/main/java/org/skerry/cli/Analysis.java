@@ -22,6 +22,7 @@ import org.skerry.cli.progress.ProgressDisplay;
 import org.skerry.cli.report.ReportWriter;
 import org.skerry.cli.runfile.AnswerSettings;
 import org.skerry.cli.runfile.ModelBuilder;
+import org.skerry.cli.runfile.ModelSpec;
 import org.skerry.cli.runfile.RunFile;
 import org.skerry.cli.runfile.RunFileException;
 import org.skerry.cli.runfile.RunSpec;
@@ -41,6 +42,7 @@ import org.skerry.checkpoint.CheckpointFileSystem;
 import org.skerry.checkpoint.CheckpointFolder;
 import org.skerry.checkpoint.CheckpointResumption;
 import org.skerry.spark.CheckpointVisibility;
+import org.skerry.spark.ProgramStartCheck;
 import org.skerry.checkpoint.CheckpointWriteException;
 import org.skerry.checkpoint.FileCheckpointer;
 import org.skerry.checkpoint.NoUsableCheckpointException;
@@ -97,6 +99,7 @@ public final class Analysis {
     public static Outcome run(RunSpec spec, Path folder, PrintWriter progressOut, IterationListener observer) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         checkParameterNames(spec, built);
+        ModelBuilder.checkStarts(spec, built);
         Instant started = Instant.now();
         Path runFolder = folder != null ? folder
                 : spec.outputs().folder().resolve(spec.name() + "-" + FOLDER_TIME.format(started));
@@ -152,7 +155,9 @@ public final class Analysis {
      */
     public static Outcome resume(Path runFolder, List<String> overrides, PrintWriter progressOut) {
         RunSpec spec = savedSpec(runFolder, overrides);
-        return execute(new Job(spec, ModelBuilder.build(spec), runFolder, Instant.now(), System.nanoTime(),
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        ModelBuilder.checkStarts(spec, built);
+        return execute(new Job(spec, built, runFolder, Instant.now(), System.nanoTime(),
                 Start.FROM_CHECKPOINT), progressOut, IterationListener.NONE);
     }
 
@@ -232,6 +237,10 @@ public final class Analysis {
         if (spec.model().dataFile() != null) {
             file = file.withValue("data.file", spec.model().dataFile().toString());
         }
+        if (spec.model().program()) {
+            // Absolute paths (files, ./ commands), so the run folder resumes from anywhere.
+            file = file.withValue(ModelSpec.PROGRAM_KEY, spec.model().settings().root().unwrapped());
+        }
         String checkpoints = spec.checkpoints().path();
         if (checkpoints != null && new org.apache.hadoop.fs.Path(checkpoints).toUri().getScheme() == null) {
             file = file.withValue("checkpoint.path", Path.of(checkpoints).toAbsolutePath().normalize().toString());
@@ -298,6 +307,7 @@ public final class Analysis {
             StopCondition stop, PrintWriter notices) {
         ModelBuilder.Built built = ModelBuilder.build(spec);
         checkParameterNames(spec, built);
+        ModelBuilder.checkStarts(spec, built);
         Instant started = Instant.now();
         prepare(folder);
         RunOutputs.writeSettings(folder, forRunFolder(spec).render());
@@ -312,7 +322,9 @@ public final class Analysis {
     public static Outcome resume(Path folder, PopulationBackend backend, IterationListener listener,
             StopCondition stop, PrintWriter notices) {
         RunSpec spec = savedSpec(folder, List.of());
-        return core(new Job(spec, ModelBuilder.build(spec), folder, Instant.now(), System.nanoTime(),
+        ModelBuilder.Built built = ModelBuilder.build(spec);
+        ModelBuilder.checkStarts(spec, built);
+        return core(new Job(spec, built, folder, Instant.now(), System.nanoTime(),
                 Start.FROM_CHECKPOINT), backend, listener, stop, notices);
     }
 
@@ -333,6 +345,9 @@ public final class Analysis {
         SortedMap<String, String> answer = AnswerSettings.of(spec);
         if (spec.checkpoints().enabled()) {
             checkVisible(backend, checkpoints);
+        }
+        if (spec.model().program()) {
+            checkProgramStarts(backend, built);
         }
         Checkpointer checkpointer = spec.checkpoints().enabled()
                 ? new FileCheckpointer(checkpoints, spec.checkpoints().everyIterations(), spec.checkpoints().everyMinutes(),
@@ -432,6 +447,25 @@ public final class Analysis {
         } catch (java.io.IOException e) {
             throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot write to the checkpoint folder "
                     + checkpoints.files().root() + ": " + e.getMessage(), e);
+        }
+    }
+
+    /**
+     * On a cluster, every executor must be able to start the model program (the driver's check,
+     * {@link ModelBuilder#checkStarts}, covers local mode and the thread backend).
+     */
+    private static void checkProgramStarts(PopulationBackend backend, ModelBuilder.Built built) {
+        if (!(backend instanceof SparkBackend)) {
+            return;
+        }
+        JavaSparkContext context = ((SparkBackend) backend).context();
+        if (SparkMasters.isInProcess(context.master())) {
+            return;
+        }
+        try {
+            ProgramStartCheck.check(context, built.source());
+        } catch (IllegalArgumentException e) {
+            throw new RunFileException(e.getMessage(), e);
         }
     }
 

@@ -100,8 +100,15 @@ public final class SettingsReader {
 
     /** A located error: "where: full.key = value: problem". */
     public SettingsException error(String key, String problem) {
-        String value = has(key) ? config.getValue(key).render() : "null";
+        String value = has(key) ? render(config.getValue(key)) : "null";
         return new SettingsException(where(key) + ": " + fullKey(key) + " = " + value + ": " + problem);
+    }
+
+    /** A value as messages show it: scalars as HOCON writes them, lists and objects on one line. */
+    private static String render(ConfigValue value) {
+        com.typesafe.config.ConfigValueType type = value.valueType();
+        return type == com.typesafe.config.ConfigValueType.LIST || type == com.typesafe.config.ConfigValueType.OBJECT
+                ? value.render(com.typesafe.config.ConfigRenderOptions.concise()) : value.render();
     }
 
     /** A located error for a required setting that is not set: "where, full.key: missing setting". */

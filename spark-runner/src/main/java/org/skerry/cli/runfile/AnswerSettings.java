@@ -18,17 +18,21 @@ import java.util.TreeMap;
  * resolved key except those that only say how or where the run goes (run name, output,
  * progress, backend and executors, checkpoints, limits, the invalid-evaluation limit). The data file enters by the SHA-256 of
  * its content rather than its path, so a moved data file is the same data and an edited one is
- * not. A checkpoint saves this map and a resume compares it.
+ * not; so do the files a program model reads ({@code model.program.files}). A checkpoint saves
+ * this map and a resume compares it.
  */
 public final class AnswerSettings {
 
     /**
      * Keys (or prefixes, ending in a dot) that never change the answer (see the design's "same
      * seed, same answer"). The invalid-evaluation limit only decides whether a run stops, so a run
-     * stopped by it can be resumed with a higher limit.
+     * stopped by it can be resumed with a higher limit. Where a program model's scratch folders go,
+     * how long a worker may take to start and how many failed file-mode folders are kept decide
+     * nothing either.
      */
     static final List<String> NEUTRAL = List.of("name", "output.", "backend.", "checkpoint.", "limits.",
-            "sampler.max-invalid-fraction");
+            "sampler.max-invalid-fraction", "model.program.scratch", "model.program.start-timeout",
+            "model.program.keep-failed");
 
     private AnswerSettings() {
     }
@@ -39,7 +43,7 @@ public final class AnswerSettings {
                 && spec.file().config().getString("sampler.sequence").equals("data-tempering");
         for (Map.Entry<String, ConfigValue> entry : spec.file().config().entrySet()) {
             String key = entry.getKey();
-            if (isNeutral(key)) {
+            if (isNeutral(key) || key.startsWith(ModelSpec.PROGRAM_KEY + ".")) {
                 continue;
             }
             // Likelihood tempering, the default, is what every run did before the sequence could be
@@ -51,6 +55,27 @@ public final class AnswerSettings {
         }
         if (spec.model().dataFile() != null) {
             settings.put("data.file", "sha256:" + sha256(spec.model().dataFile()));
+        }
+        if (spec.model().program()) {
+            // The program's settings with their paths made absolute, as run.conf saves them, so a
+            // resume compares like with like; its files enter by content, in order, like the data file.
+            for (Map.Entry<String, ConfigValue> entry : spec.model().settings().entrySet()) {
+                String key = ModelSpec.PROGRAM_KEY + "." + entry.getKey();
+                if (!isNeutral(key)) {
+                    settings.put(key, entry.getValue().render(com.typesafe.config.ConfigRenderOptions.concise()));
+                }
+            }
+            if (spec.model().settings().hasPath("files")) {
+                List<String> hashes = new java.util.ArrayList<>();
+                for (String file : spec.model().settings().getStringList("files")) {
+                    hashes.add("sha256:" + sha256(Path.of(file)));
+                }
+                settings.put(ModelSpec.PROGRAM_KEY + ".files", String.join(",", hashes));
+            }
+            if (spec.model().settings().hasPath("input-template")) {
+                settings.put(ModelSpec.PROGRAM_KEY + ".input-template",
+                        "sha256:" + sha256(Path.of(spec.model().settings().getString("input-template"))));
+            }
         }
         return settings;
     }

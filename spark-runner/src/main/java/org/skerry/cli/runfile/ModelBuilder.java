@@ -20,6 +20,8 @@ import org.skerry.engine.model.settings.ModelFactory;
 import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.SettingDescription;
 import org.skerry.engine.model.settings.SettingsModelSource;
+import org.skerry.engine.program.ProgramModel;
+import org.skerry.engine.program.ProgramStartException;
 
 /**
  * Builds the model a run file asks for: reads its data (CSV file or inline), binds data columns
@@ -27,9 +29,6 @@ import org.skerry.engine.model.settings.SettingsModelSource;
  * failure is bad input and becomes a {@link RunFileException}.
  */
 public final class ModelBuilder {
-
-    /** Where a model's settings sit in a run file, as messages name their keys. */
-    private static final String MODEL_SETTINGS = "model.settings";
 
     private ModelBuilder() {
     }
@@ -53,9 +52,9 @@ public final class ModelBuilder {
             checkModelKeys(spec, factory);
         }
         SettingsModelSource source = new SettingsModelSource(chosen.name(), chosen.className(),
-                chosen.settings(), MODEL_SETTINGS, columns, dataSource);
+                chosen.settings(), chosen.settingsKey(), columns, dataSource);
         Model model;
-        ModelSettings settings = ModelSettings.of(chosen.settings(), MODEL_SETTINGS, columns, dataSource);
+        ModelSettings settings = ModelSettings.of(chosen.settings(), chosen.settingsKey(), columns, dataSource);
         try {
             model = ModelCreator.create(chosen.name(), chosen.className(), settings, where(spec, "model.class"));
         } catch (ModelNotCreatedException e) {
@@ -70,6 +69,24 @@ public final class ModelBuilder {
         checkBindingsRead(spec, settings.rolesRead());
         checkSequence(spec, model);
         return new Built(model, data, source);
+    }
+
+    /**
+     * For a program model: starts one worker and completes its handshake, so a program that cannot
+     * start (missing, an import error, another protocol version) stops the run before iteration 0
+     * as bad input, with its standard error. Other models need nothing. On a cluster the workers
+     * run on the executors, not here (the driver may be a node without the program), so the check
+     * happens there instead, once the backend is up.
+     */
+    public static void checkStarts(RunSpec spec, Built built) {
+        boolean onCluster = spec.backend().kind().equals("spark") && !SparkMasters.isInProcess(spec.backend().master());
+        if (built.model() instanceof ProgramModel && !onCluster) {
+            try {
+                ((ProgramModel) built.model()).probe();
+            } catch (ProgramStartException e) {
+                throw new RunFileException(e.getMessage(), e);
+            }
+        }
     }
 
     /**

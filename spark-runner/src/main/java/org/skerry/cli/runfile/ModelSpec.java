@@ -3,27 +3,40 @@ package org.skerry.cli.runfile;
 import com.typesafe.config.Config;
 import com.typesafe.config.ConfigValue;
 import com.typesafe.config.ConfigValueType;
+import com.typesafe.config.ConfigValueFactory;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.Collections;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 import java.util.Objects;
+import org.skerry.engine.model.settings.ModelSettings;
+import org.skerry.engine.program.ProgramModelFactory;
+import org.skerry.engine.program.ProgramSettings;
 import org.skerry.engine.settings.SettingsReader;
 
 /**
- * The model a run file chooses and the data bound to it: a built-in model by name or a model class,
- * its settings, the data (a file or an inline object) and the explicit role-to-column bindings.
+ * The model a run file chooses and the data bound to it: a built-in model by name, a model class or
+ * a program ({@code model.program}), its settings, the data (a file or an inline object) and the
+ * explicit role-to-column bindings.
  *
  * @param name           the built-in model's name ({@code model.name}), or null when a class is given
- * @param className      the model class's name ({@code model.class}), or null when a name is given
- * @param settings       the {@code model.settings} object
+ * @param className      the model class's name ({@code model.class}; for a program, its factory's),
+ *                       or null when a name is given
+ * @param settings       the {@code model.settings} object, or for a program the {@code model.program}
+ *                       object with its paths made absolute
  * @param dataFile       the data file, absolute and normalised, or null
  * @param inlineData     the {@code data.inline} object, or null
  * @param columnBindings role-to-column bindings ({@code data.columns}) in the order written
+ * @param program        whether the model is a program ({@code model.program})
  */
 public record ModelSpec(String name, String className, Config settings, Path dataFile, Config inlineData,
-        Map<String, String> columnBindings) {
+        Map<String, String> columnBindings, boolean program) {
+
+    /** Where a program model's settings sit in a run file. */
+    public static final String PROGRAM_KEY = "model.program";
 
     public ModelSpec {
         if ((name == null) == (className == null)) {
@@ -38,9 +51,14 @@ public record ModelSpec(String name, String className, Config settings, Path dat
                 Objects.requireNonNull(columnBindings, "columnBindings")));
     }
 
-    /** A label for outputs: the model name or class. */
+    /** A label for outputs: the model name or class, or "program". */
     public String label() {
-        return name != null ? name : className;
+        return program ? "program" : name != null ? name : className;
+    }
+
+    /** Where the model's own settings sit in the run file ({@code model.settings} or {@code model.program}). */
+    public String settingsKey() {
+        return program ? PROGRAM_KEY : "model.settings";
     }
 
     /** Reads and checks the {@code model} and {@code data} keys of {@code file}. */
@@ -48,8 +66,12 @@ public record ModelSpec(String name, String className, Config settings, Path dat
         Config c = r.config();
         String modelName = r.text("model.name");
         String modelClass = r.text("model.class");
+        if (r.has(PROGRAM_KEY)) {
+            return readProgram(r, file, modelName, modelClass);
+        }
         if ((modelName == null) == (modelClass == null)) {
-            String choose = "model.name (a built-in model, see `skerry models`) or model.class (a class on the classpath)";
+            String choose = "model.name (a built-in model, see `skerry models`), model.class (a class on the "
+                    + "classpath) or model.program (your own program)";
             if (modelName != null) {
                 throw new RunFileException(RunFile.describe(c.getValue("model.class").origin()) + ": model.name = \""
                         + modelName + "\" and model.class = \"" + modelClass + "\": set only one of " + choose);
@@ -73,7 +95,65 @@ public record ModelSpec(String name, String className, Config settings, Path dat
             }
             columnBindings.put(entry.getKey(), (String) entry.getValue().unwrapped());
         }
-        return new ModelSpec(modelName, modelClass, settings, dataFile, inlineData, columnBindings);
+        return new ModelSpec(modelName, modelClass, settings, dataFile, inlineData, columnBindings, false);
+    }
+
+    /**
+     * Reads {@code model.program}: checks every setting (located errors), then makes its paths
+     * absolute — each file in {@code files}, and each command element that starts with {@code ./}
+     * or {@code ../} — from the folder of the file that writes them, since the program runs in a
+     * scratch folder of its own. A program reads its own files, so {@code data} must stay unset.
+     */
+    private static ModelSpec readProgram(SettingsReader r, RunFile file, String modelName, String modelClass) {
+        Config c = r.config();
+        if (modelName != null || modelClass != null) {
+            String other = modelName != null ? "model.name" : "model.class";
+            throw r.error(other, "set only one of model.name, model.class and model.program");
+        }
+        for (String key : List.of("data.file", "data.inline")) {
+            if (r.has(key)) {
+                throw r.error(key, "a program model reads its own files: list them in model.program.files, which "
+                        + "hands each to the program by absolute path");
+            }
+        }
+        if (!r.object("data.columns").isEmpty()) {
+            throw r.error("data.columns", "a program model binds no data columns");
+        }
+        if (c.getValue(PROGRAM_KEY).valueType() != com.typesafe.config.ConfigValueType.OBJECT) {
+            throw r.error(PROGRAM_KEY, "expected an object { command = [...], parameters = [...] }");
+        }
+        Config raw = r.object(PROGRAM_KEY);
+        if (raw.hasPath("input-template") && raw.getValue("input-template").valueType()
+                == com.typesafe.config.ConfigValueType.STRING) {
+            // Read the template from the run file's folder, as every path of the run file is.
+            Path template = folderOf(raw.getValue("input-template"), file).resolve(raw.getString("input-template"))
+                    .normalize();
+            raw = raw.withValue("input-template", ConfigValueFactory.fromAnyRef(template.toString(),
+                    RunFile.describe(raw.getValue("input-template").origin())));
+        }
+        ProgramSettings.read(ModelSettings.of(raw, PROGRAM_KEY, Map.of(), "no data"));
+        Config resolved = raw;
+        SettingsReader p = SettingsReader.of(raw, PROGRAM_KEY);
+        List<String> command = new ArrayList<>(raw.getStringList("command"));
+        for (int i = 0; i < command.size(); i++) {
+            String element = command.get(i);
+            if (element.startsWith("./") || element.startsWith("../")) {
+                command.set(i, folderOf(raw.getValue("command"), file).resolve(element).normalize().toString());
+            }
+        }
+        resolved = resolved.withValue("command", ConfigValueFactory.fromIterable(command));
+        if (raw.hasPath("files")) {
+            List<String> files = new ArrayList<>();
+            for (String written : raw.getStringList("files")) {
+                Path path = folderOf(raw.getValue("files"), file).resolve(written).normalize();
+                if (!Files.isRegularFile(path) || !Files.isReadable(path)) {
+                    throw p.error("files", "file " + path + (Files.exists(path) ? " cannot be read" : " does not exist"));
+                }
+                files.add(path.toString());
+            }
+            resolved = resolved.withValue("files", ConfigValueFactory.fromIterable(files));
+        }
+        return new ModelSpec(null, ProgramModelFactory.class.getName(), resolved, null, null, Map.of(), true);
     }
 
     /**

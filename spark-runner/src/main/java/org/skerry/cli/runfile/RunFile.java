@@ -28,8 +28,8 @@ public final class RunFile {
 
     /** Run files: defaults in reference.conf; the user's own keys in model settings, role bindings, inline data. */
     static final SettingsFile KIND = new SettingsFile("run file", "reference.conf",
-            List.of("model.settings", "data.columns", "data.inline", "backend.spark", "sampler.abc.distance-weights",
-                    "sampler.abc.observed"), "");
+            List.of("model.settings", "model.program", "data.columns", "data.inline", "backend.spark",
+                    "sampler.abc.distance-weights", "sampler.abc.observed"), "");
 
     private final Path path;
     private final Config config;

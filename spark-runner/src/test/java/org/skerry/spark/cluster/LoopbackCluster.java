@@ -104,7 +104,18 @@ public final class LoopbackCluster implements AutoCloseable {
      * @throws IOException when a process cannot be started
      */
     public static LoopbackCluster start(Path dir, int workers, Duration timeout) throws IOException {
+        return start(dir, workers, timeout, k -> Map.of());
+    }
+
+    /**
+     * Starts a cluster as {@link #start(Path, int, Duration)} does, worker {@code k} (1 to
+     * {@code workers}) with {@code workerEnvironment.apply(k)} added to its environment, which its
+     * executors inherit (a per-worker PATH, for instance).
+     */
+    public static LoopbackCluster start(Path dir, int workers, Duration timeout,
+            java.util.function.IntFunction<Map<String, String>> workerEnvironment) throws IOException {
         Objects.requireNonNull(dir, "dir");
+        Objects.requireNonNull(workerEnvironment, "workerEnvironment");
         Objects.requireNonNull(timeout, "timeout");
         if (workers < 1 || workers > 50) {
             throw new IllegalArgumentException("workers must be 1 to 50, not " + workers);
@@ -118,7 +129,7 @@ public final class LoopbackCluster implements AutoCloseable {
         LoopbackCluster cluster = new LoopbackCluster(root, workers, freePort("127.0.0.1"),
                 freePort("127.0.0.1"));
         try {
-            cluster.launch("master", "127.0.0.1", sparkHome, List.of(
+            cluster.launch("master", "127.0.0.1", sparkHome, Map.of(), List.of(
                     "-Dspark.master.rest.enabled=false",
                     "org.apache.spark.deploy.master.Master",
                     "--host", "127.0.0.1",
@@ -127,7 +138,7 @@ public final class LoopbackCluster implements AutoCloseable {
             for (int k = 1; k <= workers; k++) {
                 String host = workerHost(k);
                 Path work = Files.createDirectories(root.resolve("work").resolve("worker-" + k));
-                cluster.launch("worker-" + k, host, sparkHome, List.of(
+                cluster.launch("worker-" + k, host, sparkHome, workerEnvironment.apply(k), List.of(
                         "org.apache.spark.deploy.worker.Worker",
                         "--host", host,
                         "--cores", "1",
@@ -315,7 +326,8 @@ public final class LoopbackCluster implements AutoCloseable {
         }
     }
 
-    private void launch(String name, String host, Path sparkHome, List<String> mainAndArgs) throws IOException {
+    private void launch(String name, String host, Path sparkHome, Map<String, String> added, List<String> mainAndArgs)
+            throws IOException {
         List<String> command = new ArrayList<>();
         command.add(Paths.get(System.getProperty("java.home"), "bin", "java").toString());
         command.add(DAEMON_HEAP);
@@ -346,6 +358,7 @@ public final class LoopbackCluster implements AutoCloseable {
         env.put("SPARK_LOCAL_IP", host);
         env.put("SPARK_LOCAL_DIRS", tmp.toString());
         env.put("JAVA_TOOL_OPTIONS", "-Djava.io.tmpdir=" + tmp);
+        env.putAll(added);
         daemons.add(builder.start());
         names.add(name);
     }

@@ -74,6 +74,11 @@ public final class ModelSettings {
         return new Builder();
     }
 
+    /** The reader behind these settings, for models that read structures of their own (lists of objects). */
+    public SettingsReader reader() {
+        return reader;
+    }
+
     /** The settings' Typesafe Config tree. */
     public Config config() {
         return reader.config();

@@ -38,7 +38,14 @@ public final class InitialDraw {
         double[] x = new double[d];
         RandomStream random = new RandomStream(seed, StreamPurpose.INITIAL_DRAW, 0, 0, 0);
         double[] values = block.values();
-        for (int i = 0; i < block.size(); i++) {
+        int n = block.size();
+        // Draw every particle first, then evaluate the living ones together, so a batched model
+        // (a worker program answering many particles per request) gets one batch per block.
+        int[] pending = new int[n];
+        long[] pendingIndex = new long[n];
+        double[] pendingX = new double[n * d];
+        int pendingCount = 0;
+        for (int i = 0; i < n; i++) {
             long index = block.index()[i];
             random.reset(seed, StreamPurpose.INITIAL_DRAW, 0, index, 0);
             start.sample(random, x);
@@ -56,13 +63,25 @@ public final class InitialDraw {
                 block.logWeight()[i] = Double.NEGATIVE_INFINITY;
                 continue;
             }
-            // Before the first observation is added (data tempering) there is nothing to evaluate.
-            double logLikelihood = usesLikelihood ? evaluator.evaluate(x, index, 0, 0) : 0.0;
-            block.logLikelihood()[i] = logLikelihood;
             // An invalid evaluation counts as a zero likelihood: the weight stays that of the
             // prior target at φ = 0 and drops to zero at the first reweighting, as for any zero.
             double logWeight = proposal == null ? 0.0 : logPrior - proposal.logDensity(x);
             block.logWeight()[i] = Double.isNaN(logWeight) ? Double.NEGATIVE_INFINITY : logWeight;
+            // Before the first observation is added (data tempering) there is nothing to evaluate.
+            block.logLikelihood()[i] = 0.0;
+            if (usesLikelihood) {
+                pending[pendingCount] = i;
+                pendingIndex[pendingCount] = index;
+                System.arraycopy(x, 0, pendingX, pendingCount * d, d);
+                pendingCount++;
+            }
+        }
+        if (pendingCount > 0) {
+            double[] out = new double[pendingCount];
+            evaluator.evaluateAll(pendingX, pendingCount, pendingIndex, 0, 0, out, x);
+            for (int k = 0; k < pendingCount; k++) {
+                block.logLikelihood()[pending[k]] = out[k];
+            }
         }
         return evaluator.drainTally();
     }

@@ -1,5 +1,6 @@
 package org.skerry.engine.population.block;
 
+import org.skerry.engine.model.BatchContext;
 import org.skerry.engine.model.BatchedModel;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.Model;
@@ -22,7 +23,7 @@ import org.skerry.engine.target.Target;
  *
  * <p>One instance per worker thread (it reuses its context and stream); not thread-safe.
  */
-public final class LikelihoodEvaluator implements LikelihoodContext {
+public final class LikelihoodEvaluator implements LikelihoodContext, BatchContext {
 
     private final Model model;
     private final long seed;
@@ -33,6 +34,8 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
     private int iteration;
     private int step;
     private boolean streamReady;
+    /** The particle indices of the batch in progress ({@link BatchContext}). */
+    private long[] batchIndices;
 
     private long evaluations;
     private long zeroLikelihood;
@@ -122,6 +125,8 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
      * returns invalid values, only those vectors are evaluated again one by one (with retries, and
      * reported); when it throws, every vector is. A batched model is deterministic, so its valid
      * values equal the single calls' and the counts do not depend on how particles are grouped.
+     * It receives this evaluator as its {@link BatchContext}: vector {@code i}'s stream is the one
+     * its single call would get.
      */
     public void evaluateAll(double[] parameters, int count, long[] indices, int iteration, int step,
             double[] out, double[] scratch) {
@@ -129,10 +134,15 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
         boolean batched = false;
         if ((term == null || term.wholeLikelihood()) && model instanceof BatchedModel && count > 0) {
             try {
-                ((BatchedModel) model).logLikelihoods(parameters, count, out);
+                this.iteration = iteration;
+                this.step = step;
+                this.batchIndices = indices;
+                ((BatchedModel) model).logLikelihoods(parameters, count, (BatchContext) this, out);
                 batched = true;
             } catch (RuntimeException e) {
                 // fall through: single calls find and report the failing particles
+            } finally {
+                batchIndices = null;
             }
         }
         for (int i = 0; i < count; i++) {
@@ -179,6 +189,24 @@ public final class LikelihoodEvaluator implements LikelihoodContext {
             streamReady = true;
         }
         return simulatorStream;
+    }
+
+    @Override
+    public long particleIndex(int i) {
+        return batchIndex(i);
+    }
+
+    @Override
+    public RandomStream random(int i) {
+        streamReady = false;
+        return simulatorStream.reset(seed, StreamPurpose.SIMULATOR, iteration, batchIndex(i), step);
+    }
+
+    private long batchIndex(int i) {
+        if (batchIndices == null) {
+            throw new IllegalStateException("no batch is being evaluated");
+        }
+        return batchIndices[i];
     }
 
     @Override

@@ -104,6 +104,14 @@ final class ThreadBlocks implements BlockExecutor {
     @Override
     public void close() {
         blocks = new ArrayList<>();
+        // A model holding processes or connections (a program model's workers) ends with its population.
+        if (model instanceof AutoCloseable) {
+            try {
+                ((AutoCloseable) model).close();
+            } catch (Exception e) {
+                throw new IllegalStateException("cannot close the model: " + e.getMessage(), e);
+            }
+        }
     }
 
     private static List<Integer> numbers(int count) {
