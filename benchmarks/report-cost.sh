@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # The report's share of the demo's wall time, two ways in one script:
-#  1. within each run with the report on: the time each analysis took to make its report (the
+#  1. within each demo with the report on: the time each run report and the comparison took (the
 #     "made in" seconds skerry prints) over the demo's wall time — free of run-to-run noise;
 #  2. side by side: `skerry demo` with the report on and off (--set output.report=false), the order
 #     alternating every round so that a burst of load hits both alike; the ratio per round.
@@ -15,7 +15,7 @@ wall() {
   local label="$1" round="$2"; shift 2
   local start end report
   start=$(now)
-  bin/skerry demo --out "$out/$label-$round" "$@" >/dev/null 2>"$out/$label-$round.err"
+  bin/skerry demo --out "$out/$label-$round" "$@" >"$out/$label-$round.err" 2>&1
   end=$(now)
   report=$(sed -n 's/.*report: .* (made in \([0-9.]*\) s)$/\1/p' "$out/$label-$round.err" | awk '{ s += $1 } END { printf "%.2f", s }')
   awk -v l="$label" -v r="$round" -v s="$start" -v e="$end" -v rep="$report" -v load="$(cut -d' ' -f1-3 /proc/loadavg)" \

@@ -78,7 +78,10 @@ final class BatchCommand implements Callable<Integer> {
      */
     static void writeReport(Path folder, PrintWriter stdout, PrintWriter notices) {
         try {
-            stdout.println("report: " + BatchReportWriter.write(folder));
+            long start = System.nanoTime();
+            Path page = BatchReportWriter.write(folder);
+            stdout.println(String.format(Locale.ROOT, "report: %s (made in %.2f s)", page,
+                    (System.nanoTime() - start) * 1e-9));
             stdout.flush();
         } catch (java.io.IOException | RuntimeException e) {
             notices.println("skerry: the results are written, but their report could not be: " + e.getMessage()
