@@ -1,9 +1,14 @@
 package org.skerry.cli.report;
 
 import java.io.IOException;
+import java.io.InterruptedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
 import org.skerry.cli.output.AtomicFile;
 
 /**
@@ -41,10 +46,38 @@ public final class ReportWriter {
         System.setProperty("java.awt.headless", "true");
         Path folder = run.folder().resolve(FOLDER);
         Files.createDirectories(folder);
-        List<PosteriorFigures.Figure> posteriors = PosteriorFigures.write(run, folder);
-        FigureFile.Written pairFigure = run.parameters().size() >= 2 ? PairFigure.write(run, pairs, folder) : null;
-        FitFigures.Written fit = run.fit().available() ? FitFigures.write(run.fit(), folder) : null;
-        List<IterationFigures.Figure> iterations = IterationFigures.write(run, folder);
+        // Two halves drawn at once: the figures are independent files, and drawing and PNG encoding
+        // are most of a report's time (half of it in one thread at the end of the demo's runs).
+        ExecutorService other = Executors.newSingleThreadExecutor(runnable -> {
+            Thread thread = new Thread(runnable, "report-figures");
+            thread.setDaemon(true);
+            return thread;
+        });
+        List<PosteriorFigures.Figure> posteriors;
+        FigureFile.Written pairFigure;
+        FitFigures.Written fit;
+        List<IterationFigures.Figure> iterations;
+        try {
+            Future<List<PosteriorFigures.Figure>> drawn = other.submit(() -> PosteriorFigures.write(run, folder));
+            pairFigure = run.parameters().size() >= 2 ? PairFigure.write(run, pairs, folder) : null;
+            fit = run.fit().available() ? FitFigures.write(run.fit(), folder) : null;
+            iterations = IterationFigures.write(run, folder);
+            posteriors = drawn.get();
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            throw new InterruptedIOException("interrupted while drawing the report's figures");
+        } catch (ExecutionException e) {
+            Throwable cause = e.getCause();
+            if (cause instanceof IOException io) {
+                throw io;
+            }
+            if (cause instanceof RuntimeException runtime) {
+                throw runtime;
+            }
+            throw new IllegalStateException(cause);
+        } finally {
+            other.shutdownNow();
+        }
         Path page = folder.resolve(PAGE);
         AtomicFile.writeString(page, HtmlPage.of(run, notes, posteriors, pairs, pairFigure, fit, iterations));
         return page;
