@@ -31,6 +31,22 @@ order of start.parameters) and seeds (a list of n ints), and expects n numbers b
 result must depend only on its own values and seed, never on which particles share the batch:
 that is what keeps skerry's answers identical for every batch size and partitioning.
 
+A simulator for approximate Bayesian computation (the run file names its summaries in
+model.program.summaries and runs sampler.sequence = abc) gives serve() a summaries function
+instead: it returns one number per summary, in the order the run file names them
+(start.summaries), and draws its randomness from the seed alone:
+
+    def summaries(theta, seed):
+        rng = random.Random(seed)
+        y = [rng.gauss(theta["mu"], 1.0) for _ in range(10)]
+        return [statistics.fmean(y), statistics.stdev(y)]
+
+    skerry_worker.serve(summaries=summaries)
+
+With batched=True it takes (values, seeds) and returns n rows of one number per summary (an n x s
+numpy array or a list of lists). A setup function may return either kind of function: the start
+message says which skerry asks for (start.reply is "log-likelihood" or "summaries").
+
 Return float("-inf") for parameters the model rules out (a zero likelihood). Raise an exception
 (or return NaN) for a failed evaluation: skerry counts it as invalid, with the message as the
 reason, and retries it as the run file allows. Print diagnostics to standard error (print() goes
@@ -48,17 +64,19 @@ __all__ = ["serve", "Start", "PROTOCOL_VERSION"]
 
 
 class Start:
-    """The start message: protocol version, parameter names (vector order), files, reply kind."""
+    """The start message: protocol version, parameter names (vector order), files, reply kind,
+    and the summary names when the reply kind is "summaries" (else an empty list)."""
 
-    def __init__(self, version, parameters, files, reply):
+    def __init__(self, version, parameters, files, reply, summaries=()):
         self.version = version
         self.parameters = parameters
         self.files = files
         self.reply = reply
+        self.summaries = list(summaries)
 
     def __repr__(self):
-        return "Start(version=%r, parameters=%r, files=%r, reply=%r)" % (
-            self.version, self.parameters, self.files, self.reply)
+        return "Start(version=%r, parameters=%r, files=%r, reply=%r, summaries=%r)" % (
+            self.version, self.parameters, self.files, self.reply, self.summaries)
 
 
 class ProtocolError(Exception):
@@ -96,13 +114,13 @@ def _read_start(source):
     if len(words) != 2 or words[0] != "skerry-worker":
         raise ProtocolError("expected 'skerry-worker VERSION', got %r" % first)
     version = int(words[1])
-    parameters, files, reply = [], [], "log-likelihood"
+    parameters, files, reply, summaries = [], [], "log-likelihood", []
     while True:
         line = _read_line(source)
         if line is None:
             raise ProtocolError("the start message ended early")
         if line == "start":
-            return Start(version, parameters, files, reply)
+            return Start(version, parameters, files, reply, summaries)
         if line.startswith("parameters "):
             words = line.split(" ")
             parameters = words[2:]
@@ -116,6 +134,11 @@ def _read_start(source):
                 files.append(path)
         elif line.startswith("reply "):
             reply = line[len("reply "):]
+        elif line.startswith("summaries "):
+            words = line.split(" ")
+            summaries = words[2:]
+            if int(words[1]) != len(summaries):
+                raise ProtocolError("summary count does not match: %r" % line)
         # Lines of later minor additions are ignored, as the protocol allows.
 
 
@@ -131,15 +154,17 @@ def _failure_text(error):
     return _one_line("%s: %s" % (type(error).__name__, error))
 
 
-def serve(log_likelihood=None, setup=None, batched=False, stdin=None, stdout=None):
+def serve(log_likelihood=None, setup=None, batched=False, stdin=None, stdout=None, summaries=None):
     """Runs the worker loop until skerry closes standard input.
 
-    Give either log_likelihood (the evaluating function) or setup (a function of the Start
-    message returning the evaluating function). With batched=True the function takes (values,
-    seeds) for a whole request and returns one number per particle.
+    Give one of log_likelihood (the evaluating function), summaries (a simulator's function
+    returning one number per summary) or setup (a function of the Start message returning the
+    function skerry's start message asks for). With batched=True the function takes (values,
+    seeds) for a whole request and returns one result per particle.
     """
-    if (log_likelihood is None) == (setup is None):
-        raise TypeError("give exactly one of log_likelihood and setup")
+    given = [f for f in (log_likelihood, setup, summaries) if f is not None]
+    if len(given) != 1:
+        raise TypeError("give exactly one of log_likelihood, summaries and setup")
     source = stdin if stdin is not None else sys.stdin.buffer
     sink = stdout if stdout is not None else sys.stdout.buffer
     # Anything the model prints goes to standard error, keeping standard output for the protocol.
@@ -153,12 +178,22 @@ def serve(log_likelihood=None, setup=None, batched=False, stdin=None, stdout=Non
         sink.write(("ready %d\n" % PROTOCOL_VERSION).encode("ascii"))
         sink.flush()
         return
-    if start.reply != "log-likelihood":
-        # A reply kind of a later skerry (summaries for ABC): say so rather than answer wrongly.
-        print("skerry_worker: skerry asks for replies of kind %r; this library gives log-likelihoods only"
-              % start.reply, file=sys.stderr)
+    if start.reply not in ("log-likelihood", "summaries"):
+        # A reply kind of a later skerry: say so rather than answer wrongly.
+        print("skerry_worker: skerry asks for replies of kind %r; this library gives log-likelihoods and "
+              "summaries only" % start.reply, file=sys.stderr)
         sys.exit(2)
-    function = setup(start) if setup is not None else log_likelihood
+    if start.reply == "summaries" and log_likelihood is not None:
+        print("skerry_worker: the run file names summaries (model.program.summaries = %s), but this worker "
+              "gives a log-likelihood: call serve(summaries=...) for a simulator, or remove the key"
+              % ", ".join(start.summaries), file=sys.stderr)
+        sys.exit(2)
+    if start.reply == "log-likelihood" and summaries is not None:
+        print("skerry_worker: this worker simulates summaries (serve(summaries=...)), but the run file asks "
+              "for a log-likelihood: name the summaries in model.program.summaries and run "
+              "sampler.sequence = abc", file=sys.stderr)
+        sys.exit(2)
+    function = setup(start) if setup is not None else (log_likelihood or summaries)
     if function is None:
         raise TypeError("setup returned no function")
     names = start.parameters
@@ -190,7 +225,9 @@ def serve(log_likelihood=None, setup=None, batched=False, stdin=None, stdout=Non
         seeds = list(map(int, fields[0::width]))
         columns = [list(map(float.fromhex, fields[j::width])) for j in range(1, width)]
         out = ["result %s %d\n" % (request, count)]
-        if batched:
+        if start.summaries:
+            out.extend(_simulate(function, columns, seeds, names, len(start.summaries), batched, numpy))
+        elif batched:
             out.extend(_evaluate_batch(function, columns, seeds, numpy))
         else:
             for row, seed in zip(zip(*columns), seeds):
@@ -226,3 +263,41 @@ def _evaluate_batch(function, columns, seeds, numpy):
             except (TypeError, ValueError) as error:
                 lines.append("error %s\n" % _failure_text(error))
         return lines
+
+
+def _summary_line(row, width):
+    row = list(row)
+    if len(row) != width:
+        raise ValueError("the summaries function returned %d numbers for %d summaries" % (len(row), width))
+    return "value " + " ".join(float(x).hex() for x in row) + "\n"
+
+
+def _simulate(function, columns, seeds, names, width, batched, numpy):
+    """Reply lines for a simulator: one line of `width` numbers per particle, or an error line."""
+    count = len(seeds)
+    lines = []
+    if batched:
+        try:
+            if numpy is not None:
+                values = numpy.array(columns, dtype=float).reshape(len(columns), count).T
+            else:
+                values = [list(row) for row in zip(*columns)]
+            rows = list(function(values, seeds))
+            if len(rows) != count:
+                raise ValueError("the batch function returned %d rows for %d particles" % (len(rows), count))
+        except Exception as error:
+            traceback.print_exc(file=sys.stderr)
+            return ["error %s\n" % _failure_text(error)] * count
+        for row in rows:
+            try:
+                lines.append(_summary_line(row, width))
+            except (TypeError, ValueError) as error:
+                lines.append("error %s\n" % _failure_text(error))
+        return lines
+    for row, seed in zip(zip(*columns), seeds):
+        try:
+            lines.append(_summary_line(function(dict(zip(names, row)), seed), width))
+        except Exception as error:  # the simulator's own failure: reported, the worker goes on
+            traceback.print_exc(file=sys.stderr)
+            lines.append("error %s\n" % _failure_text(error))
+    return lines

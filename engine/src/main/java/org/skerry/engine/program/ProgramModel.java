@@ -29,8 +29,11 @@ import org.skerry.engine.model.prior.UnivariateDistribution;
  * <p>Workers start on first use, so the copies of the model a run builds only to read its
  * parameters start no process; {@link #close} ends them, and {@link #probe} checks that one can
  * start before a run.
+ *
+ * <p>A program declaring summaries ({@code model.program.summaries}) is a {@link ProgramSimulator}
+ * instead: the same workers, replying with summaries for ABC.
  */
-public final class ProgramModel implements BatchedModel, AutoCloseable {
+public sealed class ProgramModel implements BatchedModel, AutoCloseable permits ProgramSimulator {
 
     private final ProgramSettings settings;
     private final ParameterSpace space;
@@ -95,9 +98,10 @@ public final class ProgramModel implements BatchedModel, AutoCloseable {
     /**
      * Evaluates {@code count} vectors in requests of at most {@code batch} particles on one
      * borrowed worker; a request whose worker broke leaves its particles NaN with the reason in
-     * {@code errors}, and the rest go to a fresh worker.
+     * {@code errors}, and the rest go to a fresh worker. A program replying with s summaries
+     * writes particle i's to {@code out[i·s … i·s+s−1]}.
      */
-    private void evaluate(double[] parameters, int count, long[] seeds, int iteration, double[] out, String[] errors) {
+    final void evaluate(double[] parameters, int count, long[] seeds, int iteration, double[] out, String[] errors) {
         int d = space.dimension();
         if (settings.mode() == ProgramSettings.Mode.FILE) {
             FileModeRun run = fileRun();
@@ -140,9 +144,10 @@ public final class ProgramModel implements BatchedModel, AutoCloseable {
         }
     }
 
-    private static void fail(double[] out, String[] errors, int from, int size, String reason) {
+    private void fail(double[] out, String[] errors, int from, int size, String reason) {
+        int width = Math.max(1, settings.summaries().size());
+        java.util.Arrays.fill(out, from * width, (from + size) * width, Double.NaN);
         for (int i = from; i < from + size; i++) {
-            out[i] = Double.NaN;
             errors[i] = reason;
         }
     }

@@ -7,7 +7,8 @@ import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.SettingDescription;
 
 /**
- * Builds a {@link ProgramModel} from a run file's {@code model.program} object. Not in the
+ * Builds a {@link ProgramModel} from a run file's {@code model.program} object (a {@link
+ * ProgramSimulator} when it names summaries). Not in the
  * built-in catalogue (a run file chooses it with {@code model.program}, not {@code model.name});
  * executors rebuild the model through this class by name, like any model class.
  */
@@ -35,11 +36,14 @@ public final class ProgramModelFactory implements ModelFactory {
                 SettingDescription.optional("mode", "worker", "worker"),
                 SettingDescription.optional("batch", "the most particles one request carries", "1"),
                 SettingDescription.optional("scratch", "the folder holding the workers' scratch folders",
-                        "the system's temporary folder"));
+                        "the system's temporary folder"),
+                SettingDescription.optional("summaries", "names of the summaries the program replies with, for "
+                        + "sampler.sequence = abc (then it gives no log-likelihood)", "none: a log-likelihood"));
     }
 
     @Override
     public Model create(ModelSettings settings) {
-        return new ProgramModel(ProgramSettings.read(settings));
+        ProgramSettings program = ProgramSettings.read(settings);
+        return program.simulatesSummaries() ? new ProgramSimulator(program) : new ProgramModel(program);
     }
 }

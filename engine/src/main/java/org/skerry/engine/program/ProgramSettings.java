@@ -37,10 +37,12 @@ import org.skerry.engine.settings.SettingsReader;
  * @param scratch      the folder under which workers get their scratch folders, or null for the
  *                     system's temporary folder
  * @param fileMode     file mode's settings, or null in worker mode
+ * @param summaries    the names of the summaries the program replies with (it is then a simulator
+ *                     for ABC, with no likelihood), in reply order; empty for a log-likelihood
  */
 public record ProgramSettings(List<String> command, List<Path> files, Map<String, String> environment,
         Duration timeout, Duration startTimeout, Mode mode, int batch, List<String> names,
-        List<UnivariateDistribution> priors, Path scratch, FileMode fileMode) {
+        List<UnivariateDistribution> priors, Path scratch, FileMode fileMode, List<String> summaries) {
 
     /** How skerry talks to the program. */
     public enum Mode { WORKER, FILE }
@@ -55,7 +57,8 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
 
     /** The keys {@code model.program} may hold. */
     public static final Set<String> KEYS = Set.of("command", "files", "environment", "timeout", "start-timeout",
-            "mode", "batch", "parameters", "scratch", "input-template", "input-file", "output-file", "keep-failed");
+            "mode", "batch", "parameters", "scratch", "input-template", "input-file", "output-file", "keep-failed",
+            "summaries");
 
     /** The keys only file mode reads. */
     public static final Set<String> FILE_MODE_KEYS = Set.of("input-template", "input-file", "output-file",
@@ -74,6 +77,7 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
         environment = Collections.unmodifiableMap(new TreeMap<>(environment));
         names = List.copyOf(names);
         priors = List.copyOf(priors);
+        summaries = List.copyOf(summaries);
         if (command.isEmpty()) {
             throw new IllegalArgumentException("command must name a program");
         }
@@ -86,6 +90,25 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
         if ((mode == Mode.FILE) != (fileMode != null)) {
             throw new IllegalArgumentException("file mode needs its settings, worker mode none");
         }
+        if (!summaries.isEmpty() && mode == Mode.FILE) {
+            throw new IllegalArgumentException("summaries need worker mode; file mode gives log-likelihoods only");
+        }
+        if (new java.util.HashSet<>(summaries).size() != summaries.size()) {
+            throw new IllegalArgumentException("summary names must differ, were " + summaries);
+        }
+    }
+
+    /** A program that replies with log-likelihoods (no summaries). */
+    public ProgramSettings(List<String> command, List<Path> files, Map<String, String> environment,
+            Duration timeout, Duration startTimeout, Mode mode, int batch, List<String> names,
+            List<UnivariateDistribution> priors, Path scratch, FileMode fileMode) {
+        this(command, files, environment, timeout, startTimeout, mode, batch, names, priors, scratch, fileMode,
+                List.of());
+    }
+
+    /** Whether the program replies with summaries (a simulator for ABC) rather than a log-likelihood. */
+    public boolean simulatesSummaries() {
+        return !summaries.isEmpty();
     }
 
     /** The input file's name in file mode. */
@@ -170,8 +193,39 @@ public record ProgramSettings(List<String> command, List<Path> files, Map<String
                 throw r.error("input-template", "in " + fileMode.template() + ": " + e.getMessage());
             }
         }
+        List<String> summaries = readSummaries(r, mode);
         return new ProgramSettings(command, files, environment, timeout, startTimeout, mode, batch, names, priors,
-                scratch, fileMode);
+                scratch, fileMode, summaries);
+    }
+
+    private static List<String> readSummaries(SettingsReader r, Mode mode) {
+        if (!r.has("summaries")) {
+            return List.of();
+        }
+        if (mode == Mode.FILE) {
+            throw r.error("summaries", "file mode gives log-likelihoods only; a program replying with summaries "
+                    + "runs in worker mode (mode = worker)");
+        }
+        if (r.config().getValue("summaries").valueType() != ConfigValueType.LIST) {
+            throw r.error("summaries", "expected a list of summary names, e.g. [mean, sd]");
+        }
+        List<String> summaries = texts(r, "summaries", false);
+        if (summaries.isEmpty()) {
+            throw r.error("summaries", "name at least one summary, e.g. [mean, sd]; leave the key out for a "
+                    + "program that replies with a log-likelihood");
+        }
+        List<String> seen = new ArrayList<>();
+        for (String name : summaries) {
+            if (!name.matches("[A-Za-z][A-Za-z0-9_]*")) {
+                throw r.error("summaries", "a summary name is letters, digits and '_', starting with a letter; was '"
+                        + name + "'");
+            }
+            if (seen.contains(name)) {
+                throw r.error("summaries", "summary '" + name + "' is named twice");
+            }
+            seen.add(name);
+        }
+        return summaries;
     }
 
     private static FileMode readFileMode(SettingsReader r) {

@@ -38,6 +38,8 @@ final class Worker implements AutoCloseable {
     private final Path folder;
     private final String label;
     private final Duration timeout;
+    /** The summary names when the worker replies with summaries, else empty (one log-likelihood). */
+    private final java.util.List<String> summaries;
     private final StringBuilder request = new StringBuilder(256);
     private long requests;
     /** The current request's deadline ({@link System#nanoTime}), checked while {@link #armed}. */
@@ -46,13 +48,14 @@ final class Worker implements AutoCloseable {
     private volatile boolean timedOut;
     private boolean broken;
 
-    private Worker(ChildProcess child, Path folder, String label, Duration timeout) {
+    private Worker(ChildProcess child, Path folder, String label, Duration timeout, java.util.List<String> summaries) {
         this.child = child;
         this.in = new BufferedOutputStream(child.stdin(), 1 << 16);
         this.out = new LineReader(child.stdout(), MAX_LINE);
         this.folder = folder;
         this.label = label;
         this.timeout = timeout;
+        this.summaries = summaries;
     }
 
     /**
@@ -71,7 +74,8 @@ final class Worker implements AutoCloseable {
             ScratchFolders.remove(folder);
             throw new ProgramStartException("cannot start the model program " + command + ": " + e.getMessage());
         }
-        Worker worker = new Worker(child, folder, "worker " + number + " (" + child.label() + ")", settings.timeout());
+        Worker worker = new Worker(child, folder, "worker " + number + " (" + child.label() + ")", settings.timeout(),
+                settings.summaries());
         worker.handshake(settings);
         return worker;
     }
@@ -81,7 +85,9 @@ final class Worker implements AutoCloseable {
         arm(settings.startTimeout());
         String line;
         try {
-            in.write(WorkerProtocol.start(settings.names(), settings.files(), WorkerProtocol.REPLY_LOG_LIKELIHOOD)
+            String kind = settings.simulatesSummaries() ? WorkerProtocol.REPLY_SUMMARIES
+                    : WorkerProtocol.REPLY_LOG_LIKELIHOOD;
+            in.write(WorkerProtocol.start(settings.names(), settings.files(), kind, settings.summaries())
                     .getBytes(StandardCharsets.UTF_8));
             in.flush();
             line = out.readLine();
@@ -118,7 +124,8 @@ final class Worker implements AutoCloseable {
     /**
      * Evaluates vectors {@code from … from+count−1} of {@code values} (dimension {@code d}) with
      * their {@code seeds} in one request. Each particle's result goes to {@code results[i]}, or
-     * NaN with the worker's error text in {@code errors[i]}.
+     * NaN with the worker's error text in {@code errors[i]}; a worker replying with s summaries
+     * writes them to {@code results[i·s … i·s+s−1]}.
      *
      * @throws ProgramFailureException when the conversation broke; the worker is then killed
      */
@@ -145,7 +152,9 @@ final class Worker implements AutoCloseable {
                 if (line == null) {
                     throw broke(null);
                 }
-                if (line.startsWith("value ")) {
+                if (line.startsWith("value ") && !summaries.isEmpty()) {
+                    readSummaries(line, i, results, errors);
+                } else if (line.startsWith("value ")) {
                     try {
                         results[i] = WireNumbers.parse(line.substring(6));
                         errors[i] = null;
@@ -155,7 +164,8 @@ final class Worker implements AutoCloseable {
                                 + "', which is not a number" + tail();
                     }
                 } else if (line.startsWith("error")) {
-                    results[i] = Double.NaN;
+                    int width = Math.max(1, summaries.size());
+                    java.util.Arrays.fill(results, i * width, i * width + width, Double.NaN);
                     String text = line.length() > 6 ? line.substring(6).strip() : "";
                     errors[i] = "the model program reported an error: " + (text.isEmpty() ? "(no text)" : text);
                 } else {
@@ -167,6 +177,33 @@ final class Worker implements AutoCloseable {
             throw broke(null);
         } finally {
             armed = false;
+        }
+    }
+
+    /**
+     * Reads a summaries reply line into particle {@code i}'s slots: as many numbers as summaries,
+     * or the particle's simulation is invalid with a reason naming the counts (the worker goes on).
+     */
+    private void readSummaries(String line, int i, double[] results, String[] errors) {
+        int s = summaries.size();
+        String[] fields = line.substring(6).strip().split(" +");
+        errors[i] = null;
+        if (fields.length != s) {
+            java.util.Arrays.fill(results, i * s, i * s + s, Double.NaN);
+            errors[i] = label + ": its reply for the particle carried " + fields.length + " number"
+                    + (fields.length == 1 ? "" : "s") + " ('" + abbreviate(line) + "'), but model.program.summaries "
+                    + "names " + s + " " + summaries;
+            return;
+        }
+        for (int k = 0; k < s; k++) {
+            try {
+                results[i * s + k] = WireNumbers.parse(fields[k]);
+            } catch (NumberFormatException e) {
+                java.util.Arrays.fill(results, i * s, i * s + s, Double.NaN);
+                errors[i] = label + ": its reply for summary '" + summaries.get(k) + "' was '" + abbreviate(fields[k])
+                        + "', which is not a number" + tail();
+                return;
+            }
         }
     }
 

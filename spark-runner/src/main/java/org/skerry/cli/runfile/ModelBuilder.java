@@ -21,6 +21,7 @@ import org.skerry.engine.model.settings.ModelSettings;
 import org.skerry.engine.model.settings.SettingDescription;
 import org.skerry.engine.model.settings.SettingsModelSource;
 import org.skerry.engine.program.ProgramModel;
+import org.skerry.engine.program.ProgramSimulator;
 import org.skerry.engine.program.ProgramStartException;
 
 /**
@@ -95,6 +96,13 @@ public final class ModelBuilder {
      * summaries or distance weights the run gives, or that writes more summaries than it names.
      */
     private static void checkSequence(RunSpec spec, Model model) {
+        if (model instanceof ProgramSimulator && spec.sampler().targets().kind() != SequenceSettings.Kind.ABC) {
+            throw new RunFileException(where(spec, spec.model().settingsKey() + ".summaries") + ": "
+                    + spec.model().settingsKey() + ".summaries: a program model that replies with summaries has no "
+                    + "likelihood, so it needs sampler.sequence = abc (this run's sequence is "
+                    + spec.sampler().targets().kind().name().toLowerCase(java.util.Locale.ROOT).replace('_', '-')
+                    + "); remove the key for a program that replies with a log-likelihood");
+        }
         if (spec.sampler().targets().kind() == SequenceSettings.Kind.ABC) {
             if (!(model instanceof SummarySimulator simulator)) {
                 throw new RunFileException(where(spec, "sampler.sequence") + ": sampler.sequence = abc needs a model "
@@ -112,7 +120,10 @@ public final class ModelBuilder {
                 throw new RunFileException(where(spec, key) + ": " + key + ": model " + spec.model().label() + ": "
                         + message, e);
             }
-            String wrong = SummarySimulator.checkSummaryCount(simulator, spec.sampler().population().seed());
+            // A program's count is checked on every reply (a wrong one is an invalid simulation): a
+            // trial simulation here would start the program on the driver, which on a cluster may lack it.
+            String wrong = model instanceof ProgramSimulator ? null
+                    : SummarySimulator.checkSummaryCount(simulator, spec.sampler().population().seed());
             if (wrong != null) {
                 throw new RunFileException("model " + spec.model().label() + ": " + wrong);
             }
