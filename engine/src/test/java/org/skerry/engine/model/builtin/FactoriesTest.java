@@ -30,10 +30,12 @@ class FactoriesTest {
     void catalog() {
         List<String> names = CATALOG.factories().stream().map(ModelFactory::name).toList();
         assertEquals(List.of("beta-binomial", "costly-normal", "gaussian-mixture", "gaussian-shells", "linear-regression",
-                "normal-mean", "plankton-npz"), names);
+                "mixture-toy-simulator", "normal-mean", "normal-mean-simulator", "plankton-npz", "poisson-sum-simulator",
+                "zooplankton-ricker"), names);
         for (ModelFactory factory : CATALOG.factories()) {
             assertFalse(factory.description().isBlank());
-            assertFalse(factory.settings().isEmpty(), factory.name());
+            // The Ricker simulator has no settings, only its data role: each factory describes something.
+            assertFalse(factory.settings().isEmpty() && factory.dataRoles().isEmpty(), factory.name());
         }
         assertMessage(() -> CATALOG.get("nope"), "'nope'", "normal-mean");
     }
