@@ -3,8 +3,7 @@ package org.skerry.engine.model.builtin;
 import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ParameterSpace;
-import org.skerry.engine.model.Prior;
-import org.skerry.engine.model.SummarySimulator;
+import org.skerry.engine.model.SimulationOnlyModel;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.IndependentPrior;
 import org.skerry.engine.model.prior.Uniform;
@@ -15,13 +14,13 @@ import org.skerry.engine.model.prior.Uniform;
  * x = 0; the summary is x itself. Its posterior has a narrow spike on a broad base, which a
  * tolerance sequence must resolve. Immutable and thread-safe.
  */
-public final class MixtureToySimulator implements SummarySimulator {
+public final class MixtureToySimulator extends SimulationOnlyModel {
 
-    private final ParameterSpace parameters = ParameterSpace.of(List.of("theta"), List.of(Support.interval(-10, 10)));
-    private final Prior prior = IndependentPrior.of(Uniform.of(-10, 10));
     private final double observed;
 
     private MixtureToySimulator(double observed) {
+        super("mixture-toy-simulator", ParameterSpace.of(List.of("theta"), List.of(Support.interval(-10, 10))),
+                IndependentPrior.of(Uniform.of(-10, 10)));
         this.observed = observed;
     }
 
@@ -30,20 +29,8 @@ public final class MixtureToySimulator implements SummarySimulator {
         return new MixtureToySimulator(observed);
     }
 
-    @Override
-    public ParameterSpace parameters() {
-        return parameters;
-    }
 
-    @Override
-    public Prior prior() {
-        return prior;
-    }
 
-    @Override
-    public double logLikelihood(double[] parameters, LikelihoodContext context) {
-        throw new UnsupportedOperationException("mixture-toy-simulator offers no likelihood: run it with ABC");
-    }
 
     @Override
     public List<String> summaryNames() {

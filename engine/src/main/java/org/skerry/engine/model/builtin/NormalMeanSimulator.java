@@ -3,8 +3,7 @@ package org.skerry.engine.model.builtin;
 import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ParameterSpace;
-import org.skerry.engine.model.Prior;
-import org.skerry.engine.model.SummarySimulator;
+import org.skerry.engine.model.SimulationOnlyModel;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.IndependentPrior;
 import org.skerry.engine.model.prior.Normal;
@@ -16,22 +15,21 @@ import org.skerry.engine.model.prior.Normal;
  * tolerance shrinks). A simulation draws the n observations and averages them. Its likelihood is
  * not offered: it is there to check ABC against closed forms. Immutable and thread-safe.
  */
-public final class NormalMeanSimulator implements SummarySimulator {
+public final class NormalMeanSimulator extends SimulationOnlyModel {
 
-    private final ParameterSpace parameters = ParameterSpace.of(List.of("mu"), List.of(Support.real()));
-    private final Prior prior;
     private final int count;
     private final double sigma;
     private final double observedMean;
 
     private NormalMeanSimulator(double[] observations, double sigma, double priorMean, double priorSd) {
+        super("normal-mean-simulator", ParameterSpace.of(List.of("mu"), List.of(Support.real())),
+                IndependentPrior.of(Normal.of(priorMean, priorSd)));
         if (observations.length < 1) {
             throw new IllegalArgumentException("normal-mean-simulator needs at least one observation");
         }
         if (!(sigma > 0)) {
             throw new IllegalArgumentException("sigma must be positive, was " + sigma);
         }
-        this.prior = IndependentPrior.of(Normal.of(priorMean, priorSd));
         this.count = observations.length;
         this.sigma = sigma;
         double total = 0;
@@ -46,20 +44,8 @@ public final class NormalMeanSimulator implements SummarySimulator {
         return new NormalMeanSimulator(observations.clone(), sigma, priorMean, priorSd);
     }
 
-    @Override
-    public ParameterSpace parameters() {
-        return parameters;
-    }
 
-    @Override
-    public Prior prior() {
-        return prior;
-    }
 
-    @Override
-    public double logLikelihood(double[] parameters, LikelihoodContext context) {
-        throw new UnsupportedOperationException("normal-mean-simulator offers no likelihood: run it with ABC");
-    }
 
     @Override
     public List<String> summaryNames() {

@@ -3,8 +3,7 @@ package org.skerry.engine.model.builtin;
 import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ParameterSpace;
-import org.skerry.engine.model.Prior;
-import org.skerry.engine.model.SummarySimulator;
+import org.skerry.engine.model.SimulationOnlyModel;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.prior.Gamma;
 import org.skerry.engine.model.prior.IndependentPrior;
@@ -17,14 +16,14 @@ import org.skerry.engine.model.prior.IndependentPrior;
  * 3rd ed., §2.6). A simulation draws the total at once, as {@code Poisson(nλ)}, which has the
  * total's distribution. Immutable and thread-safe.
  */
-public final class PoissonSumSimulator implements SummarySimulator {
+public final class PoissonSumSimulator extends SimulationOnlyModel {
 
-    private final ParameterSpace parameters = ParameterSpace.of(List.of("lambda"), List.of(Support.positive()));
-    private final Prior prior;
     private final int count;
     private final long total;
 
     private PoissonSumSimulator(long[] counts, double shape, double rate) {
+        super("poisson-sum-simulator", ParameterSpace.of(List.of("lambda"), List.of(Support.positive())),
+                IndependentPrior.of(Gamma.of(shape, rate)));
         if (counts.length < 1) {
             throw new IllegalArgumentException("poisson-sum-simulator needs at least one count");
         }
@@ -35,7 +34,6 @@ public final class PoissonSumSimulator implements SummarySimulator {
             }
             sum += y;
         }
-        this.prior = IndependentPrior.of(Gamma.of(shape, rate));
         this.count = counts.length;
         this.total = sum;
     }
@@ -45,20 +43,8 @@ public final class PoissonSumSimulator implements SummarySimulator {
         return new PoissonSumSimulator(counts.clone(), shape, rate);
     }
 
-    @Override
-    public ParameterSpace parameters() {
-        return parameters;
-    }
 
-    @Override
-    public Prior prior() {
-        return prior;
-    }
 
-    @Override
-    public double logLikelihood(double[] parameters, LikelihoodContext context) {
-        throw new UnsupportedOperationException("poisson-sum-simulator offers no likelihood: run it with ABC");
-    }
 
     @Override
     public List<String> summaryNames() {

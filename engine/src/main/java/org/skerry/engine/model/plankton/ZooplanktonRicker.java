@@ -4,8 +4,7 @@ import java.util.Arrays;
 import java.util.List;
 import org.skerry.engine.model.LikelihoodContext;
 import org.skerry.engine.model.ParameterSpace;
-import org.skerry.engine.model.Prior;
-import org.skerry.engine.model.SummarySimulator;
+import org.skerry.engine.model.SimulationOnlyModel;
 import org.skerry.engine.model.Support;
 import org.skerry.engine.model.builtin.PoissonDraw;
 import org.skerry.engine.model.prior.IndependentPrior;
@@ -23,7 +22,7 @@ import org.skerry.engine.random.RandomStream;
  * {@code yₜ₊₁^0.3} on {@code yₜ^0.3} and {@code yₜ^0.6} (our selection of six). Parameters
  * {@code log_r}, {@code sigma}, {@code phi}, with uniform priors. Immutable and thread-safe.
  */
-public final class ZooplanktonRicker implements SummarySimulator {
+public final class ZooplanktonRicker extends SimulationOnlyModel {
 
     /** Weeks simulated before the first tow, so the start N₀ = 1 is forgotten. */
     public static final int BURN_IN = 50;
@@ -40,13 +39,13 @@ public final class ZooplanktonRicker implements SummarySimulator {
     /** The demo's data file, in {@code conf/demo/data}. */
     public static final String DEMO_FILE = "tows-north-basin.csv";
 
-    private final ParameterSpace parameters = ParameterSpace.of(PARAMETER_NAMES,
-            List.of(Support.interval(2, 5), Support.interval(0.05, 0.8), Support.interval(2, 20)));
-    private final Prior prior = IndependentPrior.of(Uniform.of(2, 5), Uniform.of(0.05, 0.8), Uniform.of(2, 20));
     private final int weeks;
     private final double[] observed;
 
     private ZooplanktonRicker(int weeks, double[] counts) {
+        super("zooplankton-ricker", ParameterSpace.of(PARAMETER_NAMES,
+                List.of(Support.interval(2, 5), Support.interval(0.05, 0.8), Support.interval(2, 20))),
+                IndependentPrior.of(Uniform.of(2, 5), Uniform.of(0.05, 0.8), Uniform.of(2, 20)));
         if (weeks < 5) {
             throw new IllegalArgumentException("zooplankton-ricker needs at least 5 weekly tows, had " + weeks);
         }
@@ -69,21 +68,8 @@ public final class ZooplanktonRicker implements SummarySimulator {
         return new ZooplanktonRicker(weeks, null);
     }
 
-    @Override
-    public ParameterSpace parameters() {
-        return parameters;
-    }
 
-    @Override
-    public Prior prior() {
-        return prior;
-    }
 
-    @Override
-    public double logLikelihood(double[] parameters, LikelihoodContext context) {
-        throw new UnsupportedOperationException("zooplankton-ricker has no likelihood to evaluate: run it with "
-                + "sampler.sequence = abc");
-    }
 
     @Override
     public List<String> summaryNames() {
