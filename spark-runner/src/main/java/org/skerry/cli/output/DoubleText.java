@@ -133,33 +133,51 @@ public final class DoubleText {
 
     /** Writes {@code count} significant digits (no trailing zero) with decimal exponent {@code exponent}. */
     private static String render(boolean negative, char[] digits, int count, int exponent) {
-        StringBuilder text = new StringBuilder(count + 8);
+        // At most: sign, 17 digits, point, 6 zeros before them (plain) or "e-324" (scientific).
+        char[] text = new char[32];
+        int at = 0;
         if (negative) {
-            text.append('-');
+            text[at++] = '-';
         }
         if (exponent < LOWEST_PLAIN_EXPONENT || exponent > HIGHEST_PLAIN_EXPONENT) {
-            text.append(digits[0]).append('.');
+            text[at++] = digits[0];
+            text[at++] = '.';
             if (count > 1) {
-                text.append(digits, 1, count - 1);
+                System.arraycopy(digits, 1, text, at, count - 1);
+                at += count - 1;
             } else {
-                text.append('0');
+                text[at++] = '0';
             }
-            text.append('e').append(exponent);
+            text[at++] = 'e';
+            if (exponent < 0) {
+                text[at++] = '-';
+            }
+            String magnitude = Integer.toString(Math.abs(exponent));
+            magnitude.getChars(0, magnitude.length(), text, at);
+            at += magnitude.length();
         } else if (exponent < 0) {
-            text.append("0.");
+            text[at++] = '0';
+            text[at++] = '.';
             for (int i = 0; i < -exponent - 1; i++) {
-                text.append('0');
+                text[at++] = '0';
             }
-            text.append(digits, 0, count);
+            System.arraycopy(digits, 0, text, at, count);
+            at += count;
         } else if (count > exponent + 1) {
-            text.append(digits, 0, exponent + 1).append('.').append(digits, exponent + 1, count - exponent - 1);
+            System.arraycopy(digits, 0, text, at, exponent + 1);
+            at += exponent + 1;
+            text[at++] = '.';
+            System.arraycopy(digits, exponent + 1, text, at, count - exponent - 1);
+            at += count - exponent - 1;
         } else {
-            text.append(digits, 0, count);
+            System.arraycopy(digits, 0, text, at, count);
+            at += count;
             for (int i = count; i < exponent + 1; i++) {
-                text.append('0');
+                text[at++] = '0';
             }
-            text.append(".0");
+            text[at++] = '.';
+            text[at++] = '0';
         }
-        return text.toString();
+        return new String(text, 0, at);
     }
 }
