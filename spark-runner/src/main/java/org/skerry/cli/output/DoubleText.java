@@ -64,6 +64,11 @@ public final class DoubleText {
             return formatExact(x); // zero, subnormal, infinite or NaN: rare, or the shortest differs
         }
         String shortest = NumberOutput.toString(x, true);
+        if ((bits & SIGNIFICAND_MASK) != 0L && shortest.indexOf('E') < 0) {
+            // Jackson writes 10^-3 <= |x| < 10^7 in plain notation by the same rules as ours
+            // (a digit after the point, no other trailing zero), so its text is ours as it is.
+            return shortest;
+        }
         char[] digits = new char[MAX_DIGITS];
         int count = 0;
         int pointAt = -1;
