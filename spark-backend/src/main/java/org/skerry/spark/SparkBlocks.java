@@ -31,8 +31,7 @@ import scala.Tuple2;
  */
 final class SparkBlocks implements BlockExecutor {
 
-    /** Partitions fetched per job by {@link #forEachBlock}: bounds the driver's extra memory. */
-    private static final int PARTITIONS_PER_FETCH = 16;
+    private static final String MAX_RESULT_SIZE = "spark.driver.maxResultSize";
 
     private final JavaSparkContext context;
     private final Broadcast<ModelShipment> source;
@@ -176,18 +175,60 @@ final class SparkBlocks implements BlockExecutor {
 
     @Override
     public void forEachBlock(Consumer<ParticleBlock> sink) {
-        // A few partitions per job, so the driver never holds every block at once.
-        JavaRDD<ParticleBlock> blocks = states.map(state -> state.block);
-        for (int from = 0; from < partitions; from += PARTITIONS_PER_FETCH) {
-            int[] ids = new int[Math.min(PARTITIONS_PER_FETCH, partitions - from)];
-            for (int k = 0; k < ids.length; k++) {
-                ids[k] = from + k;
-            }
-            for (List<ParticleBlock> part : blocks.collectPartitions(ids)) {
-                part.forEach(sink);
+        // Jobs of bounded bytes: each fetches runs of particles from a few partitions, a large
+        // partition split over several jobs, so neither one task's result nor one job's results
+        // together come near spark.driver.maxResultSize, whatever N is.
+        List<Long> shapes = states.map(state -> (long) state.block.auxiliaryWidth() << 32 | state.block.size()).collect();
+        long auxiliaryWidth = shapes.stream().mapToLong(shape -> shape >>> 32).max().orElse(0L);
+        long bytesPerParticle = Double.BYTES * (dimension + 3L + auxiliaryWidth) + 2L * Long.BYTES;
+        long perJob = Math.max(1L, fetchBudgetBytes(context.getConf().getSizeAsBytes(MAX_RESULT_SIZE, "1g"))
+                / bytesPerParticle);
+        int[] from = new int[partitions];
+        int[] count = new int[partitions];
+        List<Integer> ids = new ArrayList<>();
+        long room = perJob;
+        for (int p = 0; p < partitions; p++) {
+            int size = (int) (long) shapes.get(p);
+            int start = 0;
+            while (start < size) {
+                int take = (int) Math.min(size - start, room);
+                from[p] = start;
+                count[p] = take;
+                ids.add(p);
+                start += take;
+                room -= take;
+                if (room == 0) {
+                    fetch(ids, from, count, sink);
+                    room = perJob;
+                }
             }
         }
+        fetch(ids, from, count, sink);
         dropReplaced();
+    }
+
+    /** The share of the driver's result limit one export job may fetch: an eighth, at most 64 MiB. */
+    static long fetchBudgetBytes(long maxResultSize) {
+        long ceiling = 64L << 20;
+        return maxResultSize <= 0 ? ceiling : Math.min(ceiling, maxResultSize / 8);
+    }
+
+    /** One job: run {@code [from[p], from[p]+count[p])} of each partition p in {@code ids}, handed on in order. */
+    private void fetch(List<Integer> ids, int[] from, int[] count, Consumer<ParticleBlock> sink) {
+        if (ids.isEmpty()) {
+            return;
+        }
+        int[] starts = from.clone();
+        int[] counts = count.clone();
+        int[] partitionIds = ids.stream().mapToInt(Integer::intValue).toArray();
+        JavaRDD<ParticleBlock> runs = states.mapPartitionsWithIndex((p, iterator) -> {
+            ParticleBlock block = iterator.next().block;
+            return List.of(BlockSlices.slice(block, starts[p], counts[p])).iterator();
+        }, true);
+        for (List<ParticleBlock> part : runs.collectPartitions(partitionIds)) {
+            part.forEach(sink);
+        }
+        ids.clear();
     }
 
     /**

@@ -354,6 +354,7 @@ public final class Analysis {
                         answer, state -> RunOutputs.writeIterations(runFolder, state.records()))
                 : Checkpointer.NONE;
         SmcSampler sampler = new SmcSampler(spec.sampler());
+        double startup = (System.nanoTime() - job.startNanos()) * 1e-9;
         SamplerResult result;
         try {
             if (job.start() == Start.FROM_CHECKPOINT) {
@@ -395,7 +396,7 @@ public final class Analysis {
         double wall = (System.nanoTime() - job.startNanos()) * 1e-9;
         try {
             RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.model().label(), spec.sampler().population().seed(),
-                    built.model().parameters().names(), result, wall, job.started(), backend.description()));
+                    built.model().parameters().names(), result, wall, startup, job.started(), backend.description()));
         } catch (java.io.UncheckedIOException e) {
             throw outputFailed(e, checkpoints, runFolder);
         }

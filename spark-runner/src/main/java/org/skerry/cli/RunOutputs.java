@@ -22,7 +22,7 @@ final class RunOutputs {
 
     /** What a finished run leaves to write. */
     record Run(String name, String model, long seed, List<String> parameterNames, SamplerResult result, double wallSeconds,
-            Instant startedAt, String backend) {
+            double startupSeconds, Instant startedAt, String backend) {
     }
 
     private RunOutputs() {
@@ -48,10 +48,14 @@ final class RunOutputs {
     static void writeResults(Path folder, Run run) {
         try {
             SamplerResult result = run.result();
+            long start = System.nanoTime();
             ParticlesCsv.write(folder, run.parameterNames(), result.particles(), result.normalisedWeights());
             IterationsCsv.write(folder, result.iterations(), run.parameterNames());
+            double output = (System.nanoTime() - start) * 1e-9;
+            double sampling = run.wallSeconds() - run.startupSeconds() - result.exportSeconds();
             TimingJson.write(folder, RunEnvironment.current(Version.text(), run.backend(), run.startedAt()),
-                    run.wallSeconds(), result.iterations());
+                    new TimingJson.Stages(run.wallSeconds(), run.startupSeconds(), sampling, result.exportSeconds(),
+                            output), result.iterations());
             SummaryJson.write(folder, run.name(), run.model(), run.seed(), result);
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write the results into " + folder, e);

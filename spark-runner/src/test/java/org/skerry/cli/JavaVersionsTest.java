@@ -120,7 +120,7 @@ class JavaVersionsTest {
     }
 
     /** The JDKs of {@link #VERSIONS}; fails under CI and skips elsewhere when one is missing. */
-    private static Map<Integer, Path> requireJdks() throws IOException {
+    static Map<Integer, Path> requireJdks() throws IOException {
         Map<Integer, Path> jdks = findJdks();
         List<Integer> missing = VERSIONS.stream().filter(v -> !jdks.containsKey(v)).collect(Collectors.toList());
         if (!missing.isEmpty()) {

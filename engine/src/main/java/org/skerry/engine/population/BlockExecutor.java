@@ -34,7 +34,10 @@ public interface BlockExecutor extends AutoCloseable {
     /** Moves the runs of particles {@code plan} names between blocks. */
     void exchange(Redistribution plan);
 
-    /** Hands every block to {@code sink} in block order, a few blocks in memory at a time. */
+    /**
+     * Hands every particle to {@code sink} in block order, a bounded number in memory at a time:
+     * whole blocks, or a block as consecutive runs of its particles where it is large.
+     */
     void forEachBlock(Consumer<ParticleBlock> sink);
 
     /**

@@ -18,10 +18,19 @@ import org.skerry.engine.population.FinalParticles;
  * @param stepCap     iterations whose adaptive MH step count reached the cap
  * @param endedEarly  why the run ended before the last target of its sequence (ABC: an
  *                    acceptance floor or a simulation budget), or null when it reached it
+ * @param exportSeconds wall seconds spent fetching the final population and computing its
+ *                    summaries (posterior summaries, the evidence and its error)
  */
 public record SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,
         List<IterationRecord> iterations, EvaluationTally evaluations, FinalParticles particles,
-        double[] normalisedWeights, StepCapReport stepCap, String endedEarly) {
+        double[] normalisedWeights, StepCapReport stepCap, String endedEarly, double exportSeconds) {
+
+    /** The outcome of a run, its export not timed. */
+    public SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,
+            List<IterationRecord> iterations, EvaluationTally evaluations, FinalParticles particles,
+            double[] normalisedWeights, StepCapReport stepCap, String endedEarly) {
+        this(evidence, parameters, iterations, evaluations, particles, normalisedWeights, stepCap, endedEarly, 0.0);
+    }
 
     /** The outcome of a run that reached the last target. */
     public SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,

@@ -465,6 +465,7 @@ public final class SmcSampler {
         }
 
         private SamplerResult result() {
+            long exportStart = System.nanoTime();
             FinalParticles particles = population.export();
             double finalLogTotal = LogWeights.logSum(particles.logWeight(), n);
             double[] weights = new double[n];
@@ -478,7 +479,7 @@ public final class SmcSampler {
             }
             return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights,
                     abc == null ? StepCapReport.of(records, settings) : new StepCapReport(0, records.size() - 1, 0),
-                    endedEarly());
+                    endedEarly(), seconds(exportStart));
         }
     }
 

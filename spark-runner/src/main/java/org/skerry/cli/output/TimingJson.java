@@ -12,7 +12,8 @@ import org.skerry.engine.sampler.PhaseTimes;
  * Writes {@code timing.json}: how long a run took and where it ran, kept apart from
  * {@code summary.json} because none of it is determined by the seed.
  *
- * <p>Keys, in this order: {@code wall_seconds}; {@code phase_seconds}, an object holding
+ * <p>Keys, in this order: {@code wall_seconds}; {@code stage_seconds}, an object holding
+ * {@code startup, sampling, export, output} (see {@link Stages}); {@code phase_seconds}, an object holding
  * {@code evaluate, temperature, reweight, resample, redistribute, fit, move, checkpoint}, each summed
  * over all iterations;
  * {@code program_version}, {@code java_version}, {@code java_vendor}, {@code host}, {@code backend}
@@ -27,22 +28,35 @@ public final class TimingJson {
     }
 
     /**
+     * Where a run's wall time went: opening the backend (a Spark context) and checking the
+     * checkpoint folder; the sampling iterations; fetching the final population and computing its
+     * summaries; writing {@code particles.csv} and {@code iterations.csv}. {@code wall} runs from
+     * the start to the end of the sampling, as before; {@code summary.json} and the report are
+     * written after this file, so no figure here counts them.
+     */
+    public record Stages(double wall, double startup, double sampling, double export, double output) {
+    }
+
+    /**
      * Writes {@code timing.json} in {@code folder}, atomically.
      *
      * @param folder      an existing folder
      * @param environment where and when the run happened
-     * @param wallSeconds wall-clock seconds of the whole run
+     * @param seconds     wall-clock seconds of the whole run and of its stages
      * @param iterations  the run's iteration records (their phase times are summed); records
      *                    without phase times count as zero
      * @return the file written
      */
-    public static Path write(Path folder, RunEnvironment environment, double wallSeconds,
+    public static Path write(Path folder, RunEnvironment environment, Stages seconds,
             List<IterationRecord> iterations) throws IOException {
         if (folder == null) {
             throw new IllegalArgumentException("folder must not be null");
         }
         if (environment == null) {
             throw new IllegalArgumentException("environment must not be null");
+        }
+        if (seconds == null) {
+            throw new IllegalArgumentException("seconds must not be null");
         }
         if (iterations == null) {
             throw new IllegalArgumentException("iterations must not be null");
@@ -65,7 +79,13 @@ public final class TimingJson {
         AtomicFile.write(file, out -> {
             JsonGenerator json = JsonOutput.open(out);
             json.writeStartObject();
-            JsonOutput.number(json, "wall_seconds", wallSeconds);
+            JsonOutput.number(json, "wall_seconds", seconds.wall());
+            json.writeObjectFieldStart("stage_seconds");
+            JsonOutput.number(json, "startup", seconds.startup());
+            JsonOutput.number(json, "sampling", seconds.sampling());
+            JsonOutput.number(json, "export", seconds.export());
+            JsonOutput.number(json, "output", seconds.output());
+            json.writeEndObject();
             json.writeObjectFieldStart("phase_seconds");
             JsonOutput.number(json, "evaluate", sums[0]);
             JsonOutput.number(json, "temperature", sums[1]);

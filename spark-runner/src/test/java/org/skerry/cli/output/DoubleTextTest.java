@@ -99,4 +99,53 @@ class DoubleTextTest {
             assertEquals(Double.doubleToRawLongBits(x), Double.doubleToRawLongBits(Double.parseDouble(DoubleText.format(x))));
         }
     }
+
+    @Test
+    @Slow
+    @DisplayName("a million doubles of every kind: the fast path writes the exact path's text, which reads back to the same bits")
+    void fastPathWritesTheExactPathsText() {
+        DoubleSamples samples = new DoubleSamples(20261202L);
+        for (int i = 0; i < 1_000_000; i++) {
+            assertSameTextAndReadsBack(samples.next());
+        }
+    }
+
+    @Test
+    @DisplayName("every normal power of two, both signs, and its neighbours: the exact path's text, read back exactly")
+    void powersOfTwoAndNeighbours() {
+        for (int e = -1022; e <= 1023; e++) {
+            long bits = Double.doubleToRawLongBits(Math.scalb(1.0, e));
+            for (int step = -1; step <= 1; step++) {
+                double x = Double.longBitsToDouble(bits + step);
+                if (Double.isFinite(x)) {
+                    assertSameTextAndReadsBack(x);
+                    assertSameTextAndReadsBack(-x);
+                }
+            }
+        }
+    }
+
+    @Test
+    @DisplayName("where the shortest digits are not the rounded 16 digits, the rounded ones are written")
+    void lopsidedIntervalTakesTheRoundedDigits() {
+        // 2^-1017: its shortest round-trip form, 7.120236347223045e-307 (16 digits), is not its
+        // value rounded to 16 digits, so today's rule needs 17 (checked here by BigDecimal).
+        double x = Math.scalb(1.0, -1017);
+        BigDecimal exact = new BigDecimal(x);
+        BigDecimal sixteen = exact.round(new MathContext(16, RoundingMode.HALF_EVEN));
+        assertTrue(Double.parseDouble(sixteen.toString()) != x, "the rounded 16 digits do not read back");
+        assertEquals(7.120236347223045e-307, x, "the shorter form reads back");
+        assertEquals(exact.round(new MathContext(17, RoundingMode.HALF_EVEN)).stripTrailingZeros(),
+                new BigDecimal(DoubleText.format(x)));
+    }
+
+    private static void assertSameTextAndReadsBack(double x) {
+        String text = DoubleText.format(x);
+        String exact = DoubleText.formatExact(x);
+        boolean readsBack = Double.isNaN(x)
+                || Double.doubleToRawLongBits(Double.parseDouble(text)) == Double.doubleToRawLongBits(x);
+        if (!text.equals(exact) || !readsBack) {
+            throw new AssertionError(Long.toHexString(Double.doubleToRawLongBits(x)) + ": " + text + ", exact path " + exact);
+        }
+    }
 }

@@ -85,9 +85,17 @@ class OutputsDocumentedTest {
                 + "iteration): `iteration`, `particle`, `reason`, `parameters`"), "first_invalid's fields in the README");
 
         Map<String, Object> timing = JsonTree.read(TimingJson.write(folder,
-                RunEnvironment.current("0.1.0", "threads(2)", Instant.EPOCH), 1.5, result.iterations()));
+                RunEnvironment.current("0.1.0", "threads(2)", Instant.EPOCH),
+                new TimingJson.Stages(1.5, 0.25, 1.0, 0.125, 0.125), result.iterations()));
         for (Map.Entry<String, Object> entry : timing.entrySet()) {
             assertDocumented("timing.json", entry.getKey());
+        }
+        @SuppressWarnings("unchecked")
+        Map<String, Object> stages = (Map<String, Object>) timing.get("stage_seconds");
+        for (String stage : stages.keySet()) {
+            assertTrue(readme().contains("`stage_seconds` | an object: ") && readme().lines()
+                    .filter(line -> line.startsWith("| `stage_seconds` |")).anyMatch(line -> line.contains("`" + stage + "`")),
+                    "timing.json stage_seconds." + stage + " in the README's stage_seconds row");
         }
         @SuppressWarnings("unchecked")
         Map<String, Object> phases = (Map<String, Object>) timing.get("phase_seconds");

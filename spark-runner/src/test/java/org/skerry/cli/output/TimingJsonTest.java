@@ -35,10 +35,15 @@ class TimingJsonTest {
                 record(3, null));
         Instant start = Instant.parse("2025-03-01T09:30:00.250Z");
         RunEnvironment environment = new RunEnvironment("0.1.0", "17.0.9", "Vendor \"X\"", null, "threads(4)", start);
-        Map<String, Object> json = JsonTree.read(TimingJson.write(folder, environment, 12.75, records));
-        assertEquals(List.of("wall_seconds", "phase_seconds", "program_version", "java_version", "java_vendor", "host",
+        Map<String, Object> json = JsonTree.read(TimingJson.write(folder, environment,
+                new TimingJson.Stages(12.75, 2.5, 8.0, 1.25, 1.0), records));
+        assertEquals(List.of("wall_seconds", "stage_seconds", "phase_seconds", "program_version", "java_version", "java_vendor", "host",
                 "backend", "started_at"), new ArrayList<>(json.keySet()));
         assertEquals(12.75, json.get("wall_seconds"));
+        @SuppressWarnings("unchecked")
+        Map<String, Object> stages = (Map<String, Object>) json.get("stage_seconds");
+        assertEquals(List.of("startup", "sampling", "export", "output"), new ArrayList<>(stages.keySet()));
+        assertEquals(List.of(2.5, 8.0, 1.25, 1.0), new ArrayList<>(stages.values()));
         @SuppressWarnings("unchecked")
         Map<String, Object> phases = (Map<String, Object>) json.get("phase_seconds");
         assertEquals(List.of("evaluate", "temperature", "reweight", "resample", "redistribute", "fit", "move",
