@@ -94,12 +94,12 @@ class ProgramFaultTest {
     }
 
     @Test
-    @DisplayName("SIGTERM after checkpoint 2: exit 75, no worker left → resume → the undisturbed run's bytes")
+    @DisplayName("SIGTERM after checkpoint 1: exit 75, no worker left → resume → the undisturbed run's bytes")
     void terminatedThenResumed() throws Exception {
         Path pids = Files.createDirectories(dir.resolve("pids-terminated"));
         Path out = dir.resolve("terminated");
         Path log = dir.resolve("terminated.log");
-        Process process = startAndAwaitCheckpoint(out, log, pids, 2);
+        Process process = startAndAwaitCheckpoint(out, log, pids, 1);
         process.destroy();
         assertTrue(process.waitFor(60, TimeUnit.SECONDS), "stopped within the grace period");
         assertEquals(ExitCodes.STOPPED_RESUMABLE, process.exitValue(), Files.readString(log));
