@@ -268,6 +268,9 @@ public final class Analysis {
     private static Outcome execute(Job job, PrintWriter progressOut, IterationListener observer) {
         RunSpec spec = job.spec();
         Path runFolder = job.runFolder();
+        if (spec.outputs().report()) {
+            org.skerry.cli.report.ReportWarmup.startInBackground();
+        }
         try (TerminationSignal signal = TerminationSignal.install(spec.limits().stopGraceSeconds(), progressOut,
                         ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> whatIsKept(spec, runFolder));
                 Backends.Opened opened = Backends.open(spec, runFolder);
