@@ -139,6 +139,34 @@ class AbcRunTest {
     }
 
     @Test
+    @DisplayName("sampler.abc.tolerance-rule = share with share-factor 0.3: each adaptive tolerance keeps 0.3 of the "
+            + "simulations within the last (M = 1, fixed weights: every living simulation was within it); a rule "
+            + "that does not exist is refused, naming the key")
+    void shareRule() throws IOException {
+        CommandRunner.Result result = run(RUN, "share", "sampler.abc.tolerance-rule=share",
+                "sampler.abc.share-factor=0.3", "sampler.abc.simulations-per-particle=1");
+        assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
+        List<String> rows = Files.readAllLines(folder.resolve("share/iterations.csv"));
+        List<String> header = List.of(rows.get(0).split(","));
+        int tolerance = header.indexOf("tolerance");
+        int share = header.indexOf("share_within_tolerance");
+        int adaptive = 0;
+        for (String row : rows.subList(2, rows.size())) {
+            String[] cells = row.split(",", -1);
+            if (Double.parseDouble(cells[tolerance]) > 0.1) {
+                adaptive++;
+                double kept = Double.parseDouble(cells[share]);
+                // 0.3 of the living simulations (at least 90 of 300), up to one simulation (continuous
+                // summaries: no ties).
+                assertTrue(kept >= 0.3 && kept <= 0.3 + 1.0 / 90, row);
+            }
+        }
+        assertTrue(adaptive >= 2, "adaptive tolerances: " + adaptive);
+        CommandRunner.assertBadInput(run(RUN, "median", "sampler.abc.tolerance-rule=median"),
+                "sampler.abc.tolerance-rule", "median");
+    }
+
+    @Test
     @DisplayName("a final tolerance the budget cannot reach: exit 0, the result kept, the end explained")
     void unreachableTolerance() throws IOException {
         CommandRunner.Result result = run(RUN, "budget", "sampler.abc.final-tolerance=1e-9",

@@ -160,6 +160,32 @@ class AbcLoopTest {
     }
 
     @Test
+    @DisplayName("share rule, factor 0.3, fixed weights, M = 1: each adaptive tolerance keeps the smallest share of "
+            + "at least 0.3 of the living simulations within it (continuous summaries: no ties); the same bytes on "
+            + "1 and 3 threads")
+    void shareRule() {
+        AbcSettings abc = AbcSettings.of(0.05).withWeights(Map.of("mean", 1.0, "range", 0.01))
+                .withToleranceRule(org.skerry.engine.abc.ToleranceRule.SHARE, 0.3);
+        SamplerResult result = run(settings(abc), 1, 0);
+        assertEquals(0.05, result.lastTolerance().tolerance(), "reaches the final tolerance");
+        int adaptive = 0;
+        for (IterationRecord r : result.iterations()) {
+            if (r.iteration() > 0 && r.abc().tolerance() > 0.05) {
+                adaptive++;
+                // With M = 1 and the uniform kernel every living simulation lies within the last
+                // tolerance; the next is the smallest distance keeping at least 0.3 of them, so the
+                // share is 0.3 up to one simulation among the living (at least 90 of 300 here).
+                double share = r.abc().shareWithin();
+                assertTrue(share >= 0.3 && share <= 0.3 + 1.0 / 90, "share " + share + " at iteration " + r.iteration());
+            }
+        }
+        assertTrue(adaptive >= 2, "too few adaptive tolerances to check: " + adaptive);
+        SamplerResult other = run(settings(abc), 3, 13);
+        assertEquals(toleranceLines(result), toleranceLines(other), "3 threads, blocks of 13");
+        assertArrayEquals(result.particles().values(), other.particles().values());
+    }
+
+    @Test
     @DisplayName("a simulation budget ends the run early, says why, and keeps the result")
     void budgetEndsEarly() {
         SamplerResult result = run(settings(AbcSettings.of(1e-6).withStops(0, 20_000)), 2, 0);
