@@ -141,10 +141,10 @@ class AbcRunTest {
     @Test
     @DisplayName("sampler.abc.tolerance-rule = share with share-factor 0.3: each adaptive tolerance keeps 0.3 of the "
             + "simulations within the last (M = 1, fixed weights: every living simulation was within it); a rule "
-            + "that does not exist is refused, naming the key")
+            + "that does not exist is refused, naming the key; iterations at the ABC step cap counted and warned about")
     void shareRule() throws IOException {
         CommandRunner.Result result = run(RUN, "share", "sampler.abc.tolerance-rule=share",
-                "sampler.abc.share-factor=0.3", "sampler.abc.simulations-per-particle=1");
+                "sampler.abc.share-factor=0.3", "sampler.abc.simulations-per-particle=1", "sampler.abc.max-steps=3");
         assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
         List<String> rows = Files.readAllLines(folder.resolve("share/iterations.csv"));
         List<String> header = List.of(rows.get(0).split(","));
@@ -162,6 +162,15 @@ class AbcRunTest {
             }
         }
         assertTrue(adaptive >= 2, "adaptive tolerances: " + adaptive);
+        // The ABC step cap (3 here) counted as for likelihood runs: the iterations.csv rows at it.
+        int steps = header.indexOf("mh_steps");
+        long atCap = rows.subList(2, rows.size()).stream().filter(row -> row.split(",")[steps].equals("3")).count();
+        assertTrue(atCap > 0, "no iteration at the cap of 3");
+        Map<String, Object> summary = JsonTree.read(folder.resolve("share/summary.json"));
+        assertEquals(atCap, ((Number) summary.get("iterations_at_step_cap")).longValue());
+        assertTrue(String.valueOf(summary.get("step_cap_warning")).contains("sampler.abc.max-steps"),
+                String.valueOf(summary.get("step_cap_warning")));
+        assertTrue(result.out().contains("sampler.abc.max-steps"), result.out());
         CommandRunner.assertBadInput(run(RUN, "median", "sampler.abc.tolerance-rule=median"),
                 "sampler.abc.tolerance-rule", "median");
     }

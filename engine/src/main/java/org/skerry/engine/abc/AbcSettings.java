@@ -150,6 +150,12 @@ public record AbcSettings(double finalTolerance, double[] schedule, ToleranceRul
                 stayProbability, maxSteps, acceptanceFloor, simulationBudget, observed);
     }
 
+    /** These settings with adaptive MH steps capped at {@code value}. */
+    public AbcSettings withMaxSteps(int value) {
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, kernel,
+                weights, fixedSteps, stayProbability, value, acceptanceFloor, simulationBudget, observed);
+    }
+
     /** These settings with the stopping rules {@code floor} and {@code budget}. */
     public AbcSettings withStops(double floor, long budget) {
         return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, kernel, weights, fixedSteps,

@@ -478,7 +478,7 @@ public final class SmcSampler {
                 evidence = evidence.withIslands(islands.islands(), islands.standardError());
             }
             return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights,
-                    abc == null ? StepCapReport.of(records, settings) : new StepCapReport(0, records.size() - 1, 0),
+                    abc == null ? StepCapReport.of(records, settings) : StepCapReport.ofAbc(records, abc.settings()),
                     endedEarly(), seconds(exportStart));
         }
     }

@@ -186,6 +186,29 @@ class AbcLoopTest {
     }
 
     @Test
+    @DisplayName("adaptive ABC steps at sampler.abc.max-steps are counted and warned about, naming that key and no "
+            + "evidence; fixed steps are never counted")
+    void stepCap() {
+        SamplerResult capped = run(settings(ADAPTIVE.withMaxSteps(2)), 2, 0);
+        int expected = 0;
+        for (IterationRecord r : capped.iterations()) {
+            assertTrue(r.mhSteps() <= 2, "steps " + r.mhSteps() + " over the cap");
+            if (r.iteration() > 0 && r.mhSteps() == 2) {
+                expected++;
+            }
+        }
+        assertTrue(expected > 0, "no iteration reached a cap of 2: the check would be empty");
+        assertEquals(expected, capped.stepCap().iterationsAtCap());
+        assertEquals(capped.iterations().size() - 1, capped.stepCap().iterations());
+        assertEquals(2, capped.stepCap().maxSteps());
+        String warning = capped.stepCap().warning();
+        assertTrue(warning.contains("sampler.abc.max-steps") && !warning.contains("evidence"), warning);
+        SamplerResult fixed = run(settings(ADAPTIVE.withSteps(2).withMaxSteps(2)), 2, 0);
+        assertEquals(0, fixed.stepCap().iterationsAtCap(), "fixed steps are not capped");
+        assertNull(fixed.stepCap().warning());
+    }
+
+    @Test
     @DisplayName("a simulation budget ends the run early, says why, and keeps the result")
     void budgetEndsEarly() {
         SamplerResult result = run(settings(AbcSettings.of(1e-6).withStops(0, 20_000)), 2, 0);
