@@ -224,8 +224,8 @@ class SparkJobCountTest {
     }
 
     @Test
-    @DisplayName("ABC, M = 2, adaptive tolerances, adaptive or fixed steps: the step's gathering of the kept summaries is the one "
-            + "job more than a likelihood iteration")
+    @DisplayName("ABC, M = 2, adaptive tolerances, adaptive or fixed steps: the step's gathering of the kept "
+            + "summaries is the one job more than a likelihood iteration")
     void abc() throws InterruptedException {
         ModelSource source = new SimulatorSource(new double[] {0.4, 1.9, 1.1, 0.7, 1.6});
         for (boolean fixedSteps : new boolean[] {false, true}) {
