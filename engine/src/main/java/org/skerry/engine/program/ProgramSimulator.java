@@ -18,6 +18,9 @@ import org.skerry.engine.model.SummarySimulator;
  */
 public final class ProgramSimulator extends ProgramModel implements SummarySimulator {
 
+    /** The words of a wrong-count reason (a reply with another number of summaries than named). */
+    public static final String WRONG_COUNT = "model.program.summaries names";
+
     private final int width;
 
     public ProgramSimulator(ProgramSettings settings) {

@@ -106,6 +106,23 @@ class ProgramAbcRunTest {
     }
 
     @Test
+    @DisplayName("a program replying with two numbers for its one summary: known only from its replies, so the run "
+            + "fails at iteration 0 (exit 1), naming the counts and the key, no stack trace, no worker left")
+    void wrongSummaryCount() throws IOException {
+        CommandRunner.Result result = run(write("wrong", List.of("--wrong-count"), "abc"), "wrong");
+        assertEquals(ExitCodes.RUN_FAILURE, result.exitCode(), result.err());
+        assertTrue(result.err().contains("iteration 0") && result.err().contains("carried 2 numbers")
+                && result.err().contains("model.program.summaries names 1 [mean]"), result.err());
+        assertTrue(result.err().contains("make the two agree"), result.err());
+        assertFalse(result.err().contains("raise sampler.max-invalid-fraction"), "no advice to hide it");
+        assertFalse(result.err().contains("\tat "), "no stack trace");
+        assertFalse(Files.exists(folder.resolve("wrong/summary.json")), "no result");
+        assertEquals(List.of(), ProcessHandle.current().descendants()
+                .filter(p -> p.info().commandLine().orElse("").contains("normal_mean_summaries.py")).toList(),
+                "no worker outlives its run");
+    }
+
+    @Test
     @DisplayName("SIGTERM after checkpoint 1 of a program-simulator ABC run: exit 75, no worker left → resume → the "
             + "undisturbed run's bytes, tolerance columns included")
     void terminatedThenResumed() throws Exception {
