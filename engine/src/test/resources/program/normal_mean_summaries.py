@@ -8,7 +8,8 @@ summary never depends on its batch. --wrong-count writes the protocol by hand an
 numbers per particle for one summary (to test skerry's refusal of such a reply); --two has the
 summaries function return two numbers, which the worker library refuses itself. --sleep makes each
 request take that long (runs long enough to interrupt); the variable SKERRY_TEST_PIDS names a
-folder where each worker writes its process id.
+folder where each worker writes its process id; SKERRY_TEST_BATCHES names a file to which the
+batched form appends each request's particle count, one a line.
 """
 import os
 import random
@@ -23,6 +24,7 @@ SIGMA = float(sys.argv[2])
 TWO = "--two" in sys.argv
 SLEEP = float(sys.argv[sys.argv.index("--sleep") + 1]) if "--sleep" in sys.argv else 0.0
 PIDS = os.environ.get("SKERRY_TEST_PIDS")
+BATCHES = os.environ.get("SKERRY_TEST_BATCHES")
 if PIDS:
     with open(os.path.join(PIDS, "worker-%d" % os.getpid()), "w") as f:
         f.write(str(os.getpid()))
@@ -41,6 +43,9 @@ def summaries(theta, seed):
 
 
 def batch(values, seeds):
+    if BATCHES:
+        with open(BATCHES, "a") as f:
+            f.write("%d\n" % len(values))
     rows = []
     for row, seed in zip(values, seeds):
         rows.append(summaries({"mu": float(row[0])}, seed))

@@ -87,6 +87,107 @@ class AbcLoopTest {
         }
     }
 
+    /**
+     * {@link TwoSummaries} with a batched form that loops over the single calls on each vector's
+     * stream, and reports every 7th vector of a batch as failed (its single call then succeeds):
+     * the sampler must give the unbatched run's bytes and counts.
+     */
+    static final class BatchedTwo implements org.skerry.engine.model.BatchedSummarySimulator {
+        private final TwoSummaries single = new TwoSummaries(false);
+        final java.util.concurrent.atomic.AtomicLong batches = new java.util.concurrent.atomic.AtomicLong();
+        final java.util.concurrent.atomic.AtomicLong vectors = new java.util.concurrent.atomic.AtomicLong();
+
+        @Override
+        public void simulateAll(double[] parameters, int count, int simulations,
+                org.skerry.engine.model.BatchContext context, double[] summaries, String[] errors) {
+            batches.incrementAndGet();
+            vectors.addAndGet(count);
+            int d = parameters().dimension();
+            double[] x = new double[d];
+            double[] one = new double[2];
+            for (int i = 0; i < count; i++) {
+                if (i % 7 == 3) {
+                    errors[i] = "refused in a batch, to be simulated alone";
+                    continue;
+                }
+                org.skerry.engine.random.RandomStream random = context.random(i);
+                LikelihoodContext each = new LikelihoodContext() {
+                    @Override
+                    public org.skerry.engine.random.RandomStream random() {
+                        return random;
+                    }
+
+                    @Override
+                    public long particleIndex() {
+                        return 0;
+                    }
+
+                    @Override
+                    public int iteration() {
+                        return context.iteration();
+                    }
+                };
+                System.arraycopy(parameters, i * d, x, 0, d);
+                for (int m = 0; m < simulations; m++) {
+                    single.simulate(x, each, one);
+                    System.arraycopy(one, 0, summaries, (i * simulations + m) * 2, 2);
+                }
+                errors[i] = null;
+            }
+        }
+
+        @Override
+        public ParameterSpace parameters() {
+            return single.parameters();
+        }
+
+        @Override
+        public Prior prior() {
+            return single.prior();
+        }
+
+        @Override
+        public double logLikelihood(double[] parameters, LikelihoodContext context) {
+            throw new UnsupportedOperationException();
+        }
+
+        @Override
+        public List<String> summaryNames() {
+            return single.summaryNames();
+        }
+
+        @Override
+        public void simulate(double[] parameters, LikelihoodContext context, double[] summaries) {
+            single.simulate(parameters, context, summaries);
+        }
+
+        @Override
+        public double[] observedSummaries() {
+            return single.observedSummaries();
+        }
+    }
+
+    @Test
+    @DisplayName("a batched simulator (one call a block for the draw, one a block and step for the moves; some "
+            + "vectors refused in the batch and simulated alone): the unbatched run's bytes and counts, M = 2")
+    void batchedSimulator() {
+        SamplerResult single = run(settings(ADAPTIVE), 2, 0);
+        BatchedTwo batched = new BatchedTwo();
+        SamplerResult result;
+        try (ThreadPoolBackend backend = new ThreadPoolBackend(3, 40)) {
+            result = new SmcSampler(settings(ADAPTIVE)).run(batched, backend);
+        }
+        assertEquals(toleranceLines(single), toleranceLines(result));
+        assertArrayEquals(single.particles().values(), result.particles().values());
+        assertArrayEquals(single.normalisedWeights(), result.normalisedWeights());
+        assertEquals(single.evaluations().evaluations(), result.evaluations().evaluations());
+        assertEquals(0, result.evaluations().invalid(), "a vector refused in a batch is not invalid when alone it works");
+        assertTrue(batched.batches.get() > 0, "the batched form was used");
+        // Blocks of 40 particles: a batch holds up to 40 vectors, so far fewer calls than vectors.
+        assertTrue(batched.vectors.get() > 10 * batched.batches.get(), batched.vectors + " vectors in "
+                + batched.batches + " calls");
+    }
+
     private static SamplerSettings settings(AbcSettings abc) {
         return SamplerSettings.builder().particles(300).seed(17).targets(SequenceSettings.abc(abc)).build();
     }

@@ -87,6 +87,34 @@ class ProgramAbcRunTest {
     }
 
     @Test
+    @DisplayName("requests of 7 particles replying with summaries (the worker's batched form), M = 2: the bytes "
+            + "of one particle a request, on threads and on Spark local mode with 3 partitions")
+    void batchedSameBytes() throws IOException {
+        String m2 = "sampler.abc.simulations-per-particle = 2";
+        CommandRunner.Result single = run(write("single", "abc", m2), "single", "backend.kind=threads",
+                "backend.threads=2");
+        assertEquals(ExitCodes.SUCCESS, single.exitCode(), single.err());
+        Path sizes = folder.resolve("batch-sizes.txt");
+        Path batched = write("batched", List.of("--batched"), "abc", m2, "model.program.batch = 7",
+                "model.program.environment.SKERRY_TEST_BATCHES = " + ProgramRunFiles.quote(sizes.toString()));
+        CommandRunner.Result threads = run(batched, "batched-threads", "backend.kind=threads", "backend.threads=2");
+        assertEquals(ExitCodes.SUCCESS, threads.exitCode(), threads.err());
+        CommandRunner.Result spark = run(batched, "batched-spark", "backend.kind=spark", "backend.master=local[2]",
+                "backend.partitions=3");
+        assertEquals(ExitCodes.SUCCESS, spark.exitCode(), spark.err());
+        // M = 2 simulations a particle: requests of 7 vectors (a few smaller at the ends of a block).
+        List<Integer> requests = Files.readAllLines(sizes).stream().map(Integer::parseInt).toList();
+        assertEquals(7, requests.stream().mapToInt(Integer::intValue).max().orElse(0), "requests of up to 7");
+        assertTrue(requests.stream().filter(k -> k == 7).count() > requests.size() / 2, "mostly full requests");
+        for (String out : List.of("batched-threads", "batched-spark")) {
+            for (String file : List.of("summary.json", "particles.csv")) {
+                assertArrayEquals(Files.readAllBytes(folder.resolve("single").resolve(file)),
+                        Files.readAllBytes(folder.resolve(out).resolve(file)), out + "/" + file);
+            }
+        }
+    }
+
+    @Test
     @DisplayName("a summaries program with likelihood tempering, or in file mode: exit 2 naming "
             + "model.program.summaries and its line, nothing written")
     void refusals() throws IOException {
