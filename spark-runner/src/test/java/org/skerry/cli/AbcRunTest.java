@@ -192,6 +192,23 @@ class AbcRunTest {
     }
 
     @Test
+    @DisplayName("a tolerance that cannot fall (every distance equal): exit 0, the result kept, the end explained")
+    void stalledTolerance() throws IOException {
+        String coins = RUN.replace("model { name = normal-mean-simulator, settings { sigma = 1, prior.sd = 3 } }",
+                "model.class = \"org.skerry.cli.AbcTestSimulators$Coins\"").replace("{ mean = 1 }", "{ a = 1, b = 1 }")
+                .replace("data.inline { columns = [\"y\"], rows = [[0.4], [1.9], [1.1], [0.7], [1.6]] }\n", "");
+        CommandRunner.Result result = run(coins, "coins");
+        assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
+        assertTrue(result.out().contains("the run ended early: the tolerance cannot fall below"), result.out());
+        Map<String, Object> abc = (Map<String, Object>) JsonTree.read(folder.resolve("coins/summary.json")).get("abc");
+        assertEquals(false, abc.get("reached_final_tolerance"));
+        // Every distance is sqrt(0.5^2 + 0.5^2): the tolerance falls there from +infinity, then can fall no further.
+        assertEquals(Math.sqrt(0.5), ((Number) abc.get("final_tolerance")).doubleValue(), 1e-15);
+        assertTrue(String.valueOf(abc.get("ended_early")).contains("0.1 was not reached"), abc.toString());
+        assertTrue(Files.isRegularFile(folder.resolve("coins/particles.csv")), "the result is kept");
+    }
+
+    @Test
     @DisplayName("bad input, exit 2 before the run: no final tolerance, a model without summaries, observed "
             + "summaries and weights under names the simulator lacks, an observed-summary file whose header does "
             + "not match, a simulator writing more summaries than it names")

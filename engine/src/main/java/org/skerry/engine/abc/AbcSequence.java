@@ -184,9 +184,10 @@ public final class AbcSequence implements TargetSequence {
                     : ToleranceChoice.next(logWeight, oldKernel, distances, m, bound, settings.essFactor(),
                             settings.kernel());
             if (Double.isNaN(chosen)) {
-                throw new org.skerry.engine.sampler.SamplingFailedException(iteration, "the tolerance cannot fall "
-                        + "below " + from.tolerance() + ": no living particle's simulation lies closer to the observed "
-                        + "summaries (set sampler.abc.acceptance-floor or a larger final tolerance)");
+                throw new ToleranceStalledException("the tolerance cannot fall below " + from.tolerance() + ": no "
+                        + "living particle's simulation lies closer to the observed summaries; the final tolerance "
+                        + settings.finalTolerance() + " was not reached (more particles or MH steps may get "
+                        + "further)");
             }
             tolerance = Math.max(chosen, settings.finalTolerance());
         }

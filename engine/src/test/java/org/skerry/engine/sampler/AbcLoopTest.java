@@ -309,6 +309,59 @@ class AbcLoopTest {
         assertNull(fixed.stepCap().warning());
     }
 
+    /** A coin: one summary, 0 or 1 (heads with probability Φ(mu)); observed 0.5, so every distance is 0.5. */
+    static final class Coin implements SummarySimulator {
+        private final ParameterSpace space = ParameterSpace.of(List.of("mu"), List.of(Support.real()));
+        private final Prior prior = IndependentPrior.of(Normal.of(0, 1));
+
+        @Override
+        public ParameterSpace parameters() {
+            return space;
+        }
+
+        @Override
+        public Prior prior() {
+            return prior;
+        }
+
+        @Override
+        public double logLikelihood(double[] parameters, LikelihoodContext context) {
+            throw new UnsupportedOperationException();
+        }
+
+        @Override
+        public List<String> summaryNames() {
+            return List.of("coin");
+        }
+
+        @Override
+        public void simulate(double[] parameters, LikelihoodContext context, double[] summaries) {
+            summaries[0] = parameters[0] + context.random().nextNormal() > 0 ? 1.0 : 0.0;
+        }
+
+        @Override
+        public double[] observedSummaries() {
+            return new double[] {0.5};
+        }
+    }
+
+    @Test
+    @DisplayName("a tolerance that cannot fall (every distance 0.5, final tolerance 0.1): the run ends early at "
+            + "tolerance 0.5, says why, and keeps the result")
+    void stalledToleranceEndsEarly() {
+        SamplerSettings settings = settings(AbcSettings.of(0.1).withWeights(Map.of("coin", 1.0)));
+        SamplerResult result;
+        try (ThreadPoolBackend backend = new ThreadPoolBackend(2, 0)) {
+            result = new SmcSampler(settings).run(new Coin(), backend);
+        }
+        assertNotNull(result.endedEarly());
+        assertTrue(result.endedEarly().contains("cannot fall below 0.5") && result.endedEarly().contains("0.1 was not "
+                + "reached"), result.endedEarly());
+        assertEquals(0.5, result.lastTolerance().tolerance(), "the last tolerance reached");
+        assertEquals(2, result.iterations().size(), "the prior draw, then tolerance 0.5; the next could not start");
+        assertEquals(300, result.particles().size(), "the population is kept");
+    }
+
     @Test
     @DisplayName("a simulation budget ends the run early, says why, and keeps the result")
     void budgetEndsEarly() {
