@@ -137,7 +137,8 @@ class ProgramAbcRunTest {
     @DisplayName("a program replying with two numbers for its one summary: known only from its replies, so the run "
             + "fails at iteration 0 (exit 1), naming the counts and the key, no stack trace, no worker left")
     void wrongSummaryCount() throws IOException {
-        CommandRunner.Result result = run(write("wrong", List.of("--wrong-count"), "abc"), "wrong");
+        CommandRunner.Result result = run(write("wrong", List.of("--wrong-count"), "abc"), "wrong",
+                "sampler.particles=20", "backend.kind=threads", "backend.threads=1");
         assertEquals(ExitCodes.RUN_FAILURE, result.exitCode(), result.err());
         assertTrue(result.err().contains("iteration 0") && result.err().contains("carried 2 numbers")
                 && result.err().contains("model.program.summaries names 1 [mean]"), result.err());
