@@ -19,6 +19,7 @@ import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.skerry.engine.Slow;
+import org.skerry.engine.abc.AbcSettings;
 import org.skerry.engine.model.ModelSource;
 import org.skerry.engine.population.Population;
 import org.skerry.engine.reference.SyntheticData;
@@ -30,6 +31,7 @@ import org.skerry.engine.sampler.SamplerSettings;
 import org.skerry.engine.sampler.SamplerState;
 import org.skerry.engine.sampler.SmcSampler;
 import org.skerry.engine.sampler.StopCondition;
+import org.skerry.engine.target.SequenceSettings;
 import org.skerry.engine.temper.FixedSchedule;
 import org.skerry.checkpoint.CheckpointFileSystem;
 import org.skerry.checkpoint.CheckpointFolder;
@@ -89,10 +91,15 @@ class SparkJobCountTest {
     /** Runs the sampler and returns its records with the jobs each iteration started (index = iteration). */
     private List<Integer> jobsPerIteration(SamplerSettings settings, int partitions, Checkpointer checkpointer,
             List<IterationRecord> records) throws InterruptedException {
+        return jobsPerIteration(SOURCE, settings, partitions, checkpointer, records);
+    }
+
+    private List<Integer> jobsPerIteration(ModelSource source, SamplerSettings settings, int partitions,
+            Checkpointer checkpointer, List<IterationRecord> records) throws InterruptedException {
         String run = "run-" + System.nanoTime() + "-";
         COUNTER.jobs.clear();
         context.setLocalProperty(LABEL, run + 0);
-        SamplerResult result = new SmcSampler(settings).run(SOURCE, SparkBackend.on(context, partitions),
+        SamplerResult result = new SmcSampler(settings).run(source, SparkBackend.on(context, partitions),
                 record -> context.setLocalProperty(LABEL, run + (record.iteration() + 1)), checkpointer,
                 StopCondition.NEVER);
         COUNTER.endLabel = run + "end";
@@ -214,5 +221,40 @@ class SparkJobCountTest {
             assertEquals(3, lineage.split("RDD\\[", -1).length - 1, lineage);
             assertTrue(lineage.contains("ParallelCollectionRDD") && !lineage.contains("Shuffle"), lineage);
         }
+    }
+
+    @Test
+    @DisplayName("ABC, M = 2, adaptive tolerances, adaptive or fixed steps: the step's gathering of the kept "
+            + "summaries is the one job more than a likelihood iteration")
+    void abc() throws InterruptedException {
+        ModelSource source = new SimulatorSource(new double[] {0.4, 1.9, 1.1, 0.7, 1.6});
+        for (boolean fixedSteps : new boolean[] {false, true}) {
+            AbcSettings abc = AbcSettings.of(0.05).withSimulations(2);
+            SamplerSettings settings = SamplerSettings.builder().particles(240).seed(31)
+                    .targets(SequenceSettings.abc(fixedSteps ? abc.withSteps(2) : abc)).build();
+            List<IterationRecord> records = new ArrayList<>();
+            List<Integer> counts = jobsPerIteration(source, settings, 3, Checkpointer.NONE, records);
+            assertTrue(counts.size() > 3, "several tolerances: " + counts);
+            assertTrue(records.stream().anyMatch(IterationRecord::resampled), "the run resamples at least once");
+            for (int k = 1; k < counts.size(); k++) {
+                int allowed = abcAllowed(records, k, fixedSteps);
+                assertTrue(counts.get(k) <= allowed, (fixedSteps ? "fixed" : "adaptive") + " steps, iteration " + k
+                        + " started " + counts.get(k) + " jobs, more than " + allowed + ": " + counts);
+            }
+        }
+    }
+
+    /**
+     * An ABC iteration: one job gathers every particle's kept summaries (the ABC step needs M·s
+     * numbers a particle, not the two scalars the tempering inputs are); the reweighting from them
+     * is deferred into the next job; then resampling and moves as in a likelihood iteration. The
+     * move report's tempering inputs are not used, so no job is saved or added by them.
+     */
+    private static int abcAllowed(List<IterationRecord> records, int k, boolean fixedSteps) {
+        IterationRecord record = records.get(k);
+        int jobs = 1;
+        jobs += record.resampled() ? 2 : 1;
+        jobs += fixedSteps || record.mhSteps() == 1 ? 1 : 2;
+        return jobs;
     }
 }

@@ -48,6 +48,15 @@ public record Ending(int exitCode, String summary, List<String> lines, boolean t
                 InvalidEvaluationsException invalid = (InvalidEvaluationsException) e;
                 lines.add("the run failed at iteration " + invalid.iteration() + ": "
                         + invalid.explain(RunSpec.MAX_INVALID_FRACTION_KEY));
+                String reason = invalid.firstInvalidReason();
+                if (reason != null && reason.contains(org.skerry.engine.program.ProgramSimulator.WRONG_COUNT)) {
+                    // A program's summary count is known only from its replies; raising the limit would
+                    // only hide that every reply is wrong.
+                    lines.add("the program replies with another number of summaries than model.program.summaries "
+                            + "names: make the two agree (the names, in the order the program writes them), then "
+                            + "run again");
+                    return new Ending(ExitCodes.RUN_FAILURE, summary, lines, false);
+                }
                 lines.add("raise " + RunSpec.MAX_INVALID_FRACTION_KEY + " (up to 1) only if the model is "
                         + "known to fail there (the posterior is then conditional on where it works); set "
                         + RunSpec.RETRIES_KEY + " for a model that fails now and then; return -Infinity where the "

@@ -139,6 +139,43 @@ class AbcRunTest {
     }
 
     @Test
+    @DisplayName("sampler.abc.tolerance-rule = share with share-factor 0.3: each adaptive tolerance keeps 0.3 of the "
+            + "simulations within the last (M = 1, fixed weights: every living simulation was within it); a rule "
+            + "that does not exist is refused, naming the key; iterations at the ABC step cap counted and warned about")
+    void shareRule() throws IOException {
+        CommandRunner.Result result = run(RUN, "share", "sampler.abc.tolerance-rule=share",
+                "sampler.abc.share-factor=0.3", "sampler.abc.simulations-per-particle=1", "sampler.abc.max-steps=3");
+        assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
+        List<String> rows = Files.readAllLines(folder.resolve("share/iterations.csv"));
+        List<String> header = List.of(rows.get(0).split(","));
+        int tolerance = header.indexOf("tolerance");
+        int share = header.indexOf("share_within_tolerance");
+        int adaptive = 0;
+        for (String row : rows.subList(2, rows.size())) {
+            String[] cells = row.split(",", -1);
+            if (Double.parseDouble(cells[tolerance]) > 0.1) {
+                adaptive++;
+                double kept = Double.parseDouble(cells[share]);
+                // 0.3 of the living simulations (at least 90 of 300), up to one simulation (continuous
+                // summaries: no ties).
+                assertTrue(kept >= 0.3 && kept <= 0.3 + 1.0 / 90, row);
+            }
+        }
+        assertTrue(adaptive >= 2, "adaptive tolerances: " + adaptive);
+        // The ABC step cap (3 here) counted as for likelihood runs: the iterations.csv rows at it.
+        int steps = header.indexOf("mh_steps");
+        long atCap = rows.subList(2, rows.size()).stream().filter(row -> row.split(",")[steps].equals("3")).count();
+        assertTrue(atCap > 0, "no iteration at the cap of 3");
+        Map<String, Object> summary = JsonTree.read(folder.resolve("share/summary.json"));
+        assertEquals(atCap, ((Number) summary.get("iterations_at_step_cap")).longValue());
+        assertTrue(String.valueOf(summary.get("step_cap_warning")).contains("sampler.abc.max-steps"),
+                String.valueOf(summary.get("step_cap_warning")));
+        assertTrue(result.out().contains("sampler.abc.max-steps"), result.out());
+        CommandRunner.assertBadInput(run(RUN, "median", "sampler.abc.tolerance-rule=median"),
+                "sampler.abc.tolerance-rule", "median");
+    }
+
+    @Test
     @DisplayName("a final tolerance the budget cannot reach: exit 0, the result kept, the end explained")
     void unreachableTolerance() throws IOException {
         CommandRunner.Result result = run(RUN, "budget", "sampler.abc.final-tolerance=1e-9",
@@ -152,6 +189,23 @@ class AbcRunTest {
         assertEquals(false, abc.get("reached_final_tolerance"));
         assertTrue(String.valueOf(abc.get("ended_early")).contains("was not reached"));
         assertTrue(Files.isRegularFile(folder.resolve("budget/particles.csv")), "the result is kept");
+    }
+
+    @Test
+    @DisplayName("a tolerance that cannot fall (every distance equal): exit 0, the result kept, the end explained")
+    void stalledTolerance() throws IOException {
+        String coins = RUN.replace("model { name = normal-mean-simulator, settings { sigma = 1, prior.sd = 3 } }",
+                "model.class = \"org.skerry.cli.AbcTestSimulators$Coins\"").replace("{ mean = 1 }", "{ a = 1, b = 1 }")
+                .replace("data.inline { columns = [\"y\"], rows = [[0.4], [1.9], [1.1], [0.7], [1.6]] }\n", "");
+        CommandRunner.Result result = run(coins, "coins");
+        assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
+        assertTrue(result.out().contains("the run ended early: the tolerance cannot fall below"), result.out());
+        Map<String, Object> abc = (Map<String, Object>) JsonTree.read(folder.resolve("coins/summary.json")).get("abc");
+        assertEquals(false, abc.get("reached_final_tolerance"));
+        // Every distance is sqrt(0.5^2 + 0.5^2): the tolerance falls there from +infinity, then can fall no further.
+        assertEquals(Math.sqrt(0.5), ((Number) abc.get("final_tolerance")).doubleValue(), 1e-15);
+        assertTrue(String.valueOf(abc.get("ended_early")).contains("0.1 was not reached"), abc.toString());
+        assertTrue(Files.isRegularFile(folder.resolve("coins/particles.csv")), "the result is kept");
     }
 
     @Test

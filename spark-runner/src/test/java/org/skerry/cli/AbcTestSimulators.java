@@ -75,4 +75,19 @@ public final class AbcTestSimulators {
             return null;
         }
     }
+
+    /** Two coins (0 or 1 each) against observed 0.5 and 0.5: every distance is the same, so the tolerance stalls. */
+    public static final class Coins extends Base {
+        @Override
+        public void simulate(double[] parameters, LikelihoodContext context, double[] summaries) {
+            for (int k = 0; k < 2; k++) {
+                summaries[k] = parameters[0] + context.random().nextNormal() > 0 ? 1.0 : 0.0;
+            }
+        }
+
+        @Override
+        public double[] observedSummaries() {
+            return new double[] {0.5, 0.5};
+        }
+    }
 }

@@ -85,7 +85,10 @@ public final class AbcBlocks {
         double[] logKernel = block.logLikelihood();
         double[] summaries = block.auxiliary();
         long[] index = block.index();
-        double[] candidateSummaries = new double[w];
+        // Step by step over the block, so that a batched simulator gets one call per step for all
+        // its proposals. Each particle's chain reads only its own keyed streams, so the order
+        // (every particle's step k before any step k+1) gives the bytes of particle by particle.
+        double[] candidateSummaries = new double[n * w];
         SimulationTerm term = SimulationTerm.intoBuffer(SummarySimulator.of(model), target, candidateSummaries);
         LikelihoodEvaluator evaluator = new LikelihoodEvaluator(model, seed, retries, term);
 
@@ -94,6 +97,24 @@ public final class AbcBlocks {
         double[] zNew = new double[d];
         double[] noise = new double[d];
         double[] scratch = new double[d];
+        double[] position = new double[n * d];
+        double[] current = new double[n];
+        for (int i = 0; i < n; i++) {
+            if (block.logWeight()[i] == Double.NEGATIVE_INFINITY) {
+                continue;
+            }
+            System.arraycopy(values, i * d, x, 0, d);
+            space.toUnconstrained(x, z);
+            System.arraycopy(z, 0, position, i * d, d);
+            current[i] = logPrior[i] + logKernel[i] + space.logJacobian(z);
+        }
+        int[] slot = new int[n];
+        long[] slotIndex = new long[n];
+        double[] slotX = new double[n * d];
+        double[] slotZ = new double[n * d];
+        double[] slotPrior = new double[n];
+        double[] slotJacobian = new double[n];
+        double[] kernels = new double[n];
         RandomStream random = new RandomStream(seed, StreamPurpose.MOVE_PROPOSAL, iteration, 0, 0);
         int rungs = proposal.rungs();
         long[] proposedByRung = rungs > 1 ? new long[rungs] : null;
@@ -101,19 +122,18 @@ public final class AbcBlocks {
         long proposed = 0;
         long accepted = 0;
         long outsidePrior = 0;
-        for (int i = 0; i < n; i++) {
-            if (block.logWeight()[i] == Double.NEGATIVE_INFINITY) {
-                continue;
-            }
-            System.arraycopy(values, i * d, x, 0, d);
-            space.toUnconstrained(x, z);
-            double current = logPrior[i] + logKernel[i] + space.logJacobian(z);
-            int rung = proposal.rungOf(index[i]);
-            for (int step = firstStep; step < firstStep + steps; step++) {
+        for (int step = firstStep; step < firstStep + steps; step++) {
+            int pending = 0;
+            for (int i = 0; i < n; i++) {
+                if (block.logWeight()[i] == Double.NEGATIVE_INFINITY) {
+                    continue;
+                }
+                int rung = proposal.rungOf(index[i]);
                 proposed++;
                 if (proposedByRung != null) {
                     proposedByRung[rung]++;
                 }
+                System.arraycopy(position, i * d, z, 0, d);
                 random.reset(seed, StreamPurpose.MOVE_PROPOSAL, iteration, index[i], step);
                 proposal.propose(z, random, noise, zNew, rung);
                 double jacobian = space.fromUnconstrained(zNew, x);
@@ -123,22 +143,35 @@ public final class AbcBlocks {
                     outsidePrior++;
                     continue;
                 }
-                double kernel = evaluator.evaluate(x, index[i], iteration, step);
-                double candidate = lp + kernel + jacobian;
-                double logRatio = candidate - current + proposal.logProposalRatio(z, zNew, scratch);
+                slot[pending] = i;
+                slotIndex[pending] = index[i];
+                System.arraycopy(x, 0, slotX, pending * d, d);
+                System.arraycopy(zNew, 0, slotZ, pending * d, d);
+                slotPrior[pending] = lp;
+                slotJacobian[pending] = jacobian;
+                pending++;
+            }
+            term.batch(slotIndex, pending);
+            evaluator.evaluateAll(slotX, pending, slotIndex, iteration, step, kernels, scratch);
+            for (int k = 0; k < pending; k++) {
+                int i = slot[k];
+                System.arraycopy(position, i * d, z, 0, d);
+                System.arraycopy(slotZ, k * d, zNew, 0, d);
+                double candidate = slotPrior[k] + kernels[k] + slotJacobian[k];
+                double logRatio = candidate - current[i] + proposal.logProposalRatio(z, zNew, scratch);
                 random.reset(seed, StreamPurpose.MOVE_ACCEPT, iteration, index[i], step);
                 double u = random.nextOpenDouble();
                 if (candidate > Double.NEGATIVE_INFINITY && StrictMath.log(u) < logRatio) {
                     accepted++;
                     if (acceptedByRung != null) {
-                        acceptedByRung[rung]++;
+                        acceptedByRung[proposal.rungOf(index[i])]++;
                     }
-                    System.arraycopy(zNew, 0, z, 0, d);
-                    System.arraycopy(x, 0, values, i * d, d);
-                    System.arraycopy(candidateSummaries, 0, summaries, i * w, w);
-                    logPrior[i] = lp;
-                    logKernel[i] = kernel;
-                    current = candidate;
+                    System.arraycopy(zNew, 0, position, i * d, d);
+                    System.arraycopy(slotX, k * d, values, i * d, d);
+                    System.arraycopy(candidateSummaries, k * w, summaries, i * w, w);
+                    logPrior[i] = slotPrior[k];
+                    logKernel[i] = kernels[k];
+                    current[i] = candidate;
                 }
             }
         }

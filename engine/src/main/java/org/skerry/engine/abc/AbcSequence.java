@@ -12,7 +12,8 @@ import org.skerry.engine.target.TargetSequence;
 /**
  * Adaptive ABC-SMC as a sequence of targets (Del Moral, Doucet &amp; Jasra 2012, Statistics and
  * Computing 22): tolerances from +∞ (the prior) down to a final tolerance, each chosen so that the
- * ESS falls by a set factor ({@link ToleranceChoice}), or taken from a fixed schedule. A step
+ * ESS falls by a set factor, or so that a set share of the simulations stays within it
+ * ({@link ToleranceChoice}, {@link ToleranceRule}), or taken from a fixed schedule. A step
  * gathers every particle's kept summaries (M·s numbers a particle: the one place an ABC run sends
  * more than a few scalars per particle to the driver), re-estimates the distance weights when
  * they adapt ({@link DistanceScales}, Prangle 2017, Bayesian Analysis 12(1)), chooses the
@@ -178,12 +179,15 @@ public final class AbcSequence implements TargetSequence {
                 }
                 bound *= ratio;
             }
-            double chosen = ToleranceChoice.next(logWeight, oldKernel, distances, m, bound, settings.essFactor(),
-                    settings.kernel());
+            double chosen = settings.toleranceRule() == ToleranceRule.SHARE
+                    ? ToleranceChoice.byShare(alive, distances, m, bound, settings.shareFactor())
+                    : ToleranceChoice.next(logWeight, oldKernel, distances, m, bound, settings.essFactor(),
+                            settings.kernel());
             if (Double.isNaN(chosen)) {
-                throw new org.skerry.engine.sampler.SamplingFailedException(iteration, "the tolerance cannot fall "
-                        + "below " + from.tolerance() + ": no living particle's simulation lies closer to the observed "
-                        + "summaries (set sampler.abc.acceptance-floor or a larger final tolerance)");
+                throw new ToleranceStalledException("the tolerance cannot fall below " + from.tolerance() + ": no "
+                        + "living particle's simulation lies closer to the observed summaries; the final tolerance "
+                        + settings.finalTolerance() + " was not reached (more particles or MH steps may get "
+                        + "further)");
             }
             tolerance = Math.max(chosen, settings.finalTolerance());
         }

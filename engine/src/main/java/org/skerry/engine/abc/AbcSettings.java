@@ -11,7 +11,9 @@ import java.util.Map;
  *
  * @param finalTolerance  the tolerance to reach, ε* &gt; 0 (in the units of the weighted distance)
  * @param schedule        fixed tolerances, strictly decreasing, ending at ε*; empty to choose them adaptively
- * @param essFactor       adaptive tolerances: each is chosen so that the ESS falls to this fraction of the last, in (0, 1)
+ * @param toleranceRule   adaptive tolerances: by the ESS or by the share of simulations within tolerance
+ * @param essFactor       adaptive tolerances, ESS rule: each is chosen so that the ESS falls to this fraction of the last, in (0, 1)
+ * @param shareFactor     adaptive tolerances, share rule: each keeps this fraction of the simulations within the last, in (0, 1)
  * @param simulations     M, simulations per particle and evaluation, at least 1
  * @param kernel          uniform or Gaussian
  * @param weights         fixed distance weights by summary name, one for every summary; null to scale
@@ -24,14 +26,15 @@ import java.util.Map;
  * @param simulationBudget stop once this many simulations are spent; 0 for no budget
  * @param observed        the observed summaries by name, or null to take the model's own
  */
-public record AbcSettings(double finalTolerance, double[] schedule, double essFactor, int simulations, AbcKernel kernel,
+public record AbcSettings(double finalTolerance, double[] schedule, ToleranceRule toleranceRule, double essFactor,
+        double shareFactor, int simulations, AbcKernel kernel,
         Map<String, Double> weights, int fixedSteps, double stayProbability, int maxSteps, double acceptanceFloor,
         long simulationBudget, Map<String, Double> observed) {
 
-    /** Defaults besides the final tolerance: adaptive ESS factor 0.5, M = 1, uniform kernel, MAD scales,
+    /** Defaults besides the final tolerance: adaptive by the ESS, factor 0.5 (share factor 0.5 unused), M = 1, uniform kernel, MAD scales,
      * steps from a pilot (stay probability 0.05, at most 10), no floor, no budget. */
     public static AbcSettings of(double finalTolerance) {
-        return new AbcSettings(finalTolerance, new double[0], 0.5, 1, AbcKernel.UNIFORM, null, 0, 0.05, 10, 0, 0, null);
+        return new AbcSettings(finalTolerance, new double[0], ToleranceRule.ESS, 0.5, 0.5, 1, AbcKernel.UNIFORM, null, 0, 0.05, 10, 0, 0, null);
     }
 
     public AbcSettings {
@@ -49,8 +52,14 @@ public record AbcSettings(double finalTolerance, double[] schedule, double essFa
             throw new IllegalArgumentException("tolerance schedule must end at the final tolerance " + finalTolerance
                     + ", ended at " + schedule[schedule.length - 1]);
         }
+        if (toleranceRule == null) {
+            throw new IllegalArgumentException("tolerance rule must not be null");
+        }
         if (!(essFactor > 0 && essFactor < 1)) {
             throw new IllegalArgumentException("ESS factor must be in (0, 1), was " + essFactor);
+        }
+        if (!(shareFactor > 0 && shareFactor < 1)) {
+            throw new IllegalArgumentException("share factor must be in (0, 1), was " + shareFactor);
         }
         if (simulations < 1 || simulations > 10_000) {
             throw new IllegalArgumentException("simulations per particle must be in [1, 10000], was " + simulations);
@@ -100,43 +109,56 @@ public record AbcSettings(double finalTolerance, double[] schedule, double essFa
 
     /** These settings with the observed summaries {@code values}. */
     public AbcSettings withObserved(Map<String, Double> values) {
-        return new AbcSettings(finalTolerance, schedule, essFactor, simulations, kernel, weights, fixedSteps,
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, kernel, weights, fixedSteps,
                 stayProbability, maxSteps, acceptanceFloor, simulationBudget, values);
     }
 
     /** These settings with fixed distance weights (null: MAD scales). */
     public AbcSettings withWeights(Map<String, Double> values) {
-        return new AbcSettings(finalTolerance, schedule, essFactor, simulations, kernel, values, fixedSteps,
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, kernel, values, fixedSteps,
                 stayProbability, maxSteps, acceptanceFloor, simulationBudget, observed);
     }
 
     /** These settings with a fixed tolerance schedule ending at its last entry. */
     public AbcSettings withSchedule(double[] values) {
-        return new AbcSettings(values[values.length - 1], values, essFactor, simulations, kernel, weights, fixedSteps,
+        return new AbcSettings(values[values.length - 1], values, toleranceRule, essFactor, shareFactor, simulations, kernel, weights, fixedSteps,
+                stayProbability, maxSteps, acceptanceFloor, simulationBudget, observed);
+    }
+
+    /** These settings with adaptive tolerances by {@code rule}, keeping {@code factor} of the ESS or share. */
+    public AbcSettings withToleranceRule(ToleranceRule rule, double factor) {
+        return new AbcSettings(finalTolerance, schedule, rule, rule == ToleranceRule.ESS ? factor : essFactor,
+                rule == ToleranceRule.SHARE ? factor : shareFactor, simulations, kernel, weights, fixedSteps,
                 stayProbability, maxSteps, acceptanceFloor, simulationBudget, observed);
     }
 
     /** These settings with M simulations per particle. */
     public AbcSettings withSimulations(int value) {
-        return new AbcSettings(finalTolerance, schedule, essFactor, value, kernel, weights, fixedSteps,
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, value, kernel, weights, fixedSteps,
                 stayProbability, maxSteps, acceptanceFloor, simulationBudget, observed);
     }
 
     /** These settings with the kernel {@code value}. */
     public AbcSettings withKernel(AbcKernel value) {
-        return new AbcSettings(finalTolerance, schedule, essFactor, simulations, value, weights, fixedSteps,
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, value, weights, fixedSteps,
                 stayProbability, maxSteps, acceptanceFloor, simulationBudget, observed);
     }
 
     /** These settings with {@code value} MH steps per iteration (0: adaptive). */
     public AbcSettings withSteps(int value) {
-        return new AbcSettings(finalTolerance, schedule, essFactor, simulations, kernel, weights, value,
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, kernel, weights, value,
                 stayProbability, maxSteps, acceptanceFloor, simulationBudget, observed);
+    }
+
+    /** These settings with adaptive MH steps capped at {@code value}. */
+    public AbcSettings withMaxSteps(int value) {
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, kernel,
+                weights, fixedSteps, stayProbability, value, acceptanceFloor, simulationBudget, observed);
     }
 
     /** These settings with the stopping rules {@code floor} and {@code budget}. */
     public AbcSettings withStops(double floor, long budget) {
-        return new AbcSettings(finalTolerance, schedule, essFactor, simulations, kernel, weights, fixedSteps,
+        return new AbcSettings(finalTolerance, schedule, toleranceRule, essFactor, shareFactor, simulations, kernel, weights, fixedSteps,
                 stayProbability, maxSteps, floor, budget, observed);
     }
 
@@ -152,8 +174,8 @@ public record AbcSettings(double finalTolerance, double[] schedule, double essFa
 
     @Override
     public String toString() {
-        return "ABC(final tolerance " + finalTolerance + ", schedule " + Arrays.toString(schedule) + ", ESS factor "
-                + essFactor + ", M " + simulations + ", " + kernel + ", weights " + weights + ", steps "
+        return "ABC(final tolerance " + finalTolerance + ", schedule " + Arrays.toString(schedule) + ", rule " + toleranceRule
+                + ", ESS factor " + essFactor + ", share factor " + shareFactor + ", M " + simulations + ", " + kernel + ", weights " + weights + ", steps "
                 + fixedSteps + ", stay " + stayProbability + ", max steps " + maxSteps + ", floor " + acceptanceFloor
                 + ", budget " + simulationBudget + ", observed " + observed + ")";
     }

@@ -116,6 +116,60 @@ public final class ToleranceChoice {
         return largest;
     }
 
+    /**
+     * The next tolerance by the share rule: the smallest distance at which at least {@code factor}
+     * of the living particles' simulations within {@code current} stay within, counted without
+     * weights. Only distances strictly below {@code current} are candidates, and tied distances
+     * enter together, so ties cannot hold the tolerance still: when a tie overshoots the share, the
+     * tolerance still falls to the tied distance. NaN when no distance lies below {@code current}.
+     *
+     * @param alive     whether each particle lives (weight and kernel above zero); the dead's simulations are not counted
+     * @param distances M distances per particle under the new weights
+     */
+    public static double byShare(boolean[] alive, double[] distances, int simulations, double current,
+            double factor) {
+        int n = alive.length;
+        int within = 0;
+        int below = 0;
+        for (int i = 0; i < n; i++) {
+            if (alive[i]) {
+                for (int m = 0; m < simulations; m++) {
+                    double d = distances[i * simulations + m];
+                    if (d <= current) {
+                        within++;
+                    }
+                    if (d < current) {
+                        below++;
+                    }
+                }
+            }
+        }
+        if (below == 0) {
+            return Double.NaN;
+        }
+        double[] sorted = new double[below];
+        int at = 0;
+        for (int i = 0; i < n; i++) {
+            if (alive[i]) {
+                for (int m = 0; m < simulations; m++) {
+                    double d = distances[i * simulations + m];
+                    if (d < current) {
+                        sorted[at++] = d;
+                    }
+                }
+            }
+        }
+        Arrays.sort(sorted);
+        double target = factor * within;
+        for (int k = 0; k < below; k++) {
+            boolean lastOfTie = k == below - 1 || sorted[k + 1] != sorted[k];
+            if (lastOfTie && k + 1 >= target) {
+                return sorted[k];
+            }
+        }
+        return sorted[below - 1];
+    }
+
     private static double gaussian(double[] a, double[] distances, int simulations, double current, double target) {
         double smallest = Double.POSITIVE_INFINITY;
         double largest = 0.0;

@@ -2,8 +2,8 @@ package org.skerry.engine.program;
 
 import java.util.List;
 import org.skerry.engine.model.BatchContext;
+import org.skerry.engine.model.BatchedSummarySimulator;
 import org.skerry.engine.model.LikelihoodContext;
-import org.skerry.engine.model.SummarySimulator;
 
 /**
  * A user's program as a simulator for approximate Bayesian computation: the workers of a
@@ -16,7 +16,10 @@ import org.skerry.engine.model.SummarySimulator;
  * the run file ({@code sampler.abc.observed} or {@code observed-file}), as the program holds none.
  * It has no likelihood: the likelihood methods refuse.
  */
-public final class ProgramSimulator extends ProgramModel implements SummarySimulator {
+public final class ProgramSimulator extends ProgramModel implements BatchedSummarySimulator {
+
+    /** The words of a wrong-count reason (a reply with another number of summaries than named). */
+    public static final String WRONG_COUNT = "model.program.summaries names";
 
     private final int width;
 
@@ -45,6 +48,42 @@ public final class ProgramSimulator extends ProgramModel implements SummarySimul
         }
         if (out != summaries) {
             System.arraycopy(out, 0, summaries, 0, width);
+        }
+    }
+
+    /**
+     * Requests of up to {@code model.program.batch} particles (several particles a request, each
+     * replying with its summaries). Vector i's simulation m gets the m-th number of its stream as
+     * seed, as the m-th of its single calls would.
+     */
+    @Override
+    public void simulateAll(double[] parameters, int count, int simulations, BatchContext context, double[] summaries,
+            String[] errors) {
+        int d = dimension();
+        int total = count * simulations;
+        double[] each = parameters;
+        if (simulations > 1) {
+            each = new double[total * d];
+            for (int i = 0; i < count; i++) {
+                for (int m = 0; m < simulations; m++) {
+                    System.arraycopy(parameters, i * d, each, (i * simulations + m) * d, d);
+                }
+            }
+        }
+        long[] seeds = new long[total];
+        for (int i = 0; i < count; i++) {
+            org.skerry.engine.random.RandomStream random = context.random(i);
+            for (int m = 0; m < simulations; m++) {
+                seeds[i * simulations + m] = random.nextLong();
+            }
+        }
+        String[] reasons = new String[total];
+        evaluate(each, total, seeds, context.iteration(), summaries, reasons);
+        for (int i = 0; i < count; i++) {
+            errors[i] = null;
+            for (int m = 0; m < simulations && errors[i] == null; m++) {
+                errors[i] = reasons[i * simulations + m];
+            }
         }
     }
 

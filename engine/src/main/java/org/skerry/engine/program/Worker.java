@@ -191,8 +191,8 @@ final class Worker implements AutoCloseable {
         if (fields.length != s) {
             java.util.Arrays.fill(results, i * s, i * s + s, Double.NaN);
             errors[i] = label + ": its reply for the particle carried " + fields.length + " number"
-                    + (fields.length == 1 ? "" : "s") + " ('" + abbreviate(line) + "'), but model.program.summaries "
-                    + "names " + s + " " + summaries;
+                    + (fields.length == 1 ? "" : "s") + " ('" + abbreviate(line) + "'), but " + ProgramSimulator.WRONG_COUNT + " "
+                    + s + " " + summaries;
             return;
         }
         for (int k = 0; k < s; k++) {

@@ -152,6 +152,8 @@ public final class SmcSampler {
         private final int n = settings.population().particles();
         private final double logN = StrictMath.log(n);
         private final List<IterationRecord> records = new ArrayList<>();
+        /** Why an ABC run's tolerance could not fall further, or null. */
+        private String stalled;
         /** The ABC sequence when the run walks tolerances, else null. */
         private final AbcSequence abc;
 
@@ -238,7 +240,14 @@ public final class SmcSampler {
                     }
                     throw new RunStoppedException(iteration, reason);
                 }
-                step();
+                try {
+                    step();
+                } catch (org.skerry.engine.abc.ToleranceStalledException e) {
+                    // Nothing of the iteration was done: the population stays at the last tolerance.
+                    iteration--;
+                    stalled = e.reason();
+                    break;
+                }
                 progressed = true;
             }
             return result();
@@ -252,10 +261,14 @@ public final class SmcSampler {
 
         /**
          * Why an ABC run ends before its final tolerance (its acceptance floor, its budget of
-         * simulations), from the recorded iterations alone, so a resumed run decides alike; null
+         * simulations), from the recorded iterations alone, so a resumed run decides alike, or a
+         * tolerance that cannot fall (which a resumed run meets again at the same iteration); null
          * to go on, and always for other runs.
          */
         private String endedEarly() {
+            if (stalled != null) {
+                return stalled;
+            }
             if (abc == null || records.isEmpty()) {
                 return null;
             }
@@ -478,7 +491,7 @@ public final class SmcSampler {
                 evidence = evidence.withIslands(islands.islands(), islands.standardError());
             }
             return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights,
-                    abc == null ? StepCapReport.of(records, settings) : new StepCapReport(0, records.size() - 1, 0),
+                    abc == null ? StepCapReport.of(records, settings) : StepCapReport.ofAbc(records, abc.settings()),
                     endedEarly(), seconds(exportStart));
         }
     }

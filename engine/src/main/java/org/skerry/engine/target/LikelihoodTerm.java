@@ -18,4 +18,15 @@ public interface LikelihoodTerm extends Serializable {
      * evaluate many parameter vectors in one call.
      */
     boolean wholeLikelihood();
+
+    /**
+     * For a term that is not the whole likelihood but has a batched form of its own (ABC's
+     * simulations): evaluates {@code count} vectors at once into {@code out}, NaN where a vector
+     * must be evaluated again alone. Returns false, writing nothing, when it has no batched form
+     * (the default).
+     */
+    default boolean logLikelihoods(Model model, double[] parameters, int count,
+            org.skerry.engine.model.BatchContext context, double[] out) {
+        return false;
+    }
 }

@@ -85,4 +85,27 @@ class ToleranceChoiceTest {
         assertEquals(expected, chosen);
         assertTrue(chosen < current);
     }
+
+    @Test
+    @DisplayName("share rule: the smallest distance keeping the share, counted over living particles' simulations "
+            + "within the current tolerance; a tie overshooting the share or filling the ball still lets it fall")
+    void share() {
+        boolean[] alive = {true, true, true, true, true, true, true, false};
+        double[] d = {5, 1, 4, 2, 3, 6, 9, 0.5};
+        // Living and within 6: 5, 1, 4, 2, 3, 6 (six); 0.5 of six is three: 1, 2, 3.
+        assertEquals(3.0, ToleranceChoice.byShare(alive, d, 1, 6.0, 0.5));
+        // From +inf all seven living count; 0.5 of seven is 3.5, so four: 1, 2, 3, 4.
+        assertEquals(4.0, ToleranceChoice.byShare(alive, d, 1, Double.POSITIVE_INFINITY, 0.5));
+        boolean[] all = new boolean[10];
+        java.util.Arrays.fill(all, true);
+        double[] ties = {0, 0, 1, 1, 1, 1, 1, 1, 1, 1};
+        assertEquals(1.0, ToleranceChoice.byShare(all, ties, 1, Double.POSITIVE_INFINITY, 0.5),
+                "0 keeps 2 of 10; the tie at 1 enters whole");
+        assertEquals(0.0, ToleranceChoice.byShare(all, ties, 1, 1.0, 0.5), "from 1 it still falls, to 0");
+        assertTrue(Double.isNaN(ToleranceChoice.byShare(all, ties, 1, 0.0, 0.5)), "nothing below 0");
+        // M = 2: simulations, not particles, are counted; particle 1's are both outside 2.5.
+        double[] two = {1, 2, 3, 7, 0.5, 2.5};
+        boolean[] three = {true, true, true};
+        assertEquals(1.0, ToleranceChoice.byShare(three, two, 2, 2.5, 0.5), "within 2.5: 1, 2, 0.5, 2.5; half is 2");
+    }
 }

@@ -77,6 +77,52 @@ class ProgramSimulatorTest {
     }
 
     @Test
+    @DisplayName("simulateAll in requests of 4 (the worker's batched form), M = 2: each vector's summaries are its two "
+            + "single calls' on its own stream, bit for bit")
+    void batchedMatchesSingles() {
+        int count = 5;
+        double[] parameters = {1.5, -0.5, 2.0, 0.0, 3.25};
+        double[] batched = new double[count * 2];
+        String[] errors = new String[count];
+        org.skerry.engine.model.BatchContext context = new org.skerry.engine.model.BatchContext() {
+            @Override
+            public int iteration() {
+                return 2;
+            }
+
+            @Override
+            public long particleIndex(int i) {
+                return 10 + i;
+            }
+
+            @Override
+            public RandomStream random(int i) {
+                return new RandomStream(17, StreamPurpose.TESTING, 2, 10 + i);
+            }
+        };
+        ProgramSettings four = settings("normal_mean_summaries.py", List.of("mean"), "10", "1.0", "--batched");
+        four = new ProgramSettings(four.command(), four.files(), four.environment(), four.timeout(),
+                four.startTimeout(), four.mode(), 4, four.names(), four.priors(), four.scratch(), four.fileMode(),
+                four.summaries());
+        try (ProgramSimulator simulator = new ProgramSimulator(four)) {
+            simulator.simulateAll(parameters, count, 2, context, batched, errors);
+        }
+        try (ProgramSimulator simulator = new ProgramSimulator(settings("normal_mean_summaries.py", List.of("mean"),
+                "10", "1.0"))) {
+            for (int i = 0; i < count; i++) {
+                assertEquals(null, errors[i], "vector " + i);
+                LikelihoodContext single = context(10 + i);
+                double[] one = new double[1];
+                for (int m = 0; m < 2; m++) {
+                    simulator.simulate(new double[] {parameters[i]}, single, one);
+                    assertEquals(Double.doubleToRawLongBits(one[0]), Double.doubleToRawLongBits(batched[i * 2 + m]),
+                            "vector " + i + ", simulation " + m);
+                }
+            }
+        }
+    }
+
+    @Test
     @DisplayName("a reply with two numbers for one summary: an invalid simulation naming the counts; the worker "
             + "goes on")
     void wrongCount() {

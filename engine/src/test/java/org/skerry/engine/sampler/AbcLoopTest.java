@@ -87,6 +87,107 @@ class AbcLoopTest {
         }
     }
 
+    /**
+     * {@link TwoSummaries} with a batched form that loops over the single calls on each vector's
+     * stream, and reports every 7th vector of a batch as failed (its single call then succeeds):
+     * the sampler must give the unbatched run's bytes and counts.
+     */
+    static final class BatchedTwo implements org.skerry.engine.model.BatchedSummarySimulator {
+        private final TwoSummaries single = new TwoSummaries(false);
+        final java.util.concurrent.atomic.AtomicLong batches = new java.util.concurrent.atomic.AtomicLong();
+        final java.util.concurrent.atomic.AtomicLong vectors = new java.util.concurrent.atomic.AtomicLong();
+
+        @Override
+        public void simulateAll(double[] parameters, int count, int simulations,
+                org.skerry.engine.model.BatchContext context, double[] summaries, String[] errors) {
+            batches.incrementAndGet();
+            vectors.addAndGet(count);
+            int d = parameters().dimension();
+            double[] x = new double[d];
+            double[] one = new double[2];
+            for (int i = 0; i < count; i++) {
+                if (i % 7 == 3) {
+                    errors[i] = "refused in a batch, to be simulated alone";
+                    continue;
+                }
+                org.skerry.engine.random.RandomStream random = context.random(i);
+                LikelihoodContext each = new LikelihoodContext() {
+                    @Override
+                    public org.skerry.engine.random.RandomStream random() {
+                        return random;
+                    }
+
+                    @Override
+                    public long particleIndex() {
+                        return 0;
+                    }
+
+                    @Override
+                    public int iteration() {
+                        return context.iteration();
+                    }
+                };
+                System.arraycopy(parameters, i * d, x, 0, d);
+                for (int m = 0; m < simulations; m++) {
+                    single.simulate(x, each, one);
+                    System.arraycopy(one, 0, summaries, (i * simulations + m) * 2, 2);
+                }
+                errors[i] = null;
+            }
+        }
+
+        @Override
+        public ParameterSpace parameters() {
+            return single.parameters();
+        }
+
+        @Override
+        public Prior prior() {
+            return single.prior();
+        }
+
+        @Override
+        public double logLikelihood(double[] parameters, LikelihoodContext context) {
+            throw new UnsupportedOperationException();
+        }
+
+        @Override
+        public List<String> summaryNames() {
+            return single.summaryNames();
+        }
+
+        @Override
+        public void simulate(double[] parameters, LikelihoodContext context, double[] summaries) {
+            single.simulate(parameters, context, summaries);
+        }
+
+        @Override
+        public double[] observedSummaries() {
+            return single.observedSummaries();
+        }
+    }
+
+    @Test
+    @DisplayName("a batched simulator (one call a block for the draw, one a block and step for the moves; some "
+            + "vectors refused in the batch and simulated alone): the unbatched run's bytes and counts, M = 2")
+    void batchedSimulator() {
+        SamplerResult single = run(settings(ADAPTIVE), 2, 0);
+        BatchedTwo batched = new BatchedTwo();
+        SamplerResult result;
+        try (ThreadPoolBackend backend = new ThreadPoolBackend(3, 40)) {
+            result = new SmcSampler(settings(ADAPTIVE)).run(batched, backend);
+        }
+        assertEquals(toleranceLines(single), toleranceLines(result));
+        assertArrayEquals(single.particles().values(), result.particles().values());
+        assertArrayEquals(single.normalisedWeights(), result.normalisedWeights());
+        assertEquals(single.evaluations().evaluations(), result.evaluations().evaluations());
+        assertEquals(0, result.evaluations().invalid(), "a vector refused in a batch is not invalid when alone it works");
+        assertTrue(batched.batches.get() > 0, "the batched form was used");
+        // Blocks of 40 particles: a batch holds up to 40 vectors, so far fewer calls than vectors.
+        assertTrue(batched.vectors.get() > 10 * batched.batches.get(), batched.vectors + " vectors in "
+                + batched.batches + " calls");
+    }
+
     private static SamplerSettings settings(AbcSettings abc) {
         return SamplerSettings.builder().particles(300).seed(17).targets(SequenceSettings.abc(abc)).build();
     }
@@ -157,6 +258,108 @@ class AbcLoopTest {
             before = r.resampled() ? 300 : r.ess();
         }
         assertEquals(result.simulations(), 2 * result.evaluations().evaluations());
+    }
+
+    @Test
+    @DisplayName("share rule, factor 0.3, fixed weights, M = 1: each adaptive tolerance keeps the smallest share of "
+            + "at least 0.3 of the living simulations within it (continuous summaries: no ties); the same bytes on "
+            + "1 and 3 threads")
+    void shareRule() {
+        AbcSettings abc = AbcSettings.of(0.05).withWeights(Map.of("mean", 1.0, "range", 0.01))
+                .withToleranceRule(org.skerry.engine.abc.ToleranceRule.SHARE, 0.3);
+        SamplerResult result = run(settings(abc), 1, 0);
+        assertEquals(0.05, result.lastTolerance().tolerance(), "reaches the final tolerance");
+        int adaptive = 0;
+        for (IterationRecord r : result.iterations()) {
+            if (r.iteration() > 0 && r.abc().tolerance() > 0.05) {
+                adaptive++;
+                // With M = 1 and the uniform kernel every living simulation lies within the last
+                // tolerance; the next is the smallest distance keeping at least 0.3 of them, so the
+                // share is 0.3 up to one simulation among the living (at least 90 of 300 here).
+                double share = r.abc().shareWithin();
+                assertTrue(share >= 0.3 && share <= 0.3 + 1.0 / 90, "share " + share + " at iteration " + r.iteration());
+            }
+        }
+        assertTrue(adaptive >= 2, "too few adaptive tolerances to check: " + adaptive);
+        SamplerResult other = run(settings(abc), 3, 13);
+        assertEquals(toleranceLines(result), toleranceLines(other), "3 threads, blocks of 13");
+        assertArrayEquals(result.particles().values(), other.particles().values());
+    }
+
+    @Test
+    @DisplayName("adaptive ABC steps at sampler.abc.max-steps are counted and warned about, naming that key and no "
+            + "evidence; fixed steps are never counted")
+    void stepCap() {
+        SamplerResult capped = run(settings(ADAPTIVE.withMaxSteps(2)), 2, 0);
+        int expected = 0;
+        for (IterationRecord r : capped.iterations()) {
+            assertTrue(r.mhSteps() <= 2, "steps " + r.mhSteps() + " over the cap");
+            if (r.iteration() > 0 && r.mhSteps() == 2) {
+                expected++;
+            }
+        }
+        assertTrue(expected > 0, "no iteration reached a cap of 2: the check would be empty");
+        assertEquals(expected, capped.stepCap().iterationsAtCap());
+        assertEquals(capped.iterations().size() - 1, capped.stepCap().iterations());
+        assertEquals(2, capped.stepCap().maxSteps());
+        String warning = capped.stepCap().warning();
+        assertTrue(warning.contains("sampler.abc.max-steps") && !warning.contains("evidence"), warning);
+        SamplerResult fixed = run(settings(ADAPTIVE.withSteps(2).withMaxSteps(2)), 2, 0);
+        assertEquals(0, fixed.stepCap().iterationsAtCap(), "fixed steps are not capped");
+        assertNull(fixed.stepCap().warning());
+    }
+
+    /** A coin: one summary, 0 or 1 (heads with probability Φ(mu)); observed 0.5, so every distance is 0.5. */
+    static final class Coin implements SummarySimulator {
+        private final ParameterSpace space = ParameterSpace.of(List.of("mu"), List.of(Support.real()));
+        private final Prior prior = IndependentPrior.of(Normal.of(0, 1));
+
+        @Override
+        public ParameterSpace parameters() {
+            return space;
+        }
+
+        @Override
+        public Prior prior() {
+            return prior;
+        }
+
+        @Override
+        public double logLikelihood(double[] parameters, LikelihoodContext context) {
+            throw new UnsupportedOperationException();
+        }
+
+        @Override
+        public List<String> summaryNames() {
+            return List.of("coin");
+        }
+
+        @Override
+        public void simulate(double[] parameters, LikelihoodContext context, double[] summaries) {
+            summaries[0] = parameters[0] + context.random().nextNormal() > 0 ? 1.0 : 0.0;
+        }
+
+        @Override
+        public double[] observedSummaries() {
+            return new double[] {0.5};
+        }
+    }
+
+    @Test
+    @DisplayName("a tolerance that cannot fall (every distance 0.5, final tolerance 0.1): the run ends early at "
+            + "tolerance 0.5, says why, and keeps the result")
+    void stalledToleranceEndsEarly() {
+        SamplerSettings settings = settings(AbcSettings.of(0.1).withWeights(Map.of("coin", 1.0)));
+        SamplerResult result;
+        try (ThreadPoolBackend backend = new ThreadPoolBackend(2, 0)) {
+            result = new SmcSampler(settings).run(new Coin(), backend);
+        }
+        assertNotNull(result.endedEarly());
+        assertTrue(result.endedEarly().contains("cannot fall below 0.5") && result.endedEarly().contains("0.1 was not "
+                + "reached"), result.endedEarly());
+        assertEquals(0.5, result.lastTolerance().tolerance(), "the last tolerance reached");
+        assertEquals(2, result.iterations().size(), "the prior draw, then tolerance 0.5; the next could not start");
+        assertEquals(300, result.particles().size(), "the population is kept");
     }
 
     @Test

@@ -296,7 +296,7 @@ public final class BatchRunner {
         }
         return new BatchSummary.Row(p.dataset().name(), p.variant().name(),
                 running.contains(p.label()) ? RUNNING : WAITING, Double.NaN, Double.NaN,
-                Double.NaN, Double.NaN, -1, -1, Map.of(), p.seed(), relative, Double.NaN, null);
+                Double.NaN, Double.NaN, -1, -1, Double.NaN, -1, Map.of(), p.seed(), relative, Double.NaN, null);
     }
 
     /**
@@ -308,13 +308,14 @@ public final class BatchRunner {
         RunSummaryReader.RunSummary s = RunSummaryReader.read(runFolder);
         String relative = batchFolder.relativize(runFolder).toString().replace('\\', '/');
         return new BatchSummary.Row(dataset, variant, SUCCEEDED, s.logEvidence(), s.logEvidenceError(), Double.NaN,
-                Double.NaN, s.iterations(), s.likelihoodEvaluations(), s.parameters(), seed, relative,
+                Double.NaN, s.iterations(), s.likelihoodEvaluations(), s.finalTolerance(), s.simulations(),
+                s.parameters(), seed, relative,
                 RunSummaryReader.wallSeconds(runFolder), null);
     }
 
     private static BatchSummary.Row failedRow(BatchSpec.Planned p, String folder, String message) {
         return new BatchSummary.Row(p.dataset().name(), p.variant().name(), FAILED, Double.NaN, Double.NaN, Double.NaN,
-                Double.NaN, -1, -1, Map.of(), p.seed(), folder, Double.NaN, message);
+                Double.NaN, -1, -1, Double.NaN, -1, Map.of(), p.seed(), folder, Double.NaN, message);
     }
 
     private boolean interactive() {

@@ -36,7 +36,8 @@ public final class BayesFactors {
                         + ref.logEvidenceError() * ref.logEvidenceError());
             }
             out.add(new BatchSummary.Row(r.dataset(), r.variant(), r.status(), r.logEvidence(), r.logEvidenceError(),
-                    factor, error, r.iterations(), r.likelihoodEvaluations(), r.parameters(), r.seed(), r.folder(),
+                    factor, error, r.iterations(), r.likelihoodEvaluations(), r.finalTolerance(), r.simulations(),
+                    r.parameters(), r.seed(), r.folder(),
                     r.wallSeconds(), r.message()));
         }
         return out;

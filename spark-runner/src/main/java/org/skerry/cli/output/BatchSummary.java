@@ -16,7 +16,9 @@ import org.apache.commons.csv.CSVPrinter;
  *
  * <p>CSV columns (snake_case, as in {@code summary.json}): {@code dataset, variant, status,
  * log_evidence, log_evidence_error, log_bayes_factor, log_bayes_factor_error, iterations,
- * likelihood_evaluations}, then for each parameter (in order of first appearance over the rows)
+ * likelihood_evaluations, final_tolerance, simulations} (the last two for ABC runs: the tolerance
+ * reached and the simulations spent, empty for likelihood runs, whose evidence columns an ABC run
+ * leaves empty in turn), then for each parameter (in order of first appearance over the rows)
  * {@code <name>.mean, <name>.q2_5, <name>.q97_5} (the dot separates the parameter's own name
  * from the statistic, which a {@code _} could not: parameter names may hold one), then
  * {@code seed, folder, wall_seconds, message}. The Bayes factor is the
@@ -41,11 +43,12 @@ public final class BatchSummary {
 
     /**
      * One analysis of a batch. For a failed one the numbers are NaN, counts −1 and parameters
-     * empty; {@code message} says what went wrong (null when it succeeded).
+     * empty; a likelihood run has no final tolerance (NaN) or simulations (−1), an ABC run no evidence; {@code message} says what went wrong (null when it succeeded).
      */
     public record Row(String dataset, String variant, String status, double logEvidence, double logEvidenceError,
             double logBayesFactor, double logBayesFactorError, int iterations, long likelihoodEvaluations,
-            Map<String, double[]> parameters, long seed, String folder, double wallSeconds, String message) {
+            double finalTolerance, long simulations, Map<String, double[]> parameters, long seed, String folder,
+            double wallSeconds, String message) {
     }
 
     private BatchSummary() {
@@ -64,7 +67,8 @@ public final class BatchSummary {
 
     private static void writeCsv(Path file, List<Row> rows, Set<String> parameters) throws IOException {
         List<String> columns = new ArrayList<>(List.of("dataset", "variant", "status", "log_evidence",
-                "log_evidence_error", "log_bayes_factor", "log_bayes_factor_error", "iterations", "likelihood_evaluations"));
+                "log_evidence_error", "log_bayes_factor", "log_bayes_factor_error", "iterations", "likelihood_evaluations",
+                "final_tolerance", "simulations"));
         for (String p : parameters) {
             columns.add(p + ".mean");
             columns.add(p + ".q2_5");
@@ -81,6 +85,8 @@ public final class BatchSummary {
                 fields.add(number(r.logBayesFactorError()));
                 fields.add(r.iterations() < 0 ? null : r.iterations());
                 fields.add(r.likelihoodEvaluations() < 0 ? null : r.likelihoodEvaluations());
+                fields.add(number(r.finalTolerance()));
+                fields.add(r.simulations() < 0 ? null : r.simulations());
                 for (String p : parameters) {
                     double[] values = r.parameters().get(p);
                     for (int k = 0; k < 3; k++) {
@@ -118,6 +124,8 @@ public final class BatchSummary {
                 JsonOutput.number(json, "log_bayes_factor_error", r.logBayesFactorError());
                 count(json, "iterations", r.iterations());
                 count(json, "likelihood_evaluations", r.likelihoodEvaluations());
+                JsonOutput.number(json, "final_tolerance", r.finalTolerance());
+                count(json, "simulations", r.simulations());
                 json.writeObjectFieldStart("parameters");
                 for (Map.Entry<String, double[]> p : r.parameters().entrySet()) {
                     json.writeObjectFieldStart(p.getKey());

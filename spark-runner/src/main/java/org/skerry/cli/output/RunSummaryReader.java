@@ -17,9 +17,12 @@ import java.util.Map;
  */
 public final class RunSummaryReader {
 
-    /** The parts of a run's summary a batch row shows; parameters map to {mean, q2_5, q97_5}. */
+    /**
+     * The parts of a run's summary a batch row shows; parameters map to {mean, q2_5, q97_5}. An ABC
+     * run also gives its final tolerance and simulations (NaN and −1 for a likelihood run).
+     */
     public record RunSummary(double logEvidence, double logEvidenceError, int iterations, long likelihoodEvaluations,
-            Map<String, double[]> parameters) {
+            Map<String, double[]> parameters, double finalTolerance, long simulations) {
     }
 
     private static final JsonFactory FACTORY = new JsonFactory();
@@ -36,6 +39,7 @@ public final class RunSummaryReader {
         int iterations = -1;
         long evaluations = -1;
         Map<String, double[]> parameters = new LinkedHashMap<>();
+        double[] abc = {Double.NaN, -1};
         try (JsonParser p = FACTORY.createParser(file.toFile())) {
             expect(p, JsonToken.START_OBJECT, file);
             while (p.nextToken() == JsonToken.FIELD_NAME) {
@@ -48,12 +52,14 @@ public final class RunSummaryReader {
                     case "iterations" -> iterations = p.getIntValue();
                     case "likelihood_evaluations" -> evaluations = p.getLongValue();
                     case "parameters" -> readParameters(p, parameters);
+                    case "abc" -> readAbc(p, abc);
                     default -> p.skipChildren();
                 }
             }
         }
         // An error the run itself marks unreliable is not shown as a figure in batch tables.
-        return new RunSummary(logEvidence, reliable ? error : Double.NaN, iterations, evaluations, parameters);
+        return new RunSummary(logEvidence, reliable ? error : Double.NaN, iterations, evaluations, parameters, abc[0],
+                (long) abc[1]);
     }
 
     /** The wall time in {@code timing.json} of {@code folder}, or NaN when it is missing or unreadable. */
@@ -76,6 +82,23 @@ public final class RunSummaryReader {
             // the wall time is information, not part of the answer
         }
         return Double.NaN;
+    }
+
+    /** The abc object of an ABC run's summary.json: its final tolerance and simulations into {@code out}. */
+    private static void readAbc(JsonParser p, double[] out) throws IOException {
+        if (p.currentToken() != JsonToken.START_OBJECT) {
+            p.skipChildren();
+            return;
+        }
+        while (p.nextToken() == JsonToken.FIELD_NAME) {
+            String key = p.currentName();
+            p.nextToken();
+            switch (key) {
+                case "final_tolerance" -> out[0] = number(p);
+                case "simulations" -> out[1] = p.getLongValue();
+                default -> p.skipChildren();
+            }
+        }
     }
 
     private static void readParameters(JsonParser p, Map<String, double[]> out) throws IOException {

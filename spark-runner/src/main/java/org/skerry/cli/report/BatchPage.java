@@ -67,6 +67,12 @@ final class BatchPage {
                         + "interrupted; run the same skerry batch command again to finish it"));
             } else if (row.note() != null) {
                 notes.add(new Warnings.Note(true, name + ": " + row.note()));
+            } else if (row.abc()) {
+                notes.add(new Warnings.Note(true, name + " is an ABC run: it has no evidence and no Bayes factor. The "
+                        + "ABC approximation of the evidence is not a likelihood evidence, and summaries sufficient "
+                        + "within each model are in general not sufficient for choosing between models (Robert, "
+                        + "Cornuet, Marin & Pillai 2011, PNAS 108(37)); compare its variants by their fits and "
+                        + "posteriors instead"));
             } else if (Double.isNaN(row.logEvidenceError())) {
                 notes.add(new Warnings.Note(true, name + ": its evidence error is not reliable (its run report says "
                         + "why), so its Bayes factor has no error to judge it by"));
@@ -86,24 +92,32 @@ final class BatchPage {
         html.append("<section id=\"analyses\">\n<h2>Analyses</h2>\n<table id=\"analyses-table\">\n<thead><tr>")
                 .append("<th>dataset</th><th>variant</th><th>status</th><th>log evidence</th><th>± error</th>")
                 .append("<th>log Bayes factor vs ").append(e(batch.referenceVariant())).append("</th><th>± error</th>")
-                .append("<th>iterations</th><th>likelihood evaluations</th><th>run report</th><th>note</th>")
+                .append("<th>iterations</th><th>likelihood evaluations</th><th>ABC final tolerance</th>")
+                .append("<th>ABC simulations</th><th>run report</th><th>note</th>")
                 .append("</tr></thead>\n<tbody>\n");
         for (int i = 0; i < batch.rows().size(); i++) {
             BatchReport.Row row = batch.rows().get(i);
             boolean reference = row.variant().equals(batch.referenceVariant());
+            // An ABC run has no evidence: its cells say so rather than "unreliable", which would
+            // suggest a likelihood evidence with a doubtful error.
+            String noEvidence = row.abc() ? "none (ABC)" : null;
             html.append("<tr data-dataset=\"").append(e(row.dataset())).append("\" data-variant=\"")
                     .append(e(row.variant())).append("\" data-status=\"").append(e(row.status())).append('"')
                     .append(row.succeeded() ? "" : " class=\"failed\"").append("><th>").append(e(row.dataset()))
                     .append("</th><td class=\"text\">").append(e(row.variant())).append("</td><td class=\"text\">")
                     .append(e(row.status())).append("</td>")
-                    .append(PageParts.cell("log_evidence", row.logEvidence(), "–"))
+                    .append(PageParts.cell("log_evidence", row.logEvidence(), noEvidence != null ? noEvidence : "–"))
                     .append(PageParts.cell("log_evidence_error", row.logEvidenceError(),
-                            row.succeeded() ? "unreliable" : "–"))
-                    .append(PageParts.cell("log_bayes_factor", row.logBayesFactor(), reference ? "reference" : "–"))
+                            noEvidence != null ? noEvidence : row.succeeded() ? "unreliable" : "–"))
+                    .append(PageParts.cell("log_bayes_factor", row.logBayesFactor(),
+                            noEvidence != null ? noEvidence : reference ? "reference" : "–"))
                     .append(PageParts.cell("log_bayes_factor_error", row.logBayesFactorError(),
-                            reference || !Double.isFinite(row.logBayesFactor()) ? "–" : "unreliable"))
+                            noEvidence != null ? noEvidence
+                                    : reference || !Double.isFinite(row.logBayesFactor()) ? "–" : "unreliable"))
                     .append(PageParts.countCell("iterations", row.iterations()))
                     .append(PageParts.countCell("likelihood_evaluations", row.likelihoodEvaluations()))
+                    .append(PageParts.cell("final_tolerance", row.finalTolerance(), "–"))
+                    .append(PageParts.countCell("simulations", row.simulations()))
                     .append("<td class=\"text\">");
             if (runs.pages()[i] != null) {
                 html.append("<a class=\"run-report\" href=\"").append(e(runs.pages()[i])).append("\">report</a>");
@@ -120,14 +134,17 @@ final class BatchPage {
                 + "estimate Ẑ; its error is the run's own single-run standard error, shown only where the run "
                 + "considers it reliable. A log Bayes factor is log Ẑ(variant) − log Ẑ(")
                 .append(e(batch.referenceVariant())).append(") on the same dataset, its error √(se² + se_ref²) for "
-                        + "two independent runs. Four significant digits here; batch-summary.csv and .json hold the "
-                        + "exact values.</p>\n</section>\n");
+                        + "two independent runs. An ABC run has neither: it gives the tolerance it reached and the "
+                        + "simulations it spent instead. Four significant digits here; batch-summary.csv and .json "
+                        + "hold the exact values.</p>\n</section>\n");
     }
 
     private void factors(BayesFactorFigure.Written figure) {
         html.append("<section id=\"bayes-factors\">\n<h2>Bayes factors</h2>\n");
         if (figure == null) {
-            html.append("<p>No Bayes factor to show: it needs two variants of a dataset that both succeeded.</p>\n")
+            html.append("<p>No Bayes factor to show: it needs two variants of a dataset that both succeeded")
+                    .append(batch.rows().stream().anyMatch(BatchReport.Row::abc) ? " with a likelihood; ABC runs have "
+                            + "none (see the warnings)" : "").append(".</p>\n")
                     .append("</section>\n");
             return;
         }

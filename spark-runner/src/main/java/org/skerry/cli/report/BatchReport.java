@@ -30,6 +30,8 @@ record BatchReport(Path folder, FolderKind kind, String referenceVariant, List<R
     /**
      * One analysis. Numbers absent from the summary are NaN, counts −1.
      *
+     * @param finalTolerance an ABC run's tolerance reached; NaN for a likelihood run
+     * @param simulations an ABC run's simulations; −1 for a likelihood run
      * @param runFolder the analysis's run folder (inside the batch folder)
      * @param relative  that folder relative to the batch folder, as the summary names it
      * @param reason    why it failed (failure.txt, else the summary's message); null otherwise
@@ -37,8 +39,14 @@ record BatchReport(Path folder, FolderKind kind, String referenceVariant, List<R
      * @param note      why a succeeded analysis has no summary on the page; null otherwise
      */
     record Row(String dataset, String variant, String status, double logEvidence, double logEvidenceError,
-            double logBayesFactor, double logBayesFactorError, long iterations, long likelihoodEvaluations, long seed,
-            String relative, Path runFolder, String reason, SummaryFile summary, String note) {
+            double logBayesFactor, double logBayesFactorError, long iterations, long likelihoodEvaluations,
+            double finalTolerance, long simulations, long seed, String relative, Path runFolder, String reason,
+            SummaryFile summary, String note) {
+
+        /** An ABC run: it has a tolerance and no evidence. */
+        boolean abc() {
+            return !Double.isNaN(finalTolerance) || simulations >= 0 || (summary != null && summary.abc() != null);
+        }
 
         boolean succeeded() {
             return BatchRunner.SUCCEEDED.equals(status);
@@ -133,6 +141,10 @@ record BatchReport(Path folder, FolderKind kind, String referenceVariant, List<R
                     r.number(a, "log_bayes_factor_error", where + ".log_bayes_factor_error"),
                     r.optionalCount(a, "iterations", where + ".iterations"),
                     r.optionalCount(a, "likelihood_evaluations", where + ".likelihood_evaluations"),
+                    // Absent from the files of batches run before ABC runs had these columns.
+                    a.containsKey("final_tolerance") ? r.number(a, "final_tolerance", where + ".final_tolerance")
+                            : Double.NaN,
+                    a.containsKey("simulations") ? r.optionalCount(a, "simulations", where + ".simulations") : -1,
                     r.whole(a, "seed", where + ".seed"), relative, runFolder, reason, summary, note));
         }
         return new BatchReport(folder, kind, reference, rows);

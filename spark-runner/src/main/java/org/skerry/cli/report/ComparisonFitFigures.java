@@ -81,7 +81,9 @@ final class ComparisonFitFigures {
                 x.setRange(positions.getLowerBound() - margin, positions.getUpperBound() + margin);
             }
             BatchReport.Row row = panel.row();
-            TextTitle title = new TextTitle("variant " + row.variant() + ": log Ẑ " + evidence(row), PANEL_TITLE);
+            // An ABC run has no evidence to put in the title: its tolerance instead.
+            TextTitle title = new TextTitle("variant " + row.variant() + (row.abc() ? ": ABC, tolerance "
+                    + Readable.number(row.finalTolerance()) : ": log Ẑ " + evidence(row)), PANEL_TITLE);
             title.setBackgroundPaint(java.awt.Color.WHITE);
             title.setFrame(new BlockBorder(Palette.GRID));
             title.setPadding(new RectangleInsets(3, 6, 3, 6));

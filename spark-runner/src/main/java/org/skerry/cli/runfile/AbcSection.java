@@ -12,6 +12,7 @@ import org.skerry.cli.data.DataException;
 import org.skerry.cli.data.DataTable;
 import org.skerry.engine.abc.AbcKernel;
 import org.skerry.engine.abc.AbcSettings;
+import org.skerry.engine.abc.ToleranceRule;
 import org.skerry.engine.settings.SettingsReader;
 
 /**
@@ -41,7 +42,10 @@ final class AbcSection {
             }
             finalTolerance = r.number(KEY + ".final-tolerance", 0, false, Double.MAX_VALUE, true);
         }
+        ToleranceRule rule = ToleranceRule.valueOf(r.choice(KEY + ".tolerance-rule", List.of("ess", "share"))
+                .toUpperCase(java.util.Locale.ROOT));
         double factor = r.number(KEY + ".ess-factor", 0, false, 1, false);
+        double share = r.number(KEY + ".share-factor", 0, false, 1, false);
         int simulations = r.integer(KEY + ".simulations-per-particle", 1, 10_000);
         AbcKernel kernel = AbcKernel.valueOf(r.choice(KEY + ".kernel", List.of("uniform", "gaussian"))
                 .toUpperCase(java.util.Locale.ROOT));
@@ -68,7 +72,7 @@ final class AbcSection {
             observed = observedFile(r, path);
         }
         try {
-            return new AbcSettings(finalTolerance, schedule, factor, simulations, kernel, weights, fixedSteps, stay,
+            return new AbcSettings(finalTolerance, schedule, rule, factor, share, simulations, kernel, weights, fixedSteps, stay,
                     maxSteps, floor, budget, observed);
         } catch (IllegalArgumentException e) {
             throw r.error(schedule.length > 0 ? KEY + ".schedule" : KEY, e.getMessage());

@@ -146,8 +146,8 @@ class OutputsDocumentedTest {
     @DisplayName("batch-summary.csv and .json: every column and key snake_case and in the README")
     void batchColumns() throws IOException {
         BatchSummary.write(folder, "base", List.of(new BatchSummary.Row("lake-1", "base", "succeeded", -3.5, 0.1,
-                Double.NaN, Double.NaN, 4, 1000, Map.of("theta", new double[] {1, 0.5, 1.5}), 7, "lake-1/base", 2.5,
-                null)));
+                Double.NaN, Double.NaN, 4, 1000, 0.05, 2000, Map.of("theta", new double[] {1, 0.5, 1.5}), 7,
+                "lake-1/base", 2.5, null)));
         List<String> header;
         try (Reader in = Files.newBufferedReader(folder.resolve(BatchSummary.CSV_NAME));
                 CSVParser parser = CSVParser.parse(in, CSVFormat.RFC4180.builder().setHeader().get())) {

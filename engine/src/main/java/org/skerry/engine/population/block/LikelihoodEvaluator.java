@@ -144,6 +144,17 @@ public final class LikelihoodEvaluator implements LikelihoodContext, BatchContex
             } finally {
                 batchIndices = null;
             }
+        } else if (term != null && !term.wholeLikelihood() && count > 0) {
+            try {
+                this.iteration = iteration;
+                this.step = step;
+                this.batchIndices = indices;
+                batched = term.logLikelihoods(model, parameters, count, this, out);
+            } catch (RuntimeException e) {
+                batched = false;
+            } finally {
+                batchIndices = null;
+            }
         }
         for (int i = 0; i < count; i++) {
             if (batched && !Double.isNaN(out[i]) && out[i] != Double.POSITIVE_INFINITY) {
