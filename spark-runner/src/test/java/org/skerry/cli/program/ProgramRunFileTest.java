@@ -93,6 +93,7 @@ class ProgramRunFileTest {
     }
 
     @org.junit.jupiter.api.Test
+    @org.skerry.engine.Slow
     @DisplayName("a relative model.program.scratch is read from the run file's folder, not the current folder: the "
             + "failed evaluations' folders are kept there, and run.conf names it by absolute path")
     void relativeScratchFromTheRunFilesFolder() throws IOException {
