@@ -114,4 +114,17 @@ class ProgramValidateTest {
         assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
         assertTrue(result.out().contains("program:    not started here"), result.out());
     }
+
+    @Test
+    @DisplayName("skerry run with a program that cannot start: exit 2 before iteration 0, its standard error shown, "
+            + "no run folder written")
+    void runRefusesTooBeforeIterationZero() throws IOException {
+        Path out = folder.resolve("out");
+        CommandRunner.Result result = CommandRunner.run("run", runFile(script("faulty.py", "import-error")).toString(),
+                "--out", out.toString());
+        assertEquals(ExitCodes.BAD_INPUT, result.exitCode(), result.err());
+        assertTrue(result.err().contains("a_module_that_is_not_installed"), result.err());
+        assertFalse(result.err().contains("\tat org.skerry"), "no stack trace: " + result.err());
+        assertFalse(Files.exists(out), "nothing written");
+    }
 }
