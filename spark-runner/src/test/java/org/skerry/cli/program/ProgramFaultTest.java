@@ -104,7 +104,8 @@ class ProgramFaultTest {
     }
 
     @Test
-    @DisplayName("SIGTERM after checkpoint 1: exit 75, no worker left → resume → the undisturbed run's bytes")
+    @DisplayName("SIGTERM after checkpoint 1: exit 75, no worker left → resume with the program's file changed: "
+            + "refused, naming model.program.files → resume with it restored → the undisturbed run's bytes")
     void terminatedThenResumed() throws Exception {
         Path pids = Files.createDirectories(dir.resolve("pids-terminated"));
         Path out = dir.resolve("terminated");
@@ -117,6 +118,15 @@ class ProgramFaultTest {
             assertFalse(alive(pid), "worker " + pid + " outlived the stopped run");
         }
         assertFalse(Files.exists(out.resolve("summary.json")), "the stop landed before the run ended");
+        // The program's files join the settings a resume compares, by content, as data.file does.
+        Path data = dir.resolve("data.csv");
+        byte[] original = Files.readAllBytes(data);
+        Files.writeString(data, Files.readString(data) + "1.25\n");
+        CommandRunner.Result refused = CommandRunner.run("resume", out.toString(), "--set", "output.progress=off");
+        Files.write(data, original);
+        assertEquals(ExitCodes.BAD_INPUT, refused.exitCode(), refused.err());
+        assertTrue(refused.err().contains("model.program.files was sha256:"), refused.err());
+        assertFalse(Files.exists(out.resolve("summary.json")), "nothing written by the refused resume");
         CommandRunner.Result resumed = CommandRunner.run("resume", out.toString(), "--set", "output.progress=off");
         assertEquals(ExitCodes.SUCCESS, resumed.exitCode(), resumed.err());
         for (String name : new String[] {"summary.json", "particles.csv"}) {
