@@ -22,7 +22,8 @@ import picocli.CommandLine.Model.CommandSpec;
  * started and its handshake completed, as a run would before iteration 0.
  */
 @Command(name = "validate", mixinStandardHelpOptions = true, versionProvider = Version.class,
-        description = "Check a run file, its data and its model settings without running anything.")
+        description = "Check a run file, its data and its model settings without running the analysis; a "
+                + "program model's program is started once, to check that it answers.")
 final class ValidateCommand implements Callable<Integer> {
 
     @Spec
