@@ -1,12 +1,13 @@
 """Test worker: the log-likelihood of normal observations with known sd (the normal-mean model).
 
-Usage: normal_mean.py SIGMA [--batched] [--jitter] [--sleep SECONDS] [--pids FOLDER]. The data file (start.files[0]) is a CSV with a
+Usage: normal_mean.py SIGMA [--batched] [--jitter] [--sleep SECONDS] [--pids FOLDER] [--fail-batches]. The data file (start.files[0]) is a CSV with a
 header line 'y' and '#' comments. --jitter adds a term in [0, 1e-3) taken from the particle's seed,
 as a stochastic simulator's answer depends on its seed, so that tests of identical answers also
 check the seeds. The one-at-a-time and the batched (numpy) forms do the same floating-point
 operations in the same order, so they give the same bits. --sleep makes each request take that
 long (runs long enough to interrupt); --pids (or the variable SKERRY_TEST_PIDS) names a folder
-where the worker writes its process id at start.
+where the worker writes its process id at start. --fail-batches (with --batched) fails every request
+of more than one particle, so that each particle is answered only when asked alone.
 """
 import math
 import os
@@ -19,6 +20,7 @@ import skerry_worker  # noqa: E402
 SIGMA = float(sys.argv[1])
 BATCHED = "--batched" in sys.argv
 JITTER = "--jitter" in sys.argv
+FAIL_BATCHES = "--fail-batches" in sys.argv
 CONSTANT = -0.5 * math.log(2 * math.pi * SIGMA * SIGMA)
 SLEEP = float(sys.argv[sys.argv.index("--sleep") + 1]) if "--sleep" in sys.argv else 0.0
 PIDS = sys.argv[sys.argv.index("--pids") + 1] if "--pids" in sys.argv else os.environ.get("SKERRY_TEST_PIDS")
@@ -58,6 +60,8 @@ def setup(start):
     import numpy
 
     def log_likelihoods(values, seeds):
+        if FAIL_BATCHES and len(seeds) > 1:
+            raise RuntimeError("this test worker fails every request of more than one particle")
         if SLEEP:
             time.sleep(SLEEP)
         mu = values[:, 0]

@@ -25,7 +25,9 @@ import java.util.concurrent.Future;
  * to start. Every child is also registered and its whole process tree killed by a shutdown hook
  * on an orderly exit (SIGTERM, Ctrl-C, the end of the run), and a worker is expected to exit when
  * its standard input closes, which the kernel does when the JVM dies: three layers, since a
- * machine without {@code setpriv} has only the last two.
+ * machine without {@code setpriv} has only the last two. The parent-death signal reaches the
+ * program only, not the children a wrapper script starts; so each program also leads a process
+ * group of its own, which {@link GroupReaper} kills when the program ends or the JVM dies.
  */
 public final class ProcessLauncher {
 
@@ -64,6 +66,7 @@ public final class ProcessLauncher {
         if (DEATH_SIGNAL_HELPER != null) {
             command.addAll(List.of(DEATH_SIGNAL_HELPER, "--pdeathsig", "KILL", "--"));
         }
+        command.addAll(GroupReaper.prefix());
         command.addAll(argv);
         ProcessBuilder builder = new ProcessBuilder(command).directory(folder.toFile());
         builder.environment().clear();
@@ -85,10 +88,13 @@ public final class ProcessLauncher {
 
     static void register(ChildProcess child) {
         LIVE.add(child);
+        GroupReaper.started(child.pid());
     }
 
     static void unregister(ChildProcess child) {
-        LIVE.remove(child);
+        if (LIVE.remove(child)) {
+            GroupReaper.ended(child.pid());
+        }
     }
 
     /**

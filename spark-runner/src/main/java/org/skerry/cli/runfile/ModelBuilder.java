@@ -80,14 +80,18 @@ public final class ModelBuilder {
      * happens there instead, once the backend is up.
      */
     public static void checkStarts(RunSpec spec, Built built) {
-        boolean onCluster = spec.backend().kind().equals("spark") && !SparkMasters.isInProcess(spec.backend().master());
-        if (built.model() instanceof ProgramModel && !onCluster) {
+        if (built.model() instanceof ProgramModel && startsHere(spec)) {
             try {
                 ((ProgramModel) built.model()).probe();
             } catch (ProgramStartException e) {
                 throw new RunFileException(e.getMessage(), e);
             }
         }
+    }
+
+    /** Whether the run's model programs run in this JVM (threads, Spark local mode), not on a cluster's executors. */
+    public static boolean startsHere(RunSpec spec) {
+        return !spec.backend().kind().equals("spark") || SparkMasters.isInProcess(spec.backend().master());
     }
 
     /**

@@ -100,9 +100,9 @@ public record ModelSpec(String name, String className, Config settings, Path dat
 
     /**
      * Reads {@code model.program}: checks every setting (located errors), then makes its paths
-     * absolute — each file in {@code files}, and each command element that starts with {@code ./}
-     * or {@code ../} — from the folder of the file that writes them, since the program runs in a
-     * scratch folder of its own. A program reads its own files, so {@code data} must stay unset.
+     * absolute — each file in {@code files}, the {@code scratch} folder, and each command element
+     * that starts with {@code ./} or {@code ../} — from the folder of the file that writes them,
+     * since the program runs in a scratch folder of its own. A program reads its own files, so {@code data} must stay unset.
      */
     private static ModelSpec readProgram(SettingsReader r, RunFile file, String modelName, String modelClass) {
         Config c = r.config();
@@ -142,6 +142,13 @@ public record ModelSpec(String name, String className, Config settings, Path dat
             }
         }
         resolved = resolved.withValue("command", ConfigValueFactory.fromIterable(command));
+        if (raw.hasPath("scratch")) {
+            // As every other path of the run file: from the folder of the file that writes it, not
+            // from wherever skerry happens to be started (a resume from elsewhere must find it too).
+            Path scratch = folderOf(raw.getValue("scratch"), file).resolve(raw.getString("scratch")).normalize();
+            resolved = resolved.withValue("scratch", ConfigValueFactory.fromAnyRef(scratch.toString(),
+                    RunFile.describe(raw.getValue("scratch").origin())));
+        }
         if (raw.hasPath("files")) {
             List<String> files = new ArrayList<>();
             for (String written : raw.getStringList("files")) {

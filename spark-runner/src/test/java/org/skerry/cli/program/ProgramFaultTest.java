@@ -22,10 +22,11 @@ import org.skerry.cli.ProgramProcess;
 import org.skerry.engine.Slow;
 
 /**
- * skerry killed or stopped while its workers run: SIGKILL leaves no worker behind, and a SIGTERM
- * stop resumed gives the bytes of an undisturbed run. Faults are triggered by an observable event
- * (a checkpoint's manifest appearing), never by a timer; the worker sleeps 1 ms a request so that
- * a run lasts long enough to be interrupted.
+ * skerry killed or stopped while its workers run: SIGKILL leaves no worker and no file-mode program
+ * (nor a child a program started) behind, and a SIGTERM stop resumed gives the bytes of an
+ * undisturbed run. Faults are triggered by an observable event (a checkpoint's manifest appearing,
+ * the programs' process ids written), never by a timer; the worker sleeps 1 ms a request so that a
+ * run lasts long enough to be interrupted.
  */
 @Slow
 class ProgramFaultTest {
@@ -70,8 +71,17 @@ class ProgramFaultTest {
         return pids;
     }
 
-    private static boolean alive(long pid) {
-        return ProcessHandle.of(pid).map(ProcessHandle::isAlive).orElse(false);
+    /**
+     * Whether {@code pid} still runs: a zombie has exited (only its new parent has not collected it
+     * yet, which in a container's init can take a while), so it counts as gone.
+     */
+    static boolean alive(long pid) {
+        try {
+            String stat = Files.readString(Path.of("/proc", Long.toString(pid), "stat"));
+            return !stat.substring(stat.lastIndexOf(')') + 2).startsWith("Z");
+        } catch (IOException e) {
+            return ProcessHandle.of(pid).map(ProcessHandle::isAlive).orElse(false);
+        }
     }
 
     @Test
@@ -94,7 +104,8 @@ class ProgramFaultTest {
     }
 
     @Test
-    @DisplayName("SIGTERM after checkpoint 1: exit 75, no worker left → resume → the undisturbed run's bytes")
+    @DisplayName("SIGTERM after checkpoint 1: exit 75, no worker left → resume with the program's file changed: "
+            + "refused, naming model.program.files → resume with it restored → the undisturbed run's bytes")
     void terminatedThenResumed() throws Exception {
         Path pids = Files.createDirectories(dir.resolve("pids-terminated"));
         Path out = dir.resolve("terminated");
@@ -107,11 +118,70 @@ class ProgramFaultTest {
             assertFalse(alive(pid), "worker " + pid + " outlived the stopped run");
         }
         assertFalse(Files.exists(out.resolve("summary.json")), "the stop landed before the run ended");
+        // The program's files join the settings a resume compares, by content, as data.file does.
+        Path data = dir.resolve("data.csv");
+        byte[] original = Files.readAllBytes(data);
+        Files.writeString(data, Files.readString(data) + "1.25\n");
+        CommandRunner.Result refused = CommandRunner.run("resume", out.toString(), "--set", "output.progress=off");
+        Files.write(data, original);
+        assertEquals(ExitCodes.BAD_INPUT, refused.exitCode(), refused.err());
+        assertTrue(refused.err().contains("model.program.files was sha256:"), refused.err());
+        assertFalse(Files.exists(out.resolve("summary.json")), "nothing written by the refused resume");
         CommandRunner.Result resumed = CommandRunner.run("resume", out.toString(), "--set", "output.progress=off");
         assertEquals(ExitCodes.SUCCESS, resumed.exitCode(), resumed.err());
         for (String name : new String[] {"summary.json", "particles.csv"}) {
             assertArrayEquals(Files.readAllBytes(undisturbed.resolve(name)), Files.readAllBytes(out.resolve(name)), name);
         }
         assertEquals(List.of(), ProgramRunFiles.workers(), "no worker outlives the resumed run");
+    }
+
+    @Test
+    @DisplayName("skerry killed with SIGKILL during file-mode evaluations: every program it started, and the "
+            + "child each program started (a wrapper script's), is gone within 10 s")
+    void sigkillLeavesNoFileModeProgram() throws Exception {
+        Path pids = Files.createDirectories(dir.resolve("pids-file-mode"));
+        Path folder = Files.createDirectories(dir.resolve("file-mode"));
+        Files.writeString(folder.resolve("input.tmpl"), "mu = {{mu}}\n");
+        Path script = org.skerry.engine.program.PythonWorkers.SCRIPTS.resolve("file_faulty.sh");
+        Path run = Files.writeString(folder.resolve("run.conf"), "name = file-mode-killed\nmodel.program {\n"
+                + "  mode = file\n  command = [\"sh\", " + ProgramRunFiles.quote(script.toString()) + ", \"hang-many\"]\n"
+                + "  input-template = \"input.tmpl\"\n  timeout = 10m\n"
+                + "  environment { PIDS_DIR = " + ProgramRunFiles.quote(pids.toString()) + " }\n"
+                + "  parameters = [ { name = mu, prior { distribution = normal, mean = 0, sd = 1 } } ]\n}\n"
+                + "sampler.particles = 20\nbackend { kind = threads, threads = 2 }\noutput.progress = off\n"
+                + "checkpoint.enabled = false\n");
+        Path log = dir.resolve("file-mode-killed.log");
+        Process process = ProgramProcess.start(log, "run", run.toString(), "--out", folder.resolve("out").toString());
+        List<Long> programs = new ArrayList<>();
+        long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
+        while (programs.size() < 4) {
+            assertTrue(process.isAlive(), "the run ended before its programs started: " + Files.readString(log));
+            assertTrue(System.nanoTime() < deadline, "two file-mode programs did not start within 120 s");
+            Thread.sleep(20);
+            programs.clear();
+            try (Stream<Path> files = Files.list(pids)) {
+                for (Path file : files.filter(f -> f.toString().endsWith(".txt")).toList()) {
+                    for (String pid : Files.readString(file).strip().split(" ")) {
+                        programs.add(Long.parseLong(pid));
+                    }
+                }
+            }
+        }
+        assertTrue(programs.stream().allMatch(ProgramFaultTest::alive),
+                "programs and their children running when skerry is killed: " + programs);
+        process.destroyForcibly();
+        assertTrue(process.waitFor(30, TimeUnit.SECONDS));
+        deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(10);
+        try {
+            for (long pid : programs) {
+                while (alive(pid)) {
+                    assertTrue(System.nanoTime() < deadline, "process " + pid + " (a file-mode program or its child) "
+                            + "outlived skerry by 10 s");
+                    Thread.sleep(20);
+                }
+            }
+        } finally {
+            programs.forEach(pid -> ProcessHandle.of(pid).ifPresent(ProcessHandle::destroyForcibly));
+        }
     }
 }

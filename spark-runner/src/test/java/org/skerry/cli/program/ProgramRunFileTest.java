@@ -2,6 +2,7 @@ package org.skerry.cli.program;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
 import java.nio.file.Files;
@@ -89,5 +90,36 @@ class ProgramRunFileTest {
                 + "model.py: program 'an-interpreter-that-is-not-installed' is not on the PATH");
         assertFalse(Files.exists(out), "nothing written");
         assertEquals(0, org.skerry.engine.process.ProcessLauncher.liveCount());
+    }
+
+    @org.junit.jupiter.api.Test
+    @org.skerry.engine.Slow
+    @DisplayName("a relative model.program.scratch is read from the run file's folder, not the current folder: the "
+            + "failed evaluations' folders are kept there, and run.conf names it by absolute path")
+    void relativeScratchFromTheRunFilesFolder() throws IOException {
+        Path runs = Files.createDirectories(folder.resolve("runs"));
+        Files.writeString(runs.resolve("input.tmpl"), "mu = {{mu}}\n");
+        Path script = org.skerry.engine.program.PythonWorkers.SCRIPTS.resolve("file_faulty.sh");
+        Path run = Files.writeString(runs.resolve("run.conf"), "name = scratch\nmodel.program {\n  mode = file\n"
+                + "  command = [\"sh\", " + ProgramRunFiles.quote(script.toString()) + ", \"exit\"]\n"
+                + "  input-template = \"input.tmpl\"\n  scratch = \"scratch-here\"\n  keep-failed = 2\n  "
+                + GOOD_PARAMETERS + "\n}\nsampler.particles = 20\nbackend.kind = threads\noutput.progress = off\n"
+                + "checkpoint.enabled = false\noutput.report = false\n");
+        Path out = folder.resolve("out");
+        Path besideUs = Path.of("scratch-here").toAbsolutePath();
+        assertFalse(Files.exists(besideUs), "no scratch-here in the current folder before the run");
+        CommandRunner.Result result = CommandRunner.run("run", run.toString(), "--out", out.toString());
+        assertFalse(Files.exists(besideUs), "nothing made in the current folder " + besideUs.getParent());
+        Path scratch = runs.resolve("scratch-here");
+        assertTrue(Files.isDirectory(scratch), "scratch folder beside the run file; " + result.err());
+        long kept;
+        try (java.util.stream.Stream<Path> files = Files.walk(scratch)) {
+            kept = files.filter(p -> p.getFileName().toString().equals("input.txt")).count();
+        }
+        assertEquals(2, kept, "keep-failed = 2 failed evaluations' folders kept in " + scratch);
+        if (Files.exists(out.resolve("run.conf"))) {
+            assertTrue(Files.readString(out.resolve("run.conf")).contains(scratch.toString()),
+                    "run.conf names the scratch folder by absolute path");
+        }
     }
 }
