@@ -10,10 +10,12 @@ import java.io.StringWriter;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.Map;
 import java.util.stream.Stream;
 import org.junit.jupiter.api.DisplayName;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.skerry.cli.output.JsonTree;
 import org.skerry.engine.Slow;
 
 /**
@@ -61,8 +63,21 @@ class FinalPopulationHeapTest {
             rows = reader.lines().count() - 1;
         }
         assertEquals(PARTICLES, rows, "rows of particles.csv");
+        // Export and output interleave: the particle file is written inside the wall time while
+        // the population streams, and that writing counts as output, not export.
+        Map<String, Object> timing = JsonTree.read(out.resolve("timing.json"));
+        @SuppressWarnings("unchecked")
+        Map<String, Object> stages = (Map<String, Object>) timing.get("stage_seconds");
+        double streamed = seconds(timing.get("wall_seconds")) - seconds(stages.get("startup"))
+                - seconds(stages.get("sampling")) - seconds(stages.get("export"));
+        assertTrue(streamed > 0 && streamed <= seconds(stages.get("output")) + 1e-9,
+                "the streamed writing (" + streamed + " s) lies within the wall time and within output: " + stages);
         try (Stream<Path> files = Files.list(out)) {
             assertEquals(0, files.filter(p -> p.getFileName().toString().endsWith(".tmp")).count(), "temporaries left");
         }
+    }
+
+    private static double seconds(Object value) {
+        return ((Number) value).doubleValue();
     }
 }

@@ -379,6 +379,8 @@ public final class Population implements AutoCloseable {
     /**
      * Parameter {@code k} of every particle, in canonical order: one query returning one double a
      * particle, so that summaries need one column in the driver at a time, never the whole population.
+     * One job's results hold 8 bytes a particle, half of what each iteration's tempering inputs
+     * already gather in one job, so this adds no limit on N that the iterations do not have.
      */
     public double[] column(int k) {
         if (k < 0 || k >= dimension) {
