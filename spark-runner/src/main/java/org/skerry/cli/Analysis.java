@@ -353,16 +353,11 @@ public final class Analysis {
                 ? new FileCheckpointer(checkpoints, spec.checkpoints().everyIterations(), spec.checkpoints().everyMinutes(),
                         answer, state -> RunOutputs.writeIterations(runFolder, state.records()))
                 : Checkpointer.NONE;
-        ParticleOutputs opened;
-        try {
-            opened = ParticleOutputs.open(runFolder, built.model().parameters().names(), built.model().dimension());
-        } catch (java.io.UncheckedIOException e) {
-            throw outputFailed(e, checkpoints, runFolder);
-        }
         SamplerResult result;
         double wall;
         // The particle files stream while the run exports; closing abandons any not finished.
-        try (ParticleOutputs particles = opened) {
+        try (ParticleOutputs particles = ParticleOutputs.open(runFolder, built.model().parameters().names(),
+                built.model().dimension())) {
             SmcSampler sampler = new SmcSampler(spec.sampler()).streamingTo(particles);
             double startup = (System.nanoTime() - job.startNanos()) * 1e-9;
             try {

@@ -14,35 +14,45 @@ import org.skerry.engine.population.ParticleSink;
  * A run's files of the final population, open while it streams from the blocks: each run of
  * rows goes to every writer as it arrives, and the time spent in the writers is kept apart, so
  * that timing.json can split the interleaved export (fetching, summaries) from the output
- * writing. The files get their names only at {@link #finish}; {@link #close} before that leaves
- * nothing behind.
+ * writing. The files are opened at the first rows and get their names only at {@link #finish};
+ * {@link #close} before that leaves nothing behind.
  */
 final class ParticleOutputs implements ParticleSink, AutoCloseable {
 
     private final Path folder;
-    private final List<ParticleWriter> writers;
+    private final List<String> parameterNames;
+    private final int dimension;
+    private final List<ParticleWriter> writers = new ArrayList<>();
+    private boolean opened;
     private long writingNanos;
 
-    private ParticleOutputs(Path folder, List<ParticleWriter> writers) {
+    private ParticleOutputs(Path folder, List<String> parameterNames, int dimension) {
         this.folder = folder;
-        this.writers = writers;
+        this.parameterNames = List.copyOf(parameterNames);
+        this.dimension = dimension;
     }
 
-    /** Opens the run's particle files in {@code folder}. */
+    /**
+     * The run's particle files in {@code folder}, opened when the first rows arrive: a run that
+     * is killed while it samples leaves no temporary file behind, as before the export streamed.
+     */
     static ParticleOutputs open(Path folder, List<String> parameterNames, int dimension) {
-        List<ParticleWriter> writers = new ArrayList<>();
-        try {
-            writers.add(ParticlesCsv.open(folder, parameterNames, dimension));
-        } catch (IOException e) {
-            throw new UncheckedIOException("cannot write the results into " + folder, e);
-        }
-        return new ParticleOutputs(folder, writers);
+        ParticlesCsv.checkParameterNames(parameterNames);
+        return new ParticleOutputs(folder, parameterNames, dimension);
+    }
+
+    private void openWriters() throws IOException {
+        opened = true;
+        writers.add(ParticlesCsv.open(folder, parameterNames, dimension));
     }
 
     @Override
     public void accept(ParticleRows rows) {
         long start = System.nanoTime();
         try {
+            if (!opened) {
+                openWriters();
+            }
             for (ParticleWriter writer : writers) {
                 writer.append(rows);
             }
@@ -62,6 +72,9 @@ final class ParticleOutputs implements ParticleSink, AutoCloseable {
     void finish() throws IOException {
         long start = System.nanoTime();
         try {
+            if (!opened) {
+                openWriters();
+            }
             for (ParticleWriter writer : writers) {
                 writer.finish();
             }
