@@ -11,7 +11,8 @@
 #     between the two sizes over the difference in N, which cancels what does not grow with N
 #     (the JVM, Spark's own structures). Spark local mode runs driver and executor in one JVM, so
 #     its figure holds the executor's cached blocks and the driver alike.
-# Usage: benchmarks/large-population.sh [N] [HEAP_N] [ROUNDS]   (SKERRY_HEAP, default 24g: -Xmx)
+# Usage: benchmarks/large-population.sh [N] [HEAP_N] [ROUNDS]   (SKERRY_HEAP, default 24g: -Xmx;
+# N = 0 skips part 1, HEAP_N = 0 part 2)
 # Prints one line a run and the ratios; keeps nothing (a temporary folder, removed at the end).
 set -euo pipefail
 n="${1:-10000000}"
@@ -55,11 +56,12 @@ print(f"{label} N={n} wall {wall:.2f} s startup {s['startup']:.2f} sampling {s['
 PY
 }
 
-for round in $(seq 1 "$rounds"); do
+[ "$n" -gt 0 ] && for round in $(seq 1 "$rounds"); do
   if [ $((round % 2)) -eq 1 ]; then order="threads spark"; else order="spark threads"; fi
   for backend in $order; do one "$backend-$round" "$backend" "$n"; done
 done | tee "$out/large"
 
+[ "$heap_n" -gt 0 ] || exit 0
 small=$((heap_n / 10))
 for backend in threads spark; do
   one "heap-$backend-large" "$backend" "$heap_n"
