@@ -26,7 +26,8 @@ import scala.Tuple2;
  * A population's blocks held by Spark: a cached RDD with one {@link ParticleBlock} per partition.
  * Each step is one job that maps the cached states to new ones and collects their typed results;
  * the states it replaces are dropped once that job has computed the new ones. An exchange of
- * particles between partitions is only defined, and computed (with its shuffle) by the next job.
+ * particles between partitions is only defined, and computed (with its shuffle) by the next job;
+ * its result is not cached, since that job's own result is.
  * The model source reaches each executor once, as a broadcast.
  */
 final class SparkBlocks implements BlockExecutor {
@@ -78,8 +79,11 @@ final class SparkBlocks implements BlockExecutor {
     @Override
     public <R> List<R> update(BlockStep<R> step) {
         Broadcast<ModelShipment> model = source;
+        // Blocks of uncached states (an exchange's joins) are fresh objects no cache holds: the
+        // step may change them in place instead of copying.
+        boolean owned = !cached(states);
         return commit(states.mapPartitionsWithIndex((p, it) ->
-                List.<PartitionState<?>>of(applyTo(p, it.next().block, false, step, model)).iterator(), true));
+                List.<PartitionState<?>>of(applyTo(p, it.next().block, owned, step, model)).iterator(), true));
     }
 
     @Override
@@ -118,14 +122,32 @@ final class SparkBlocks implements BlockExecutor {
      * computes it, and the states it replaces are dropped then.
      */
     private void define(JavaRDD<PartitionState<?>> next) {
-        next.persist(StorageLevel.MEMORY_ONLY());
+        define(next, true);
+    }
+
+    /** As {@link #define(JavaRDD)}, {@code next} cached only when {@code cache}. */
+    private void define(JavaRDD<PartitionState<?>> next, boolean cache) {
+        if (cache) {
+            next.persist(StorageLevel.MEMORY_ONLY());
+        }
         if (states != null) {
             replaced.add(states);
         }
         states = next;
     }
 
+    private static boolean cached(JavaRDD<?> rdd) {
+        return rdd.getStorageLevel().useMemory();
+    }
+
+    /**
+     * Drops the states the current ones replaced, once the current ones are cached: uncached
+     * states (an exchange not yet followed by a step) are recomputed from those they replaced.
+     */
     private void dropReplaced() {
+        if (states != null && !cached(states)) {
+            return;
+        }
         for (JavaRDD<PartitionState<?>> old : replaced) {
             old.unpersist(false);
         }
@@ -152,6 +174,9 @@ final class SparkBlocks implements BlockExecutor {
         JavaRDD<ParticleBlock> incoming = JavaPairRDD.fromJavaRDD(outgoing).partitionBy(new BlockPartitioner(partitions))
                 .values();
         int d = dimension;
+        // Not cached: the next step (a move) runs on the joined blocks and caches its own result,
+        // so an executor holds two copies of its block during a step, not three. Until then the
+        // states before the exchange stay cached (dropReplaced waits for cached states).
         define(states.zipPartitions(incoming, (Iterator<PartitionState<?>> own, Iterator<ParticleBlock> arriving) -> {
             int p = TaskContext.getPartitionId();
             PartitionState<?> state = own.next();
@@ -170,7 +195,7 @@ final class SparkBlocks implements BlockExecutor {
             arriving.forEachRemaining(pieces::add);
             return List.<PartitionState<?>>of(new PartitionState<>(BlockSlices.join(d, pieces), state.report))
                     .iterator();
-        }));
+        }), false);
     }
 
     @Override
@@ -287,7 +312,10 @@ final class SparkBlocks implements BlockExecutor {
 
     @Override
     public void close() {
-        dropReplaced();
+        for (JavaRDD<PartitionState<?>> old : replaced) {
+            old.unpersist(false);
+        }
+        replaced.clear();
         if (states != null) {
             states.unpersist(false);
             states = null;

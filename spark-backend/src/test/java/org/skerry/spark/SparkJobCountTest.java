@@ -21,7 +21,10 @@ import org.junit.jupiter.api.io.TempDir;
 import org.skerry.engine.Slow;
 import org.skerry.engine.abc.AbcSettings;
 import org.skerry.engine.model.ModelSource;
+import org.skerry.engine.population.BlockExecutor;
 import org.skerry.engine.population.Population;
+import org.skerry.engine.resample.BlockLayout;
+import org.skerry.engine.resample.Redistribution;
 import org.skerry.engine.reference.SyntheticData;
 import org.skerry.engine.resample.ResamplingScheme;
 import org.skerry.engine.sampler.Checkpointer;
@@ -140,6 +143,25 @@ class SparkJobCountTest {
         jobs += checkpoints ? 1 : 0;
         boolean inputsDelivered = k == 1 || fixedSteps || records.get(k - 1).mhSteps() > 1;
         return jobs + (inputsDelivered ? 0 : 1);
+    }
+
+    @Test
+    @DisplayName("an exchange's result is not cached: one cached copy of the population when the next step starts")
+    void exchangeNotCached() {
+        long[] first = {0, 20, 25};
+        int[] sizes = {20, 5, 5};
+        int before = context.getPersistentRDDs().size();
+        try (BlockExecutor blocks = SparkBackend.on(context, 3).open(SOURCE, 30, 3)) {
+            blocks.create(first, sizes, cursor -> null);
+            assertEquals(before + 1, context.getPersistentRDDs().size(), "cached after the draw");
+            blocks.exchange(Redistribution.plan(BlockLayout.of(first, sizes)));
+            // Before this change the exchange's result was cached too: two copies, three during the step.
+            assertEquals(before + 1, context.getPersistentRDDs().size(), "cached after the exchange");
+            List<Long> firstAfter = blocks.update(cursor -> cursor.block().index()[0]);
+            assertEquals(List.of(0L, 10L, 20L), firstAfter, "the step ran on the exchanged blocks");
+            assertEquals(before + 1, context.getPersistentRDDs().size(), "cached after the step");
+        }
+        assertEquals(before, context.getPersistentRDDs().size(), "nothing cached once closed");
     }
 
     @Test

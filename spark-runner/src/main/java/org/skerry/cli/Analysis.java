@@ -356,52 +356,58 @@ public final class Analysis {
                 ? new FileCheckpointer(checkpoints, spec.checkpoints().everyIterations(), spec.checkpoints().everyMinutes(),
                         answer, state -> RunOutputs.writeIterations(runFolder, state.records()))
                 : Checkpointer.NONE;
-        SmcSampler sampler = new SmcSampler(spec.sampler());
-        double startup = (System.nanoTime() - job.startNanos()) * 1e-9;
         SamplerResult result;
-        try {
-            if (job.start() == Start.FROM_CHECKPOINT) {
-                CheckpointResumption from = new CheckpointResumption(checkpoints, answer);
-                result = sampler.resume(built.source(), backend, listener, checkpointer, stop, population -> {
-                    SamplerState restored = from.restore(population);
-                    for (String skipped : from.skipped()) {
-                        say(notices, "skipped checkpoint " + skipped);
-                    }
-                    say(notices, "resuming " + runFolder + " after iteration " + restored.iteration()
-                            + " (temperature " + restored.temperature() + ")");
-                    removeUnfinished(checkpoints, restored.iteration(), notices);
-                    return restored;
-                });
-            } else {
-                result = sampler.run(built.source(), backend, listener, checkpointer, stop);
+        double wall;
+        // The particle files stream while the run exports; closing abandons any not finished.
+        try (ParticleOutputs particles = ParticleOutputs.open(runFolder, built.model().parameters().names(),
+                built.model().dimension())) {
+            SmcSampler sampler = new SmcSampler(spec.sampler()).streamingTo(particles);
+            double startup = (System.nanoTime() - job.startNanos()) * 1e-9;
+            try {
+                if (job.start() == Start.FROM_CHECKPOINT) {
+                    CheckpointResumption from = new CheckpointResumption(checkpoints, answer);
+                    result = sampler.resume(built.source(), backend, listener, checkpointer, stop, population -> {
+                        SamplerState restored = from.restore(population);
+                        for (String skipped : from.skipped()) {
+                            say(notices, "skipped checkpoint " + skipped);
+                        }
+                        say(notices, "resuming " + runFolder + " after iteration " + restored.iteration()
+                                + " (temperature " + restored.temperature() + ")");
+                        removeUnfinished(checkpoints, restored.iteration(), notices);
+                        return restored;
+                    });
+                } else {
+                    result = sampler.run(built.source(), backend, listener, checkpointer, stop);
+                }
+            } catch (RunStoppedException e) {
+                throw new RunEnded(ExitCodes.STOPPED_RESUMABLE, e.getMessage() + "; its checkpoint is in "
+                        + checkpoints.files().root() + ". Continue with: skerry resume " + runFolder, e);
+            } catch (CheckpointWriteException e) {
+                throw new RunEnded(ExitCodes.RUN_FAILURE, e.getMessage() + ". Fix the cause, then continue with: "
+                        + "skerry resume " + runFolder, e);
+            } catch (java.io.UncheckedIOException e) {
+                throw outputFailed(e, checkpoints, runFolder);
+            } catch (SettingsChangedException e) {
+                throw new RunFileException(e.getMessage(), e);
+            } catch (NoUsableCheckpointException e) {
+                throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
+            } catch (Exception e) {
+                // Spark's job failures are checked exceptions thrown through Scala: a model class
+                // missing on the executors is bad input (its jar is not in backend.jars).
+                String missing = SparkFailures.missingModelClass(e);
+                if (missing != null) {
+                    throw new RunFileException(missing, e);
+                }
+                throw e;
             }
-        } catch (RunStoppedException e) {
-            throw new RunEnded(ExitCodes.STOPPED_RESUMABLE, e.getMessage() + "; its checkpoint is in "
-                    + checkpoints.files().root() + ". Continue with: skerry resume " + runFolder, e);
-        } catch (CheckpointWriteException e) {
-            throw new RunEnded(ExitCodes.RUN_FAILURE, e.getMessage() + ". Fix the cause, then continue with: "
-                    + "skerry resume " + runFolder, e);
-        } catch (java.io.UncheckedIOException e) {
-            throw outputFailed(e, checkpoints, runFolder);
-        } catch (SettingsChangedException e) {
-            throw new RunFileException(e.getMessage(), e);
-        } catch (NoUsableCheckpointException e) {
-            throw new RunEnded(ExitCodes.RUN_FAILURE, "cannot resume " + runFolder + ": " + e.getMessage(), e);
-        } catch (Exception e) {
-            // Spark's job failures are checked exceptions thrown through Scala: a model class
-            // missing on the executors is bad input (its jar is not in backend.jars).
-            String missing = SparkFailures.missingModelClass(e);
-            if (missing != null) {
-                throw new RunFileException(missing, e);
+            wall = (System.nanoTime() - job.startNanos()) * 1e-9;
+            try {
+                RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.model().label(), spec.sampler().population().seed(),
+                        built.model().parameters().names(), result, wall, startup, job.started(), backend.description()),
+                        particles);
+            } catch (java.io.UncheckedIOException e) {
+                throw outputFailed(e, checkpoints, runFolder);
             }
-            throw e;
-        }
-        double wall = (System.nanoTime() - job.startNanos()) * 1e-9;
-        try {
-            RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.model().label(), spec.sampler().population().seed(),
-                    built.model().parameters().names(), result, wall, startup, job.started(), backend.description()));
-        } catch (java.io.UncheckedIOException e) {
-            throw outputFailed(e, checkpoints, runFolder);
         }
         if (spec.outputs().report()) {
             writeReport(runFolder, notices);

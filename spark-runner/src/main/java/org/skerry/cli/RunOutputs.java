@@ -6,7 +6,6 @@ import java.nio.file.Path;
 import java.time.Instant;
 import java.util.List;
 import org.skerry.cli.output.IterationsCsv;
-import org.skerry.cli.output.ParticlesCsv;
 import org.skerry.cli.output.RunConfFile;
 import org.skerry.cli.output.RunEnvironment;
 import org.skerry.cli.output.SummaryJson;
@@ -15,7 +14,7 @@ import org.skerry.engine.sampler.SamplerResult;
 
 /**
  * Writes a run folder in the order that keeps it honest: the resolved settings before the run;
- * after it the particles, the iteration table, the timing and — last — the summary, whose
+ * after it the particles (streamed during the export, published here), the iteration table, the timing and — last — the summary, whose
  * presence marks a finished run. Each file is written whole or not at all.
  */
 final class RunOutputs {
@@ -45,17 +44,25 @@ final class RunOutputs {
         }
     }
 
-    static void writeResults(Path folder, Run run) {
+    /**
+     * Writes the files that follow a run, {@code particles} (which streamed during the export)
+     * published first. Export and writing interleave: the seconds spent inside the particle
+     * writers while the population streamed count as output, the rest of the sampler's export
+     * time (fetching, weights, summaries, evidence error) as export.
+     */
+    static void writeResults(Path folder, Run run, ParticleOutputs particles) {
         try {
             SamplerResult result = run.result();
+            double streamed = particles.writingSeconds();
             long start = System.nanoTime();
-            ParticlesCsv.write(folder, run.parameterNames(), result.particles(), result.normalisedWeights());
+            particles.finish();
             IterationsCsv.write(folder, result.iterations(), run.parameterNames());
-            double output = (System.nanoTime() - start) * 1e-9;
+            double output = streamed + (System.nanoTime() - start) * 1e-9;
+            double export = Math.max(0.0, result.exportSeconds() - streamed);
             double sampling = run.wallSeconds() - run.startupSeconds() - result.exportSeconds();
             TimingJson.write(folder, RunEnvironment.current(Version.text(), run.backend(), run.startedAt()),
-                    new TimingJson.Stages(run.wallSeconds(), run.startupSeconds(), sampling, result.exportSeconds(),
-                            output), result.iterations());
+                    new TimingJson.Stages(run.wallSeconds(), run.startupSeconds(), sampling, export, output),
+                    result.iterations());
             SummaryJson.write(folder, run.name(), run.model(), run.seed(), result);
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write the results into " + folder, e);

@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.List;
 import org.skerry.engine.abc.AbcBlocks;
 import org.skerry.engine.abc.AbcTarget;
+import org.skerry.engine.math.ExactSum;
 import org.skerry.engine.model.Prior;
 import org.skerry.engine.move.MetropolisHastingsMover;
 import org.skerry.engine.move.Proposal;
@@ -29,12 +30,13 @@ import org.skerry.engine.resample.ResidualSplit;
 import org.skerry.engine.resample.ResidualTotals;
 import org.skerry.engine.resample.WeightQuantiser;
 import org.skerry.engine.target.Target;
+import org.skerry.engine.weight.LogWeights;
 
 /**
  * A population of particles, seen from the driver: each step of an iteration written once, as
  * block steps a {@link BlockExecutor} runs where the blocks live. Every operation returns only
- * scalars per particle or sums per block; parameter vectors stay with the blocks until
- * {@link #export()}. Results do not depend on how particles are grouped into blocks or on the
+ * scalars per particle or sums per block; parameter vectors stay with the blocks until the
+ * final population streams out ({@link #forEachRun}, {@link #column}). Results do not depend on how particles are grouped into blocks or on the
  * order in which blocks finish.
  *
  * <p>A change whose result the driver does not need at once (a reweighting) is held and run as
@@ -296,7 +298,111 @@ public final class Population implements AutoCloseable {
         return new Moves(total, withInputs ? TemperingInputs.of(weights, size) : null);
     }
 
-    /** All particles in canonical order. Used once, at the end of a run. */
+    /**
+     * {@code log Σ exp(logWeight)} over the whole population, the same double as
+     * {@link LogWeights#logSum} over all log-weights in one array: the
+     * maximum and then the exact sum of {@code exp(logWeight − max)} are gathered per block (two
+     * queries of one scalar or one exact sum a block), and exact sums do not depend on grouping.
+     */
+    public double logWeightTotal() {
+        double max = Double.NEGATIVE_INFINITY;
+        for (double[] part : read(cursor -> new double[] {
+                LogWeights.max(cursor.current().logWeight(), cursor.current().size())})) {
+            max = Math.max(max, part[0]);
+        }
+        if (max == Double.NEGATIVE_INFINITY) {
+            return max;
+        }
+        double shift = max;
+        ExactSum sum = new ExactSum();
+        for (long[] part : read(cursor -> {
+            ParticleBlock block = cursor.current();
+            ExactSum own = new ExactSum();
+            for (int i = 0; i < block.size(); i++) {
+                own.add(StrictMath.exp(block.logWeight()[i] - shift));
+            }
+            return own.toCompactArray();
+        })) {
+            sum.add(ExactSum.fromCompactArray(part));
+        }
+        return max + StrictMath.log(sum.doubleValue());
+    }
+
+    /** What {@link #forEachRun} hands on: the run as the blocks hold it, and the same run as rows. */
+    @FunctionalInterface
+    public interface RunVisitor {
+        /** {@code run}'s arrays may be longer than {@code rows.count()}; only that many particles are the run's. */
+        void accept(ParticleBlock run, ParticleRows rows);
+    }
+
+    /**
+     * Streams the population in canonical order as runs of consecutive particles, a bounded number
+     * in the driver's memory at a time (as {@link BlockExecutor#forEachBlock} fetches them), with
+     * weights normalised by {@code logTotal} ({@link #logWeightTotal()}): {@code exp(logWeight −
+     * logTotal)}, as {@link LogWeights#normalise} computes them.
+     *
+     * @throws IllegalStateException if the blocks do not hold particles 0 … N−1 in block order,
+     *     which every step keeps
+     */
+    public void forEachRun(double logTotal, RunVisitor visitor) {
+        if (pending != null) {
+            update(cursor -> null);
+        }
+        int d = dimension;
+        long[] next = {0};
+        blocks.forEachBlock(block -> {
+            int count = block.size();
+            if (count == 0) {
+                return;
+            }
+            long[] index = block.index();
+            for (int i = 0; i < count; i++) {
+                if (index[i] != next[0] + i) {
+                    throw new IllegalStateException("the blocks are not in canonical order: particle "
+                            + (next[0] + i) + " expected, " + index[i] + " found");
+                }
+            }
+            double[] logWeight = block.logWeight();
+            double[] weights = new double[count];
+            for (int i = 0; i < count; i++) {
+                weights[i] = StrictMath.exp(logWeight[i] - logTotal);
+            }
+            visitor.accept(block, new ParticleRows(next[0], count, d, block.values(), weights, block.logLikelihood(),
+                    block.logPrior()));
+            next[0] += count;
+        });
+        if (next[0] != size) {
+            throw new IllegalStateException("the blocks hold " + next[0] + " particles, not " + size);
+        }
+    }
+
+    /**
+     * Parameter {@code k} of every particle, in canonical order: one query returning one double a
+     * particle, so that summaries need one column in the driver at a time, never the whole population.
+     * One job's results hold 8 bytes a particle, half of what each iteration's tempering inputs
+     * already gather in one job, so this adds no limit on N that the iterations do not have.
+     */
+    public double[] column(int k) {
+        if (k < 0 || k >= dimension) {
+            throw new IllegalArgumentException("parameter must be in [0, " + dimension + "), was " + k);
+        }
+        int d = dimension;
+        double[] column = new double[size];
+        for (double[] part : read(cursor -> {
+            ParticleBlock block = cursor.current();
+            double[] own = new double[block.size() + 1];
+            own[0] = block.size() == 0 ? 0 : block.index()[0];
+            for (int i = 0; i < block.size(); i++) {
+                own[i + 1] = block.values()[i * d + k];
+            }
+            return own;
+        })) {
+            System.arraycopy(part, 1, column, (int) part[0], part.length - 1);
+        }
+        return column;
+    }
+
+    /** All particles in canonical order, held whole in the driver: for tests and small populations. */
     public FinalParticles export() {
         if (pending != null) {
             update(cursor -> null);

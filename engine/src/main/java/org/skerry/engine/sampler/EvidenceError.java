@@ -41,8 +41,16 @@ public final class EvidenceError {
      */
     public static EvidenceEstimate estimate(double logEvidence, FinalParticles particles, double[] weights,
             ResamplingScheme scheme, int resamplingSteps, int minimumDistinctEves) {
-        int n = particles.size();
-        long[] eve = particles.eve();
+        return estimate(logEvidence, particles.eve(), particles.size(), weights, scheme, resamplingSteps,
+                minimumDistinctEves);
+    }
+
+    /**
+     * The estimate from the Eve indices and normalised weights of {@code n} particles in canonical
+     * order: all it needs of the final population (16 bytes a particle).
+     */
+    public static EvidenceEstimate estimate(double logEvidence, long[] eve, int n, double[] weights,
+            ResamplingScheme scheme, int resamplingSteps, int minimumDistinctEves) {
         // Sort (Eve, index) pairs packed in one long each: groups in Eve order, members in
         // canonical order, with no object per particle.
         long[] order = new long[n];

@@ -2,14 +2,15 @@ package org.skerry.engine.sampler;
 
 import java.util.ArrayList;
 import java.util.List;
+import java.util.function.IntFunction;
 import org.skerry.engine.math.ExactSum;
 import org.skerry.engine.model.ParameterSpace;
 import org.skerry.engine.population.FinalParticles;
 
 /**
- * Weighted posterior summaries from the final particles, on the driver at the end of a run.
- * Sums are exact and ties in sorting are broken by particle position, so the summaries depend only
- * on the particles, not on any grouping.
+ * Weighted posterior summaries from the final particles, on the driver at the end of a run, one
+ * parameter's column at a time. Sums are exact and ties in sorting are broken by particle
+ * position, so the summaries depend only on the particles, not on any grouping.
  */
 public final class PosteriorSummaries {
 
@@ -21,13 +22,27 @@ public final class PosteriorSummaries {
     public static List<ParameterSummary> summarise(FinalParticles particles, double[] weights, ParameterSpace space) {
         int n = particles.size();
         int d = particles.dimension();
+        return summarise(a -> {
+            double[] column = new double[n];
+            for (int i = 0; i < n; i++) {
+                column[i] = particles.value(i, a);
+            }
+            return column;
+        }, n, d, weights, space);
+    }
+
+    /**
+     * Summaries from {@code columns}, which gives parameter {@code a} of every particle in
+     * canonical order; only one column is held at a time.
+     */
+    public static List<ParameterSummary> summarise(IntFunction<double[]> columns, int n, int d, double[] weights,
+            ParameterSpace space) {
         List<ParameterSummary> summaries = new ArrayList<>(d);
-        double[] column = new double[n];
         for (int a = 0; a < d; a++) {
+            double[] column = columns.apply(a);
             ExactSum weightSum = new ExactSum();
             ExactSum first = new ExactSum();
             for (int i = 0; i < n; i++) {
-                column[i] = particles.value(i, a);
                 if (weights[i] > 0) {
                     weightSum.add(weights[i]);
                     first.add(weights[i] * column[i]);
@@ -51,27 +66,18 @@ public final class PosteriorSummaries {
 
     /**
      * Inverse of the weighted empirical distribution function at each probability: the smallest
-     * value whose cumulative weight (in value order) reaches {@code p·total}.
+     * value whose cumulative weight (in value order, ties by position) reaches {@code p·total}.
+     * Only particles of positive weight count; they are put in order by {@link ValueOrder}.
      */
     public static double[] weightedQuantiles(double[] values, double[] weights, int n, double total,
             double[] probabilities) {
-        Integer[] order = new Integer[n];
-        for (int i = 0; i < n; i++) {
-            order[i] = i;
-        }
-        java.util.Arrays.sort(order, (i, j) -> {
-            int byValue = Double.compare(values[i], values[j]);
-            return byValue != 0 ? byValue : Integer.compare(i, j);
-        });
+        int[] order = ValueOrder.positiveByValue(values, weights, n);
         double[] result = new double[probabilities.length];
         ExactSum cumulative = new ExactSum();
         int next = 0;
         int last = -1;
-        for (int k = 0; k < n && next < probabilities.length; k++) {
+        for (int k = 0; k < order.length && next < probabilities.length; k++) {
             int i = order[k];
-            if (!(weights[i] > 0)) {
-                continue;
-            }
             cumulative.add(weights[i]);
             last = i;
             double reached = cumulative.doubleValue();

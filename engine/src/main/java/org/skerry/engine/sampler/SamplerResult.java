@@ -13,13 +13,15 @@ import org.skerry.engine.population.FinalParticles;
  * @param parameters  posterior summary per parameter, in parameter order
  * @param iterations  one record per iteration, starting with the initial draw
  * @param evaluations tally of every likelihood evaluation of the run
- * @param particles   the final population
+ * @param particles   the final population, or null when it streamed to a sink
+ *                    ({@link SmcSampler#streamingTo})
  * @param normalisedWeights normalised weights of the final particles (summing to 1)
  * @param stepCap     iterations whose adaptive MH step count reached the cap
  * @param endedEarly  why the run ended before the last target of its sequence (ABC: an
  *                    acceptance floor or a simulation budget), or null when it reached it
  * @param exportSeconds wall seconds spent fetching the final population and computing its
- *                    summaries (posterior summaries, the evidence and its error)
+ *                    summaries (posterior summaries, the evidence and its error), including
+ *                    the time a sink took to take the rows it was handed
  */
 public record SamplerResult(EvidenceEstimate evidence, List<ParameterSummary> parameters,
         List<IterationRecord> iterations, EvaluationTally evaluations, FinalParticles particles,

@@ -13,6 +13,7 @@ import org.skerry.engine.move.Proposal;
 import org.skerry.engine.move.ProposalFit;
 import org.skerry.engine.population.EvaluationTally;
 import org.skerry.engine.population.FinalParticles;
+import org.skerry.engine.population.ParticleSink;
 import org.skerry.engine.population.MomentSums;
 import org.skerry.engine.population.MoveTally;
 import org.skerry.engine.population.Population;
@@ -41,12 +42,32 @@ import org.skerry.engine.weight.LogWeights;
 public final class SmcSampler {
 
     private final SamplerSettings settings;
+    /** Where the final population streams, or null to keep it whole in the result. */
+    private final ParticleSink sink;
 
     public SmcSampler(SamplerSettings settings) {
+        this(settings, null);
+    }
+
+    private SmcSampler(SamplerSettings settings, ParticleSink sink) {
         if (settings == null) {
             throw new IllegalArgumentException("settings must not be null");
         }
         this.settings = settings;
+        this.sink = sink;
+    }
+
+    /**
+     * The same sampler, streaming the final population to {@code sink} in canonical order instead
+     * of keeping it: its results' {@link SamplerResult#particles()} is then null, and the driver
+     * never holds more than one run of particles, their weights and Eve indices, and one
+     * parameter's column at a time.
+     */
+    public SmcSampler streamingTo(ParticleSink sink) {
+        if (sink == null) {
+            throw new IllegalArgumentException("sink must not be null");
+        }
+        return new SmcSampler(settings, sink);
     }
 
     public SamplerSettings settings() {
@@ -479,18 +500,40 @@ public final class SmcSampler {
 
         private SamplerResult result() {
             long exportStart = System.nanoTime();
-            FinalParticles particles = population.export();
-            double finalLogTotal = LogWeights.logSum(particles.logWeight(), n);
+            // The population streams past once, in canonical order: to the sink, or into one
+            // FinalParticles when none was given. The driver keeps 16 bytes a particle (weight,
+            // Eve) and later one parameter's column at a time.
+            double finalLogTotal = population.logWeightTotal();
             double[] weights = new double[n];
-            LogWeights.normalise(particles.logWeight(), n, finalLogTotal, weights);
-            List<ParameterSummary> summaries = PosteriorSummaries.summarise(particles, weights, model.parameters());
-            EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, particles, weights,
+            long[] eve = new long[n];
+            int d = model.dimension();
+            FinalParticles whole = sink == null ? new FinalParticles(d, n, new double[n * d], new double[n],
+                    new double[n], new double[n], new long[n], eve) : null;
+            population.forEachRun(finalLogTotal, (run, rows) -> {
+                int at = (int) rows.firstIndex();
+                int count = rows.count();
+                System.arraycopy(rows.weights(), 0, weights, at, count);
+                System.arraycopy(run.eve(), 0, eve, at, count);
+                if (whole == null) {
+                    sink.accept(rows);
+                } else {
+                    System.arraycopy(run.values(), 0, whole.values(), at * d, count * d);
+                    System.arraycopy(run.logWeight(), 0, whole.logWeight(), at, count);
+                    System.arraycopy(run.logPrior(), 0, whole.logPrior(), at, count);
+                    System.arraycopy(run.logLikelihood(), 0, whole.logLikelihood(), at, count);
+                    System.arraycopy(run.index(), 0, whole.index(), at, count);
+                }
+            });
+            List<ParameterSummary> summaries = whole != null
+                    ? PosteriorSummaries.summarise(whole, weights, model.parameters())
+                    : PosteriorSummaries.summarise(population::column, n, d, weights, model.parameters());
+            EvidenceEstimate evidence = EvidenceError.estimate(logEvidence, eve, n, weights,
                     settings.resampling().scheme(), resamplings,
                     settings.population().minimumDistinctEves());
             if (islands != null) {
                 evidence = evidence.withIslands(islands.islands(), islands.standardError());
             }
-            return new SamplerResult(evidence, summaries, List.copyOf(records), total, particles, weights,
+            return new SamplerResult(evidence, summaries, List.copyOf(records), total, whole, weights,
                     abc == null ? StepCapReport.of(records, settings) : StepCapReport.ofAbc(records, abc.settings()),
                     endedEarly(), seconds(exportStart));
         }

@@ -7,6 +7,7 @@ import java.util.List;
 import java.util.Set;
 import org.apache.commons.csv.CSVPrinter;
 import org.skerry.engine.population.FinalParticles;
+import org.skerry.engine.population.ParticleRows;
 
 /**
  * Writes {@code particles.csv}: the final population, one row per particle in canonical order
@@ -16,9 +17,10 @@ import org.skerry.engine.population.FinalParticles;
  * at it — both as the sampler computed them when the particle was drawn or last moved (so
  * {@code -Infinity} where the model returned a zero or an invalid value), carried with the
  * particle through resampling; every backend and partitioning writes the same bytes. Doubles
- * are written by {@link DoubleText}.
+ * are written by {@link DoubleText}. Rows are written as they stream past ({@link ParticleWriter});
+ * the file gets its name only when {@link #finish} publishes it.
  */
-public final class ParticlesCsv {
+public final class ParticlesCsv implements ParticleWriter {
 
     /** The file's name in the run folder. */
     public static final String FILE_NAME = "particles.csv";
@@ -33,11 +35,78 @@ public final class ParticlesCsv {
     /** The columns after the parameters, in order. */
     static final List<String> FIXED_COLUMNS = List.of(WEIGHT_COLUMN, LOG_LIKELIHOOD_COLUMN, LOG_PRIOR_COLUMN);
 
-    private ParticlesCsv() {
+    private final StreamedFile file;
+    private final CSVPrinter printer;
+    private final int dimension;
+    private final String[] row;
+    private long next;
+
+    private ParticlesCsv(StreamedFile file, String[] header, int dimension) throws IOException {
+        this.file = file;
+        this.printer = new CSVPrinter(file.writer(), CsvOutput.withHeader(header));
+        this.dimension = dimension;
+        this.row = new String[dimension + FIXED_COLUMNS.size()];
     }
 
     /**
-     * Writes {@code particles.csv} in {@code folder}, atomically.
+     * Starts {@code particles.csv} in {@code folder} (its header written to a temporary file).
+     *
+     * @param parameterNames one distinct name per parameter, in parameter order
+     * @param dimension      parameters a particle
+     */
+    public static ParticlesCsv open(Path folder, List<String> parameterNames, int dimension) throws IOException {
+        if (folder == null) {
+            throw new IllegalArgumentException("folder must not be null");
+        }
+        String[] header = header(parameterNames, dimension);
+        StreamedFile file = new StreamedFile(folder.resolve(FILE_NAME));
+        try {
+            return new ParticlesCsv(file, header, dimension);
+        } catch (IOException | RuntimeException e) {
+            file.close();
+            throw e;
+        }
+    }
+
+    @Override
+    public void append(ParticleRows rows) throws IOException {
+        if (rows.dimension() != dimension) {
+            throw new IllegalArgumentException("rows of dimension " + rows.dimension() + " for a file of " + dimension
+                    + " parameters");
+        }
+        if (rows.firstIndex() != next) {
+            throw new IllegalArgumentException("rows start at particle " + rows.firstIndex() + ", expected " + next);
+        }
+        int d = dimension;
+        double[] values = rows.values();
+        double[] weights = rows.weights();
+        double[] logLikelihood = rows.logLikelihood();
+        double[] logPrior = rows.logPrior();
+        for (int i = 0; i < rows.count(); i++) {
+            for (int k = 0; k < d; k++) {
+                row[k] = DoubleText.format(values[i * d + k]);
+            }
+            row[d] = DoubleText.format(weights[i]);
+            row[d + 1] = DoubleText.format(logLikelihood[i]);
+            row[d + 2] = DoubleText.format(logPrior[i]);
+            printer.printRecord((Object[]) row);
+        }
+        next += rows.count();
+    }
+
+    @Override
+    public Path finish() throws IOException {
+        printer.flush();
+        return file.publish();
+    }
+
+    @Override
+    public void close() throws IOException {
+        file.close();
+    }
+
+    /**
+     * Writes {@code particles.csv} in {@code folder} from a population held whole, atomically.
      *
      * @param parameterNames    one distinct name per parameter, in parameter order
      * @param particles         the final particles, already in canonical order
@@ -52,30 +121,16 @@ public final class ParticlesCsv {
         if (particles == null) {
             throw new IllegalArgumentException("particles must not be null");
         }
-        String[] header = header(parameterNames, particles.dimension());
+        header(parameterNames, particles.dimension());
         if (normalisedWeights == null || normalisedWeights.length != particles.size()) {
             throw new IllegalArgumentException("normalisedWeights must hold one weight per particle ("
                     + particles.size() + "), got " + (normalisedWeights == null ? "null" : normalisedWeights.length));
         }
-        int d = particles.dimension();
-        double[] logLikelihood = particles.logLikelihood();
-        double[] logPrior = particles.logPrior();
-        Path file = folder.resolve(FILE_NAME);
-        AtomicFile.writeText(file, out -> {
-            CSVPrinter printer = new CSVPrinter(out, CsvOutput.withHeader(header));
-            String[] row = new String[d + FIXED_COLUMNS.size()];
-            for (int i = 0; i < particles.size(); i++) {
-                for (int k = 0; k < d; k++) {
-                    row[k] = DoubleText.format(particles.value(i, k));
-                }
-                row[d] = DoubleText.format(normalisedWeights[i]);
-                row[d + 1] = DoubleText.format(logLikelihood[i]);
-                row[d + 2] = DoubleText.format(logPrior[i]);
-                printer.printRecord((Object[]) row);
-            }
-            printer.flush();
-        });
-        return file;
+        try (ParticlesCsv csv = open(folder, parameterNames, particles.dimension())) {
+            csv.append(new ParticleRows(0, particles.size(), particles.dimension(), particles.values(), normalisedWeights,
+                    particles.logLikelihood(), particles.logPrior()));
+            return csv.finish();
+        }
     }
 
     /**

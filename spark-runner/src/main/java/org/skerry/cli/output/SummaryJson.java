@@ -162,7 +162,7 @@ public final class SummaryJson {
                 json.writeNumberField("simulations", result.simulations());
                 json.writeEndObject();
             }
-            json.writeNumberField("particles", result.particles().size());
+            json.writeNumberField("particles", result.normalisedWeights().length);
             json.writeNumberField("seed", seed);
             json.writeEndObject();
             JsonOutput.close(json);

@@ -30,9 +30,13 @@ public final class TimingJson {
     /**
      * Where a run's wall time went: opening the backend (a Spark context) and checking the
      * checkpoint folder; the sampling iterations; fetching the final population and computing its
-     * summaries; writing {@code particles.csv} and {@code iterations.csv}. {@code wall} runs from
-     * the start to the end of the sampling, as before; {@code summary.json} and the report are
-     * written after this file, so no figure here counts them.
+     * summaries; writing {@code particles.csv} and {@code iterations.csv}. The population streams
+     * into {@code particles.csv} during the export, so the two interleave: the seconds spent inside
+     * the file writers count as {@code output}, the rest of the export as {@code export}.
+     * {@code wall} runs from the start to the end of the export; it holds startup, sampling,
+     * export and the streamed part of output, and the rest of output (publishing the file,
+     * {@code iterations.csv}) follows it. {@code summary.json} and the report are written after
+     * this file, so no figure here counts them.
      */
     public record Stages(double wall, double startup, double sampling, double export, double output) {
     }

@@ -91,4 +91,37 @@ class ParticlesCsvTest {
                 () -> ParticlesCsv.write(folder, List.of("a", "b"), particles, new double[2])).getMessage().contains("one weight per particle (1), got 2"));
         assertTrue(!Files.exists(folder.resolve("particles.csv")));
     }
+
+    @Test
+    @DisplayName("streamed: rows in two runs give the file of one; abandoned before finish leaves nothing; rows out of order refused")
+    void streamed() throws IOException {
+        double[] values = {1.5, -2.0, 0.25, 3.0, 1e-300, -0.0};
+        double[] weights = {0.5, 0.25, 0.25};
+        double[] logLikelihood = {-1.0, Double.NEGATIVE_INFINITY, -3.5};
+        double[] logPrior = {-0.5, -0.75, -1.25};
+        FinalParticles whole = new FinalParticles(2, 3, values, new double[3], logPrior, logLikelihood, new long[] {0, 1, 2},
+                new long[3]);
+        Path one = Files.createDirectories(folder.resolve("one"));
+        ParticlesCsv.write(one, List.of("a", "b"), whole, weights);
+        Path two = Files.createDirectories(folder.resolve("two"));
+        try (ParticlesCsv csv = ParticlesCsv.open(two, List.of("a", "b"), 2)) {
+            csv.append(new org.skerry.engine.population.ParticleRows(0, 1, 2, values, weights, logLikelihood, logPrior));
+            assertTrue(!Files.exists(two.resolve("particles.csv")), "no file under its name before finish");
+            csv.append(new org.skerry.engine.population.ParticleRows(1, 2, 2, new double[] {0.25, 3.0, 1e-300, -0.0},
+                    new double[] {0.25, 0.25}, new double[] {Double.NEGATIVE_INFINITY, -3.5}, new double[] {-0.75, -1.25}));
+            csv.finish();
+        }
+        assertArrayEquals(Files.readAllBytes(one.resolve("particles.csv")), Files.readAllBytes(two.resolve("particles.csv")));
+
+        Path abandoned = Files.createDirectories(folder.resolve("abandoned"));
+        try (ParticlesCsv csv = ParticlesCsv.open(abandoned, List.of("a", "b"), 2)) {
+            csv.append(new org.skerry.engine.population.ParticleRows(0, 1, 2, values, weights, logLikelihood, logPrior));
+            assertTrue(assertThrows(IllegalArgumentException.class, () -> csv.append(new org.skerry.engine.population
+                    .ParticleRows(2, 1, 2, values, weights, logLikelihood, logPrior))).getMessage()
+                    .contains("rows start at particle 2, expected 1"));
+        }
+        try (java.util.stream.Stream<Path> left = Files.list(abandoned)) {
+            assertEquals(0, left.count(), "nothing left after close without finish");
+        }
+    }
 }
