@@ -113,7 +113,7 @@ public final class AtomicFile {
         writeText(target, out -> out.write(text));
     }
 
-    private static Path createTemporary(Path absolute, Path folder) throws IOException {
+    static Path createTemporary(Path absolute, Path folder) throws IOException {
         String name = absolute.getFileName().toString();
         for (int attempt = 0; ; attempt++) {
             // A random part rather than Files.createTempFile, whose owner-only permissions would
@@ -133,7 +133,7 @@ public final class AtomicFile {
         }
     }
 
-    private static void move(Path temporary, Path absolute, Path target) throws IOException {
+    static void move(Path temporary, Path absolute, Path target) throws IOException {
         try {
             try {
                 Files.move(temporary, absolute, StandardCopyOption.ATOMIC_MOVE);
@@ -146,7 +146,7 @@ public final class AtomicFile {
     }
 
     /** Makes the rename itself durable where the platform allows it; some cannot open a folder. */
-    private static void forceFolder(Path folder) {
+    static void forceFolder(Path folder) {
         try (FileChannel channel = FileChannel.open(folder, StandardOpenOption.READ)) {
             channel.force(true);
         } catch (IOException | UnsupportedOperationException e) {
