@@ -396,7 +396,8 @@ public final class Analysis {
         double wall = (System.nanoTime() - job.startNanos()) * 1e-9;
         try {
             RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.model().label(), spec.sampler().population().seed(),
-                    built.model().parameters().names(), result, wall, startup, job.started(), backend.description()));
+                    built.model().parameters().names(), result, wall, startup, job.started(), backend.description(),
+                    spec.outputs().particles()));
         } catch (java.io.UncheckedIOException e) {
             throw outputFailed(e, checkpoints, runFolder);
         }

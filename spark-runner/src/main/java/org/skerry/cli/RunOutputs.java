@@ -6,11 +6,16 @@ import java.nio.file.Path;
 import java.time.Instant;
 import java.util.List;
 import org.skerry.cli.output.IterationsCsv;
+import org.skerry.cli.output.ParticleWriter;
+import org.skerry.cli.output.ParticlesArrow;
 import org.skerry.cli.output.ParticlesCsv;
+import org.skerry.cli.output.ParticlesFormat;
 import org.skerry.cli.output.RunConfFile;
 import org.skerry.cli.output.RunEnvironment;
 import org.skerry.cli.output.SummaryJson;
 import org.skerry.cli.output.TimingJson;
+import org.skerry.engine.population.FinalParticles;
+import org.skerry.engine.population.ParticleRows;
 import org.skerry.engine.sampler.SamplerResult;
 
 /**
@@ -22,8 +27,11 @@ final class RunOutputs {
 
     /** What a finished run leaves to write. */
     record Run(String name, String model, long seed, List<String> parameterNames, SamplerResult result, double wallSeconds,
-            double startupSeconds, Instant startedAt, String backend) {
+            double startupSeconds, Instant startedAt, String backend, ParticlesFormat particlesFormat) {
     }
+
+    /** Rows per {@link ParticleRows} handed to a streaming writer. */
+    private static final int CHUNK = 1 << 16;
 
     private RunOutputs() {
     }
@@ -49,7 +57,17 @@ final class RunOutputs {
         try {
             SamplerResult result = run.result();
             long start = System.nanoTime();
-            ParticlesCsv.write(folder, run.parameterNames(), result.particles(), result.normalisedWeights());
+            FinalParticles particles = result.particles();
+            ParticlesFormat format = run.particlesFormat();
+            if (format.writesCsv(particles.size(), particles.dimension())) {
+                ParticlesCsv.write(folder, run.parameterNames(), particles, result.normalisedWeights());
+            }
+            if (format.writesArrow(particles.size(), particles.dimension())) {
+                try (ParticleWriter arrow = ParticlesArrow.open(folder, run.parameterNames())) {
+                    stream(particles, result.normalisedWeights(), arrow);
+                    arrow.finish();
+                }
+            }
             IterationsCsv.write(folder, result.iterations(), run.parameterNames());
             double output = (System.nanoTime() - start) * 1e-9;
             double sampling = run.wallSeconds() - run.startupSeconds() - result.exportSeconds();
@@ -59,6 +77,27 @@ final class RunOutputs {
             SummaryJson.write(folder, run.name(), run.model(), run.seed(), result);
         } catch (IOException e) {
             throw new UncheckedIOException("cannot write the results into " + folder, e);
+        }
+    }
+
+    /**
+     * Hands the final population to {@code writer} in runs of {@link #CHUNK} rows, as the
+     * streamed export will (until then the population is whole in the driver).
+     */
+    private static void stream(FinalParticles particles, double[] weights, ParticleWriter writer) throws IOException {
+        int d = particles.dimension();
+        int n = particles.size();
+        double[] values = new double[CHUNK * d];
+        double[] w = new double[CHUNK];
+        double[] logLikelihood = new double[CHUNK];
+        double[] logPrior = new double[CHUNK];
+        for (int start = 0; start < n; start += CHUNK) {
+            int count = Math.min(CHUNK, n - start);
+            System.arraycopy(particles.values(), start * d, values, 0, count * d);
+            System.arraycopy(weights, start, w, 0, count);
+            System.arraycopy(particles.logLikelihood(), start, logLikelihood, 0, count);
+            System.arraycopy(particles.logPrior(), start, logPrior, 0, count);
+            writer.append(new ParticleRows(start, count, d, values, w, logLikelihood, logPrior));
         }
     }
 }
