@@ -87,12 +87,13 @@ final class RunOutputs {
     private static void stream(FinalParticles particles, double[] weights, ParticleWriter writer) throws IOException {
         int d = particles.dimension();
         int n = particles.size();
-        double[] values = new double[CHUNK * d];
-        double[] w = new double[CHUNK];
-        double[] logLikelihood = new double[CHUNK];
-        double[] logPrior = new double[CHUNK];
-        for (int start = 0; start < n; start += CHUNK) {
-            int count = Math.min(CHUNK, n - start);
+        int chunk = Math.max(1, Math.min(CHUNK, n));
+        double[] values = new double[chunk * d];
+        double[] w = new double[chunk];
+        double[] logLikelihood = new double[chunk];
+        double[] logPrior = new double[chunk];
+        for (int start = 0; start < n; start += chunk) {
+            int count = Math.min(chunk, n - start);
             System.arraycopy(particles.values(), start * d, values, 0, count * d);
             System.arraycopy(weights, start, w, 0, count);
             System.arraycopy(particles.logLikelihood(), start, logLikelihood, 0, count);
