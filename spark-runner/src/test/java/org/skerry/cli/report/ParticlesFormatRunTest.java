@@ -6,9 +6,11 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
+import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.DisplayName;
@@ -109,6 +111,35 @@ class ParticlesFormatRunTest {
             Files.copy(arrow.resolve(name), copy.resolve(name));
         }
         CommandRunner.assertBadInput(CommandRunner.run("report", copy.toString()), "particles.csv", "particles.arrow");
+    }
+
+    @Test
+    @DisplayName("a cut-off particles.arrow, or one without a weight column, is bad input naming the file")
+    void brokenArrow() throws IOException {
+        Path cut = Files.createDirectory(root.resolve("cut"));
+        for (String name : List.of("summary.json", "iterations.csv", "run.conf")) {
+            Files.copy(arrow.resolve(name), cut.resolve(name));
+        }
+        byte[] bytes = Files.readAllBytes(arrow.resolve("particles.arrow"));
+        Files.write(cut.resolve("particles.arrow"), Arrays.copyOf(bytes, bytes.length / 2));
+        CommandRunner.assertBadInput(CommandRunner.run("report", cut.toString()), "particles.arrow",
+                "not a readable Arrow IPC file");
+        assertFalse(Files.exists(cut.resolve("report")), "nothing written");
+
+        Path renamed = Files.createDirectory(root.resolve("renamed"));
+        for (String name : List.of("summary.json", "iterations.csv", "run.conf")) {
+            Files.copy(arrow.resolve(name), renamed.resolve(name));
+        }
+        // The same file with the weight column's name changed in place (same length, so the
+        // flatbuffers stay valid): "weight" -> "wEight".
+        byte[] changed = bytes.clone();
+        String text = new String(changed, StandardCharsets.ISO_8859_1);
+        for (int at = text.indexOf("weight"); at >= 0; at = text.indexOf("weight", at + 1)) {
+            changed[at + 1] = 'E';
+        }
+        Files.write(renamed.resolve("particles.arrow"), changed);
+        CommandRunner.assertBadInput(CommandRunner.run("report", renamed.toString()), "particles.arrow",
+                "no column weight");
     }
 
     @Test
