@@ -360,7 +360,7 @@ public final class Analysis {
         double wall;
         // The particle files stream while the run exports; closing abandons any not finished.
         try (ParticleOutputs particles = ParticleOutputs.open(runFolder, built.model().parameters().names(),
-                built.model().dimension())) {
+                built.model().dimension(), spec.sampler().population().particles(), spec.outputs().particles())) {
             SmcSampler sampler = new SmcSampler(spec.sampler()).streamingTo(particles);
             double startup = (System.nanoTime() - job.startNanos()) * 1e-9;
             try {
@@ -403,8 +403,8 @@ public final class Analysis {
             wall = (System.nanoTime() - job.startNanos()) * 1e-9;
             try {
                 RunOutputs.writeResults(runFolder, new RunOutputs.Run(spec.name(), spec.model().label(), spec.sampler().population().seed(),
-                        built.model().parameters().names(), result, wall, startup, job.started(), backend.description()),
-                        particles);
+                        built.model().parameters().names(), result, wall, startup, job.started(), backend.description(),
+                        spec.outputs().particles()), particles);
             } catch (java.io.UncheckedIOException e) {
                 throw outputFailed(e, checkpoints, runFolder);
             }

@@ -6,7 +6,9 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import org.skerry.cli.output.ParticleWriter;
+import org.skerry.cli.output.ParticlesArrow;
 import org.skerry.cli.output.ParticlesCsv;
+import org.skerry.cli.output.ParticlesFormat;
 import org.skerry.engine.population.ParticleRows;
 import org.skerry.engine.population.ParticleSink;
 
@@ -22,28 +24,40 @@ final class ParticleOutputs implements ParticleSink, AutoCloseable {
     private final Path folder;
     private final List<String> parameterNames;
     private final int dimension;
+    private final long size;
+    private final ParticlesFormat format;
     private final List<ParticleWriter> writers = new ArrayList<>();
     private boolean opened;
     private long writingNanos;
 
-    private ParticleOutputs(Path folder, List<String> parameterNames, int dimension) {
+    private ParticleOutputs(Path folder, List<String> parameterNames, int dimension, long size,
+            ParticlesFormat format) {
         this.folder = folder;
         this.parameterNames = List.copyOf(parameterNames);
         this.dimension = dimension;
+        this.size = size;
+        this.format = format;
     }
 
     /**
      * The run's particle files in {@code folder}, opened when the first rows arrive: a run that
      * is killed while it samples leaves no temporary file behind, as before the export streamed.
      */
-    static ParticleOutputs open(Path folder, List<String> parameterNames, int dimension) {
+    static ParticleOutputs open(Path folder, List<String> parameterNames, int dimension, long size,
+            ParticlesFormat format) {
         ParticlesCsv.checkParameterNames(parameterNames);
-        return new ParticleOutputs(folder, parameterNames, dimension);
+        return new ParticleOutputs(folder, parameterNames, dimension, size, format);
     }
 
     private void openWriters() throws IOException {
         opened = true;
-        writers.add(ParticlesCsv.open(folder, parameterNames, dimension));
+        // output.particles-format: which files this population gets (auto: by its count of numbers).
+        if (format.writesCsv(size, dimension)) {
+            writers.add(ParticlesCsv.open(folder, parameterNames, dimension));
+        }
+        if (format.writesArrow(size, dimension)) {
+            writers.add(ParticlesArrow.open(folder, parameterNames));
+        }
     }
 
     @Override

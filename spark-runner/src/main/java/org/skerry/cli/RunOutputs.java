@@ -6,6 +6,7 @@ import java.nio.file.Path;
 import java.time.Instant;
 import java.util.List;
 import org.skerry.cli.output.IterationsCsv;
+import org.skerry.cli.output.ParticlesFormat;
 import org.skerry.cli.output.RunConfFile;
 import org.skerry.cli.output.RunEnvironment;
 import org.skerry.cli.output.SummaryJson;
@@ -21,8 +22,9 @@ final class RunOutputs {
 
     /** What a finished run leaves to write. */
     record Run(String name, String model, long seed, List<String> parameterNames, SamplerResult result, double wallSeconds,
-            double startupSeconds, Instant startedAt, String backend) {
+            double startupSeconds, Instant startedAt, String backend, ParticlesFormat particlesFormat) {
     }
+
 
     private RunOutputs() {
     }

@@ -5,6 +5,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import org.skerry.cli.output.IterationsCsv;
+import org.skerry.cli.output.ParticlesArrow;
 import org.skerry.cli.output.ParticlesCsv;
 import org.skerry.cli.output.RunConfFile;
 import org.skerry.cli.output.SummaryJson;
@@ -17,7 +18,7 @@ import org.skerry.engine.settings.SettingsException;
 /**
  * Everything a run report shows, read and checked before anything is written: {@code
  * summary.json}, {@code iterations.csv}, the parameter values and weights of {@code
- * particles.csv}, the resampling threshold and MH step cap of {@code run.conf}, and the prior
+ * particles.csv} (or of {@code particles.arrow} where a run wrote no CSV), the resampling threshold and MH step cap of {@code run.conf}, and the prior
  * marginals and the posterior predictive of the data when the model can be built again. Any file that is missing or does not fit the
  * others is bad input naming it.
  *
@@ -62,10 +63,16 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
             throw new ReportInputException("run folder " + folder + " has no " + SummaryJson.FILE_NAME
                     + ": not a finished run (an unfinished one is continued with skerry resume)");
         }
-        for (String name : List.of(IterationsCsv.FILE_NAME, ParticlesCsv.FILE_NAME, RunConfFile.FILE_NAME)) {
+        for (String name : List.of(IterationsCsv.FILE_NAME, RunConfFile.FILE_NAME)) {
             if (!Files.isRegularFile(folder.resolve(name))) {
                 throw new ReportInputException("run folder " + folder + " has no " + name);
             }
+        }
+        // The CSV when there is one (it is what a person may have edited or checked), else Arrow.
+        boolean csv = Files.isRegularFile(folder.resolve(ParticlesCsv.FILE_NAME));
+        if (!csv && !Files.isRegularFile(folder.resolve(ParticlesArrow.FILE_NAME))) {
+            throw new ReportInputException("run folder " + folder + " has no " + ParticlesCsv.FILE_NAME + " nor "
+                    + ParticlesArrow.FILE_NAME);
         }
         Path reportFolder = folder.resolve(ReportWriter.FOLDER);
         if (Files.exists(reportFolder) && !Files.isDirectory(reportFolder)) {
@@ -83,8 +90,8 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
         List<String> names = new ArrayList<>(summary.parameters().keySet());
         List<String> wanted = new ArrayList<>(names);
         wanted.add(ParticlesCsv.WEIGHT_COLUMN);
-        Path particlesFile = folder.resolve(ParticlesCsv.FILE_NAME);
-        CsvColumns particles = CsvColumns.read(particlesFile, wanted);
+        Path particlesFile = folder.resolve(csv ? ParticlesCsv.FILE_NAME : ParticlesArrow.FILE_NAME);
+        CsvColumns particles = csv ? CsvColumns.read(particlesFile, wanted) : ArrowColumns.read(particlesFile, wanted);
         if (particles.rows() != summary.particles()) {
             throw new ReportInputException(particlesFile + ": " + particles.rows() + " particles, summary.json says "
                     + summary.particles());
@@ -92,7 +99,8 @@ record RunReport(Path folder, SummaryFile summary, CsvColumns iterations, List<d
         double[] weights = particles.column(ParticlesCsv.WEIGHT_COLUMN);
         for (int i = 0; i < weights.length; i++) {
             if (!(weights[i] >= 0) || Double.isInfinite(weights[i])) {
-                throw new ReportInputException(particlesFile + " line " + (i + 2) + " column weight: " + weights[i]
+                throw new ReportInputException(particlesFile + (csv ? " line " + (i + 2) : " row " + (i + 1))
+                        + " column weight: " + weights[i]
                         + " is not a weight (finite, 0 or more)");
             }
         }

@@ -4,6 +4,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.Objects;
+import org.skerry.cli.output.ParticlesFormat;
 import org.skerry.engine.settings.SettingsReader;
 
 /**
@@ -12,8 +13,9 @@ import org.skerry.engine.settings.SettingsReader;
  * @param folder   the folder the run folder is made in
  * @param progress how progress is shown
  * @param report   whether a finished run writes its report (report/index.html and figures)
+ * @param particles which files hold the final population (particles.csv, particles.arrow)
  */
-public record OutputSpec(Path folder, Progress progress, boolean report) {
+public record OutputSpec(Path folder, Progress progress, boolean report, ParticlesFormat particles) {
 
     /** How progress is shown. */
     public enum Progress { AUTO, LIVE, LOG, OFF }
@@ -21,6 +23,7 @@ public record OutputSpec(Path folder, Progress progress, boolean report) {
     public OutputSpec {
         Objects.requireNonNull(folder, "folder");
         Objects.requireNonNull(progress, "progress");
+        Objects.requireNonNull(particles, "particles");
     }
 
     /** Reads and checks the {@code output} keys. */
@@ -31,6 +34,8 @@ public record OutputSpec(Path folder, Progress progress, boolean report) {
         }
         Progress progress = Progress.valueOf(r.choice("output.progress", List.of("auto", "live", "log", "off"))
                 .toUpperCase(Locale.ROOT));
-        return new OutputSpec(Path.of(folder), progress, r.bool("output.report"));
+        ParticlesFormat particles = ParticlesFormat.valueOf(r.choice("output.particles-format",
+                List.of("auto", "csv", "arrow", "both")).toUpperCase(Locale.ROOT));
+        return new OutputSpec(Path.of(folder), progress, r.bool("output.report"), particles);
     }
 }
