@@ -21,10 +21,28 @@ final class SparkSecret {
     private SparkSecret() {
     }
 
-    /** Adds authentication with the secret to {@code settings} when {@code environment} names a secret file. */
-    static void addTo(Map<String, String> settings, Map<String, String> environment) {
+    /**
+     * The variable through which a standalone worker hands the secret to the processes it starts
+     * (Spark's SecurityManager.ENV_AUTH_SECRET): a driver in cluster mode finds it there, while
+     * Spark removes the secret from that driver's command line and its settings.
+     */
+    static final String WORKER_ENVIRONMENT = "_SPARK_AUTH_SECRET";
+
+    /**
+     * Adds authentication with the secret to {@code settings} when {@code environment} names a
+     * secret file, or, for a driver a standalone worker started, when the worker handed it the
+     * secret but not the setting Spark's driver insists on ({@code authenticate}: whether Spark's
+     * settings already ask for authentication; kept for the message of a future check).
+     */
+    static void addTo(Map<String, String> settings, Map<String, String> environment, boolean authenticate,
+            boolean hasSecret) {
         String name = environment.get(ENVIRONMENT);
         if (name == null || name.isBlank()) {
+            String handed = environment.get(WORKER_ENVIRONMENT);
+            if (!hasSecret && handed != null && !handed.isEmpty()) {
+                settings.put("spark.authenticate", "true");
+                settings.put("spark.authenticate.secret", handed);
+            }
             return;
         }
         Path file = Path.of(name);
