@@ -174,6 +174,14 @@ class SlurmBatchTest {
                     "--batch", job), root, env, dir.resolve("scancel.log"), Duration.ofSeconds(30));
             assertEquals(0, signalled.exitCode(), signalled.output());
 
+            // Slurm holds a requeued job for about two minutes (its BeginTime); release it at once,
+            // as a user may, so the test does not wait for nothing.
+            awaitLine(jobLog, "requeueing job " + job, Duration.ofSeconds(120));
+            awaitPending(job, env, Duration.ofSeconds(60), jobLog);
+            Processes.Result released = Processes.run(List.of(program("scontrol").get().toString(), "update",
+                    "JobId=" + job, "StartTime=now"), root, env, dir.resolve("release.log"), Duration.ofSeconds(30));
+            assertEquals(0, released.exitCode(), released.output());
+
             awaitGone(job, env, Duration.ofSeconds(300), runFolder, jobLog);
             String log = Files.readString(jobLog);
             assertTrue(log.contains("skerry exited with 75"), "stopped resumably:\n" + log);
@@ -263,6 +271,31 @@ class SlurmBatchTest {
             Thread.sleep(250);
         }
         fail("no " + name + " under " + folder + " within " + limit.toSeconds() + " s; the job's log:\n"
+                + Processes.tail(jobLog));
+    }
+
+    private static void awaitLine(Path log, String text, Duration limit) throws Exception {
+        long deadline = System.nanoTime() + limit.toNanos();
+        while (System.nanoTime() < deadline) {
+            if (Files.isRegularFile(log) && Files.readString(log).contains(text)) {
+                return;
+            }
+            Thread.sleep(250);
+        }
+        fail("no line '" + text + "' in the job's log within " + limit.toSeconds() + " s:\n" + Processes.tail(log));
+    }
+
+    private void awaitPending(String job, Map<String, String> env, Duration limit, Path jobLog) throws Exception {
+        long deadline = System.nanoTime() + limit.toNanos();
+        while (System.nanoTime() < deadline) {
+            Processes.Result squeue = Processes.run(List.of("squeue", "-h", "-o", "%i %T"), dir, env,
+                    dir.resolve("squeue.log"), Duration.ofSeconds(20));
+            if (squeue.output().lines().anyMatch(line -> line.strip().equals(job + " PENDING"))) {
+                return;
+            }
+            Thread.sleep(500);
+        }
+        fail("job " + job + " was not pending after its requeue within " + limit.toSeconds() + " s:\n"
                 + Processes.tail(jobLog));
     }
 
