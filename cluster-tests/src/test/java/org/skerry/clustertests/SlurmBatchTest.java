@@ -113,6 +113,7 @@ class SlurmBatchTest {
         List<Path> pidFiles = List.of(slurm.resolve("slurmd.pid"), slurm.resolve("slurmctld.pid"),
                 slurm.resolve("munge/munged.pid"));
         String host = hostName();
+        String job = null;
         try {
             byte[] key = new byte[1024];
             new java.security.SecureRandom().nextBytes(key);
@@ -145,6 +146,8 @@ class SlurmBatchTest {
                     "ReturnToService=2",
                     "MpiDefault=none",
                     "JobRequeue=1",
+                    // Job ids of their own, so the script's runs/slurm-JOBID.cluster never meets another's.
+                    "FirstJobId=" + (100000 + new java.security.SecureRandom().nextInt(800000)),
                     "NodeName=" + host + " NodeAddr=127.0.0.1 CPUs=" + Runtime.getRuntime().availableProcessors()
                             + " RealMemory=4000 State=UNKNOWN",
                     "PartitionName=test Nodes=ALL Default=YES MaxTime=INFINITE State=UP",
@@ -166,7 +169,7 @@ class SlurmBatchTest {
                     dir.resolve("run.conf").toString(), runFolder.toString()), root, env, dir.resolve("sbatch.log"),
                     Duration.ofSeconds(30));
             assertEquals(0, submitted.exitCode(), submitted.output());
-            String job = submitted.output().strip().split(";")[0];
+            job = submitted.output().strip().split(";")[0];
 
             // TERM once the first checkpoint is complete, as Slurm sends it before a time limit.
             awaitFile(runFolder.resolve("checkpoints"), "manifest.txt", Duration.ofSeconds(240), jobLog);
@@ -183,6 +186,7 @@ class SlurmBatchTest {
             assertEquals(0, released.exitCode(), released.output());
 
             awaitGone(job, env, Duration.ofSeconds(300), runFolder, jobLog);
+            String finished = job;
             String log = Files.readString(jobLog);
             assertTrue(log.contains("skerry exited with 75"), "stopped resumably:\n" + log);
             assertTrue(log.contains("requeueing job " + job), "requeued:\n" + log);
@@ -193,6 +197,8 @@ class SlurmBatchTest {
                         file + " after stop, requeue and resume against the undisturbed run");
             }
             assertFalse(Files.exists(runFolder.resolve("stopped.txt")), "the resume cleared the stop");
+            Path secret = root.resolve("runs/slurm-" + finished + ".cluster/secret");
+            assertFalse(Files.exists(secret), "the job removed its cluster's secret: " + secret);
         } finally {
             Processes.run(List.of("scancel", "--full", "--user=root"), dir, env, dir.resolve("scancel-all.log"),
                     Duration.ofSeconds(30));
@@ -205,9 +211,23 @@ class SlurmBatchTest {
                     }
                 }
             }
+            if (job != null) {
+                deleteTree(root.resolve("runs/slurm-" + job + ".cluster"));
+            }
         }
         Thread.sleep(1000);
         assertEquals(List.of(), Processes.carrying(dir.toString()), "processes left behind");
+    }
+
+    private static void deleteTree(Path top) throws IOException {
+        if (!Files.exists(top)) {
+            return;
+        }
+        try (Stream<Path> paths = Files.walk(top)) {
+            for (Path path : paths.sorted(java.util.Comparator.reverseOrder()).toList()) {
+                Files.deleteIfExists(path);
+            }
+        }
     }
 
     private static String hostName() throws IOException, InterruptedException {
@@ -311,6 +331,13 @@ class SlurmBatchTest {
             }
             Thread.sleep(1000);
         }
-        fail("job " + job + " did not finish within " + limit.toSeconds() + " s; its log:\n" + Processes.tail(jobLog));
+        Processes.Result state = Processes.run(List.of("scontrol", "show", "job", job), dir, env, dir.resolve("job-state.log"),
+                Duration.ofSeconds(20));
+        Processes.Result nodes = Processes.run(List.of("sinfo", "-R", "-N", "-l"), dir, env, dir.resolve("node-state.log"),
+                Duration.ofSeconds(20));
+        fail("job " + job + " did not finish within " + limit.toSeconds() + " s; its log:\n" + Processes.tail(jobLog)
+                + "\n--- scontrol show job\n" + state.output() + "\n--- sinfo -R\n" + nodes.output()
+                + "\n--- slurmctld.log\n" + Processes.tail(dir.resolve("slurm/log/slurmctld.log"))
+                + "\n--- slurmd.log\n" + Processes.tail(dir.resolve("slurm/log/slurmd.log")));
     }
 }
