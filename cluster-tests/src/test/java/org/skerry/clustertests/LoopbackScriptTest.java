@@ -95,6 +95,37 @@ class LoopbackScriptTest {
         assertFalse(Files.exists(cluster.resolve("secret")), "stop removes the secret");
     }
 
+    @Test
+    @DisplayName("start --no-auth: no secret written, daemons without spark.authenticate, the REST server on its "
+            + "loopback port; stop: no process left")
+    void withoutAuthentication() throws Exception {
+        Path script = Processes.root().resolve("deploy/loopback-cluster");
+        Path cluster = dir.resolve("open");
+        String marker = "-Dskerry.loopback.dir=" + cluster;
+        int rest = freePort();
+        try {
+            Processes.Result started = Processes.run(List.of("bash", script.toString(), "start", "--no-auth", "--dir",
+                    cluster.toString(), "--workers", "1", "--port", Integer.toString(freePort()), "--ui-port",
+                    Integer.toString(freePort()), "--rest-port", Integer.toString(rest), "--timeout", "120"), dir, Map.of(),
+                    dir.resolve("start-open.log"), Duration.ofSeconds(180));
+            assertEquals(0, started.exitCode(), started.output());
+            assertTrue(started.output().contains("auth:    OFF"), started.output());
+            assertFalse(Files.exists(cluster.resolve("secret")));
+            assertFalse(Files.exists(cluster.resolve("auth.properties")));
+            List<String> daemons = Processes.carrying(marker);
+            assertEquals(2, daemons.size(), daemons.toString());
+            daemons.forEach(daemon -> assertFalse(daemon.contains("spark.authenticate"), daemon));
+            assertTrue(listeningSockets(daemons).contains("[::ffff:127.0.0.1]:" + rest)
+                    || listeningSockets(daemons).contains("127.0.0.1:" + rest), "REST on loopback: "
+                    + listeningSockets(daemons));
+        } finally {
+            Processes.Result stopped = Processes.run(List.of("bash", script.toString(), "stop", "--dir", cluster.toString()),
+                    dir, Map.of(), dir.resolve("stop-open.log"), Duration.ofSeconds(60));
+            assertEquals(0, stopped.exitCode(), stopped.output());
+        }
+        assertEquals(List.of(), Processes.carrying(marker), "processes left behind");
+    }
+
     /** The local addresses the given processes (lines "PID command…") listen on, from {@code ss -ltnp}. */
     private List<String> listeningSockets(List<String> processes) throws Exception {
         Processes.Result ss = Processes.run(List.of("ss", "-H", "-ltnp"), dir, Map.of(), dir.resolve("ss.log"),
