@@ -268,11 +268,28 @@ public final class Analysis {
     private static Outcome execute(Job job, PrintWriter progressOut, IterationListener observer) {
         RunSpec spec = job.spec();
         Path runFolder = job.runFolder();
+        RunOutcome.clear(runFolder);
+        try {
+            return executeRecorded(job, progressOut, observer);
+        } catch (RuntimeException | Error e) {
+            // In a cluster's driver the exit code may never reach the user: the folder says it.
+            RunOutcome.record(runFolder, e);
+            throw e;
+        }
+    }
+
+    private static Outcome executeRecorded(Job job, PrintWriter progressOut, IterationListener observer) {
+        RunSpec spec = job.spec();
+        Path runFolder = job.runFolder();
         if (spec.outputs().report()) {
             org.skerry.cli.report.ReportWarmup.startInBackground();
         }
         try (TerminationSignal signal = TerminationSignal.install(spec.limits().stopGraceSeconds(), progressOut,
-                        ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> whatIsKept(spec, runFolder));
+                        ExitCodes.STOPPED_RESUMABLE, TerminationSignal.EXIT, () -> {
+                            String kept = whatIsKept(spec, runFolder);
+                            RunOutcome.recordAbandoned(runFolder, kept);
+                            return kept;
+                        });
                 Backends.Opened opened = Backends.open(spec, runFolder);
                 ProgressDisplay progress = announced(progress(spec, progressOut,
                         job.built().model().parameters().names()), spec, runFolder,

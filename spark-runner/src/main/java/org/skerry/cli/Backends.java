@@ -87,6 +87,8 @@ public final class Backends {
             settings.put("spark.driver.bindAddress", "127.0.0.1");
         } else {
             settings.put("spark.jars", String.join(",", jars));
+            SparkSecret.addTo(settings, System.getenv(), Boolean.parseBoolean(System.getProperty("spark.authenticate")),
+                    System.getProperty("spark.authenticate.secret") != null);
         }
         settings.putAll(sparkDefaults);
         settings.putAll(backend.sparkSettings());

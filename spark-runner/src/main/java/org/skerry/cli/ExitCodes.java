@@ -15,6 +15,11 @@ public final class ExitCodes {
      */
     public static final int SOME_FAILED = 3;
     /**
+     * {@code skerry status}: the run folder records no outcome yet: the run is still going, or it
+     * was killed before it could record one.
+     */
+    public static final int NO_OUTCOME = 4;
+    /**
      * Stopped on request (SIGTERM, wall-time limit) at a checkpoint; resume the run to continue.
      * 75 is EX_TEMPFAIL of sysexits.h: "try again later", which batch scripts requeue on.
      */

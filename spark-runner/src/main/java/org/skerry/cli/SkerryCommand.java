@@ -14,7 +14,7 @@ import picocli.CommandLine.Command;
 @Command(name = "skerry", mixinStandardHelpOptions = true, versionProvider = Version.class,
         description = "Bayesian calibration of costly models by sequential Monte Carlo: posterior, evidence, diagnostics.",
         subcommands = {RunCommand.class, ResumeCommand.class, BatchCommand.class, ScaleCommand.class,
-            ValidateCommand.class, ReportCommand.class, ModelsCommand.class, DemoCommand.class,
+            StatusCommand.class, ValidateCommand.class, ReportCommand.class, ModelsCommand.class, DemoCommand.class,
             DemoDataCommand.class, CommandLine.HelpCommand.class},
         exitCodeOnInvalidInput = ExitCodes.BAD_INPUT, exitCodeOnExecutionException = ExitCodes.RUN_FAILURE)
 public final class SkerryCommand implements Runnable {

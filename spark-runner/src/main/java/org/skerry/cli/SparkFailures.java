@@ -53,6 +53,12 @@ public final class SparkFailures {
                     + "backend.spark { \"spark.executor.memory\" = \"4g\" } (or spark-submit --executor-memory), "
                     + "or use more partitions (backend.partitions)";
         }
+        if (all.contains("Expected SaslMessage") || all.contains("does not have SASL enabled")) {
+            // The cluster's daemons authenticate (spark.authenticate) and this driver has no secret.
+            return "the cluster requires authentication and this driver has no secret: set " + SparkSecret.ENVIRONMENT
+                    + " to the file holding the cluster's secret (deploy/loopback-cluster: DIR/secret), or give "
+                    + "spark-submit --properties-file DIR/auth.properties";
+        }
         if (all.contains("spark.rpc.message.maxSize")) {
             return "a message to or from the driver exceeded spark.rpc.message.maxSize; raise it with "
                     + "backend.spark { \"spark.rpc.message.maxSize\" = \"512\" } or use more partitions";

@@ -37,4 +37,17 @@ class EndingTest {
         assertEquals("the run failed: java.lang.IllegalStateException: boom", unexpected.summary());
         assertTrue(unexpected.trace());
     }
+
+    @Test
+    @DisplayName("a driver refused by an authenticating cluster (Spark's SASL message, as a driver without the "
+            + "secret got from deploy/loopback-cluster): exit 1 and how to give it the secret, no stack trace")
+    void noSecret() {
+        RuntimeException refused = new RuntimeException("Exception thrown in awaitResult: ",
+                new RuntimeException("java.lang.IllegalStateException: Expected SaslMessage, received something else "
+                        + "(maybe your client does not have SASL enabled?)"));
+        Ending ending = Ending.of(refused);
+        assertEquals(ExitCodes.RUN_FAILURE, ending.exitCode());
+        assertTrue(ending.summary().contains(SparkSecret.ENVIRONMENT), ending.summary());
+        assertFalse(ending.trace());
+    }
 }
