@@ -40,17 +40,7 @@ final class FigureFile {
      */
     static Written write(Path folder, String name, int width, int height, Drawing drawing,
             java.util.Map<String, String> svgAttributes) throws IOException {
-        BufferedImage image = new BufferedImage(width, height, BufferedImage.TYPE_INT_RGB);
-        Graphics2D g = image.createGraphics();
-        try {
-            g.setRenderingHint(RenderingHints.KEY_ANTIALIASING, RenderingHints.VALUE_ANTIALIAS_ON);
-            g.setRenderingHint(RenderingHints.KEY_TEXT_ANTIALIASING, RenderingHints.VALUE_TEXT_ANTIALIAS_ON);
-            g.setColor(Color.WHITE);
-            g.fillRect(0, 0, width, height);
-            drawing.draw(g, new Rectangle2D.Double(0, 0, width, height));
-        } finally {
-            g.dispose();
-        }
+        BufferedImage image = bitmap(width, height, drawing);
         String png = name + ".png";
         AtomicFile.write(folder.resolve(png), out -> ImageIO.write(image, "png", out));
         SVGGraphics2D svg = new SVGGraphics2D(width, height);
@@ -75,5 +65,21 @@ final class FigureFile {
         AtomicFile.writeString(folder.resolve(svgName), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
                 + element + "\n");
         return new Written(png, svgName, width, height);
+    }
+
+    /** The drawing on a white, antialiased bitmap of the given size: what the PNG file holds. */
+    static BufferedImage bitmap(int width, int height, Drawing drawing) {
+        BufferedImage image = new BufferedImage(width, height, BufferedImage.TYPE_INT_RGB);
+        Graphics2D g = image.createGraphics();
+        try {
+            g.setRenderingHint(RenderingHints.KEY_ANTIALIASING, RenderingHints.VALUE_ANTIALIAS_ON);
+            g.setRenderingHint(RenderingHints.KEY_TEXT_ANTIALIASING, RenderingHints.VALUE_TEXT_ANTIALIAS_ON);
+            g.setColor(Color.WHITE);
+            g.fillRect(0, 0, width, height);
+            drawing.draw(g, new Rectangle2D.Double(0, 0, width, height));
+        } finally {
+            g.dispose();
+        }
+        return image;
     }
 }

@@ -1,8 +1,5 @@
 package org.skerry.cli.report;
 
-import java.awt.Color;
-import java.awt.Graphics2D;
-import java.awt.RenderingHints;
 import java.awt.geom.Rectangle2D;
 import java.awt.image.BufferedImage;
 import java.io.OutputStream;
@@ -61,17 +58,7 @@ public final class ReportWarmup {
             JFreeChart chart = ChartStyle.apply(new JFreeChart("warm-up", ChartStyle.TITLE, plot, true), "note");
             int width = 300;
             int height = 200;
-            BufferedImage image = new BufferedImage(width, height, BufferedImage.TYPE_INT_RGB);
-            Graphics2D g = image.createGraphics();
-            try {
-                g.setRenderingHint(RenderingHints.KEY_ANTIALIASING, RenderingHints.VALUE_ANTIALIAS_ON);
-                g.setRenderingHint(RenderingHints.KEY_TEXT_ANTIALIASING, RenderingHints.VALUE_TEXT_ANTIALIAS_ON);
-                g.setColor(Color.WHITE);
-                g.fillRect(0, 0, width, height);
-                chart.draw(g, new Rectangle2D.Double(0, 0, width, height));
-            } finally {
-                g.dispose();
-            }
+            BufferedImage image = FigureFile.bitmap(width, height, chart::draw);
             ImageIO.write(image, "png", OutputStream.nullOutputStream());
             SVGGraphics2D svg = new SVGGraphics2D(width, height);
             svg.setDefsKeyPrefix("warmup-");
