@@ -227,17 +227,22 @@ final class Worker implements AutoCloseable {
     private ProgramFailureException broke(String protocolProblem) {
         broken = true;
         boolean expired = timedOut;
-        kill();
         String why;
-        if (expired) {
-            why = "no reply within " + describe(timeout) + " (the timeout); its process tree was killed";
-        } else if (protocolProblem != null) {
-            why = protocolProblem + "; it was stopped";
+        String tail;
+        if (expired || protocolProblem != null) {
+            kill();
+            why = expired ? "no reply within " + describe(timeout) + " (the timeout); its process tree was killed"
+                    : protocolProblem + "; it was stopped";
+            tail = tail();
         } else {
+            // Its output ended: read the exit status and the standard error before killing what is
+            // left, because killing closes the error stream and drops whatever was not yet read.
             Integer status = child.waitFor(1000);
             why = status == null ? "its output ended" : exitDescription(status);
+            tail = tail();
+            kill();
         }
-        return new ProgramFailureException(label + ": " + why + tail());
+        return new ProgramFailureException(label + ": " + why + tail);
     }
 
     private static String exitDescription(int status) {
