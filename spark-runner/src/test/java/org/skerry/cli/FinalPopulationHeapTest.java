@@ -49,13 +49,14 @@ class FinalPopulationHeapTest {
                 "backend { kind = spark, master = \"local[2]\", partitions = 4,",
                 "  spark { \"spark.driver.maxResultSize\" = \"4m\" } }",
                 "checkpoint.enabled = false",
-                "output { progress = off, report = off }", ""));
+                // Both particle files stream at once (auto would pick Arrow alone at 2.6·10⁶ numbers).
+                "output { progress = off, report = off, particles-format = both }", ""));
         Path out = folder.resolve("out");
         StringWriter err = new StringWriter();
         int code = SkerryCommand.execute(new String[] {"run", runFile.toString(), "--out", out.toString()},
                 new PrintWriter(new StringWriter(), true), new PrintWriter(err, true));
         assertEquals(0, code, err.toString());
-        for (String name : new String[] {"summary.json", "iterations.csv", "timing.json", "run.conf"}) {
+        for (String name : new String[] {"summary.json", "iterations.csv", "timing.json", "run.conf", "particles.arrow"}) {
             assertTrue(Files.isRegularFile(out.resolve(name)), name + " missing");
         }
         long rows;
