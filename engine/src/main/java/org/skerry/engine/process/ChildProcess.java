@@ -126,11 +126,17 @@ public final class ChildProcess implements AutoCloseable {
         } catch (RuntimeException e) {
             // a process table we cannot read: the program itself is still killed
         }
-        process.destroyForcibly();
+        // Through the handle, not Process.destroyForcibly: that also closes the streams, and the
+        // standard error's last lines, written just before, could be dropped before they were read.
+        process.toHandle().destroyForcibly();
         for (ProcessHandle descendant : tree) {
             descendant.destroyForcibly();
         }
         waitFor(5000);
+        stderr.awaitEnd(1000);
+        closeQuietly(process.getOutputStream());
+        closeQuietly(process.getInputStream());
+        closeQuietly(process.getErrorStream());
         ProcessLauncher.unregister(this);
     }
 
@@ -164,5 +170,13 @@ public final class ChildProcess implements AutoCloseable {
     @Override
     public void close() {
         kill();
+    }
+
+    private static void closeQuietly(java.io.Closeable stream) {
+        try {
+            stream.close();
+        } catch (java.io.IOException e) {
+            // the program is gone; nothing more can be read or written
+        }
     }
 }
