@@ -7,7 +7,6 @@ import java.awt.geom.Rectangle2D;
 import java.awt.image.BufferedImage;
 import java.io.IOException;
 import java.nio.file.Path;
-import javax.imageio.ImageIO;
 import org.jfree.svg.SVGGraphics2D;
 import org.skerry.cli.output.AtomicFile;
 
@@ -42,7 +41,7 @@ final class FigureFile {
             java.util.Map<String, String> svgAttributes) throws IOException {
         BufferedImage image = bitmap(width, height, drawing);
         String png = name + ".png";
-        AtomicFile.write(folder.resolve(png), out -> ImageIO.write(image, "png", out));
+        AtomicFile.write(folder.resolve(png), out -> PngFile.write(image, out));
         SVGGraphics2D svg = new SVGGraphics2D(width, height);
         // The default prefix holds the clock; a fixed one makes the same figure the same bytes.
         svg.setDefsKeyPrefix(name + "-");

@@ -4,7 +4,6 @@ import java.awt.geom.Rectangle2D;
 import java.awt.image.BufferedImage;
 import java.io.OutputStream;
 import java.util.concurrent.atomic.AtomicBoolean;
-import javax.imageio.ImageIO;
 import org.jfree.chart.JFreeChart;
 import org.jfree.chart.axis.NumberAxis;
 import org.jfree.chart.plot.XYPlot;
@@ -16,7 +15,7 @@ import org.jfree.svg.SVGGraphics2D;
 
 /**
  * Loads and initialises, in a background thread while a run starts, what the run's report will
- * draw with: Java 2D, the font system, JFreeChart, the PNG encoder and JFreeSVG. The first
+ * draw with: Java 2D, the font system, JFreeChart, the PNG encoder (the deflater) and JFreeSVG. The first
  * report in a JVM otherwise pays for that set-up after the sampling, on the run's critical path;
  * during a run's start-up (mostly one thread loading classes) a second core is idle and the same
  * set-up costs no wall time. It draws a throw-away chart into memory and writes no file, so the
@@ -59,7 +58,7 @@ public final class ReportWarmup {
             int width = 300;
             int height = 200;
             BufferedImage image = FigureFile.bitmap(width, height, chart::draw);
-            ImageIO.write(image, "png", OutputStream.nullOutputStream());
+            PngFile.write(image, OutputStream.nullOutputStream());
             SVGGraphics2D svg = new SVGGraphics2D(width, height);
             svg.setDefsKeyPrefix("warmup-");
             chart.draw(svg, new Rectangle2D.Double(0, 0, width, height));
