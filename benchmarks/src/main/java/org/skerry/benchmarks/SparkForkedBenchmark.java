@@ -33,10 +33,10 @@ import org.skerry.engine.temper.FixedSchedule;
         "--add-opens=java.base/sun.security.action=ALL-UNNAMED",
         "--add-opens=java.base/sun.util.calendar=ALL-UNNAMED",
         "--add-opens=java.security.jgss/sun.security.krb5=ALL-UNNAMED",
-        "-Djdk.reflect.useDirectMethodHandle=false",
         "-Dio.netty.tryReflectionSetAccessible=true",
         "-Dio.netty.allocator.type=pooled",
         "-Dio.netty.handler.ssl.defaultEndpointVerificationAlgorithm=NONE",
+        "--sun-misc-unsafe-memory-access=allow",
         "--enable-native-access=ALL-UNNAMED"})
 @State(Scope.Benchmark)
 public abstract class SparkForkedBenchmark {

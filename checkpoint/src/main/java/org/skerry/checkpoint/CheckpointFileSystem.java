@@ -20,7 +20,7 @@ import org.apache.hadoop.fs.RawLocalFileSystem;
  *
  * <p>The local file system ({@code file:} URIs and plain paths) is opened directly, not through
  * {@link FileSystem#get}: that goes through Hadoop's file-system cache, whose key asks
- * {@code UserGroupInformation} for the current user, and Hadoop 3.4.2 does that with
+ * {@code UserGroupInformation} for the current user, and Hadoop's client (seen with 3.4.2) does that with
  * {@code Subject.getSubject}, which Java 23 and newer refuse ("getSubject is not supported").
  * The raw local file system needs no user, so checkpoints on local or shared folders work on every
  * Java skerry supports; the bytes written are the same either way. Other schemes (HDFS, S3 …)

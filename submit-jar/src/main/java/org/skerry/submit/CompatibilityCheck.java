@@ -20,7 +20,7 @@ public final class CompatibilityCheck {
     private final int builtJava;
 
     /**
-     * @param builtSpark       the Spark version the jar was built against, e.g. "4.1.1"
+     * @param builtSpark       the Spark version the jar was built against, e.g. "4.2.0"
      * @param builtScalaBinary its Scala binary version, e.g. "2.13"
      * @param builtJava        the Java release it was compiled for, e.g. 17
      */
@@ -30,7 +30,7 @@ public final class CompatibilityCheck {
         this.builtJava = builtJava;
     }
 
-    /** The line a user reads for what the jar needs, e.g. "Spark 4.1.x, Scala 2.13, Java 17 or newer". */
+    /** The line a user reads for what the jar needs, e.g. "Spark 4.2.x, Scala 2.13, Java 17 or newer". */
     public String needs() {
         return "Spark " + majorMinor(builtSpark) + ".x, Scala " + builtScalaBinary + ", Java " + builtJava + " or newer";
     }
@@ -39,7 +39,7 @@ public final class CompatibilityCheck {
      * What is wrong with the versions found, one line each; empty when they fit.
      *
      * @param spark the running Spark's version, or null when no Spark is on the class path
-     * @param scala the running Scala library's version, e.g. "2.13.17", or null when absent
+     * @param scala the running Scala library's version, e.g. "2.13.18", or null when absent
      * @param java  the running Java's version ({@code java.specification.version}), e.g. "17"
      */
     public List<String> problems(String spark, String scala, String java) {
@@ -63,7 +63,7 @@ public final class CompatibilityCheck {
         return problems;
     }
 
-    /** "4.1" of "4.1.1" (or of "4.1.1-SNAPSHOT"); the whole text when it does not start with numbers. */
+    /** "4.2" of "4.2.0" (or of "4.2.0-SNAPSHOT"); the whole text when it does not start with numbers. */
     static String majorMinor(String version) {
         Matcher m = LEADING_NUMBERS.matcher(version.strip());
         if (!m.find()) {

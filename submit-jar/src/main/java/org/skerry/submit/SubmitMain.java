@@ -3,6 +3,7 @@ package org.skerry.submit;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.PrintStream;
+import java.io.PrintWriter;
 import java.util.List;
 import java.util.Properties;
 import org.skerry.cli.SkerryCommand;
@@ -26,7 +27,13 @@ public final class SubmitMain {
         if (code != 0) {
             System.exit(code);
         }
-        SkerryCommand.main(args);
+        int exit = SkerryCommand.execute(args, new PrintWriter(System.out, true), new PrintWriter(System.err, true));
+        // Return normally on success: under YARN in cluster mode the application master reports a
+        // driver that calls System.exit, even with 0, as FAILED ("Shutdown hook called before final
+        // status was reported"). A failure still exits with its code, which YARN reports.
+        if (exit != 0) {
+            System.exit(exit);
+        }
     }
 
     /** Prints what is wrong to {@code err} and returns the exit code (0 when the versions fit). */
