@@ -13,7 +13,8 @@
 # Settings: RATE (1gbit), DELAY (0.2ms; 0 where the kernel has no netem), CLUSTER_DIR
 #   (benchmarks/target/network), WORKER_MEMORY (3500m), EXECUTOR_MEMORY (3g), DRIVER_HEAP (6g),
 #   ROUNDS (2), WARMUP (1), PARTICLES_10US (1000000), PARTICLES_1MS (100000),
-#   TEMPERATURES_1MS (4), STEPS_1MS (2).
+#   TEMPERATURES_1MS (4), STEPS_1MS (2), VARIANTS (spark,naive: the first is the base of the ratios
+#   and runs first in round 0).
 set -euo pipefail
 cd "$(dirname "${BASH_SOURCE[0]}")/.."
 
@@ -64,7 +65,7 @@ comparison() {  # OUTPUT-NAME KEY=VALUE...
   shift
   # /proc/$$/net/dev: this shell stays in the root namespace, where the bridge ends of the links are.
   run "$out" java -Xmx"${DRIVER_HEAP:-6g}" "${opts[@]}" -cp benchmarks/target/benchmarks.jar \
-    org.skerry.benchmarks.InterleavedComparison variants=spark,naive master="spark://$subnet.1:$port" \
+    org.skerry.benchmarks.InterleavedComparison variants="${VARIANTS:-spark,naive}" master="spark://$subnet.1:$port" \
     executorMemory="$executor_memory" links="$links" netDev="/proc/$$/net/dev" rounds="$rounds" warmup="$warmup" "$@"
 }
 
