@@ -33,7 +33,8 @@ import org.skerry.spark.SparkBackend;
  * <p>Usage: {@code InterleavedComparison variants=bare,threads,spark particles=4000 dimension=2
  * costMicros=1000 rounds=3 warmup=1 threads=2 temperatures=4 steps=2 partitions=0}; {@code master=}
  * {@code local-cluster[…]} or {@code spark://…} (then {@code executorMemory=1g}) for executors in JVMs
- * of their own.
+ * of their own. {@code links=sk-d,sk-w1,sk-w2 netDev=/proc/PID/net/dev} prints the bytes each
+ * run moved over those interfaces ({@link LinkBytes}).
  */
 public final class InterleavedComparison {
 
@@ -105,6 +106,10 @@ public final class InterleavedComparison {
             }
         }
 
+        LinkBytes links = options.containsKey("links")
+                ? new LinkBytes(java.nio.file.Path.of(options.getOrDefault("netDev", "/proc/net/dev")),
+                        List.of(options.get("links").split(",")))
+                : null;
         Map<String, List<Double>> ratios = new LinkedHashMap<>();
         Map<String, List<Double>> times = new LinkedHashMap<>();
         Map<String, PhaseTotals> phases = new LinkedHashMap<>();
@@ -120,6 +125,7 @@ public final class InterleavedComparison {
                 int shift = Math.floorMod(round, variants.size());
                 for (int k = 0; k < variants.size(); k++) {
                     String variant = variants.get((k + shift) % variants.size());
+                    Map<String, long[]> bytesBefore = links == null ? null : links.read();
                     long start = System.nanoTime();
                     long cpuStart = processCpuNanos();
                     SamplerResult result = variant.equals("bare") ? null : sample(backends.get(variant));
@@ -132,6 +138,9 @@ public final class InterleavedComparison {
                     String label = round < 0 ? "warmup" : "round " + round;
                     System.out.printf(Locale.ROOT, "%s %s: %.3f s wall, %.3f s CPU of this JVM; load average %s%n",
                             label, variant, seconds, cpu, loadAverage());
+                    if (links != null) {
+                        System.out.println("  " + LinkBytes.describe(bytesBefore, links.read()));
+                    }
                     if (result != null) {
                         double z = result.evidence().logEvidence();
                         if (logEvidence != null && Double.compare(logEvidence, z) != 0) {

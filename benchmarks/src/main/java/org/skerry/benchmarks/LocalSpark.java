@@ -83,12 +83,33 @@ final class LocalSpark {
         }
     }
 
-    /** A Spark backend on {@code master}, driver bound to 127.0.0.1, after checking the JVM options. */
+    /**
+     * A Spark backend on {@code master}, after checking the JVM options. The driver binds to
+     * {@code SPARK_LOCAL_IP} when set (a driver in a network namespace of its own, started by
+     * {@code deploy/loopback-cluster exec}), to 127.0.0.1 otherwise; a secret file named by
+     * {@code SKERRY_SPARK_SECRET_FILE} turns on authentication against a standalone master.
+     */
     static SparkBackend start(String master, int partitions, Map<String, String> extra) {
         requireModuleOptions();
+        String address = System.getenv("SPARK_LOCAL_IP");
+        if (address == null || address.isBlank()) {
+            address = "127.0.0.1";
+        }
         Map<String, String> settings = new java.util.HashMap<>(Map.of(
-                "spark.driver.host", "127.0.0.1",
-                "spark.driver.bindAddress", "127.0.0.1"));
+                "spark.driver.host", address,
+                "spark.driver.bindAddress", address));
+        String secretFile = System.getenv("SKERRY_SPARK_SECRET_FILE");
+        if (master.startsWith("spark://") && secretFile != null && !secretFile.isBlank()) {
+            try {
+                // In the settings, not on the command line, where every user could read it.
+                settings.put("spark.authenticate", "true");
+                settings.put("spark.authenticate.secret", java.nio.file.Files.readString(
+                        java.nio.file.Path.of(secretFile)).strip());
+            } catch (IOException e) {
+                throw new UncheckedIOException("cannot read the secret file " + secretFile
+                        + " named by SKERRY_SPARK_SECRET_FILE", e);
+            }
+        }
         settings.putAll(extra);
         return SparkBackend.start(master, "skerry-benchmark", partitions, settings);
     }
