@@ -19,14 +19,16 @@ public final class SparkBackend implements PopulationBackend {
 
     private final JavaSparkContext context;
     private final int partitions;
+    private final TaskGrouping grouping;
     private final boolean ownsContext;
 
-    private SparkBackend(JavaSparkContext context, int partitions, boolean ownsContext) {
+    private SparkBackend(JavaSparkContext context, int partitions, TaskGrouping grouping, boolean ownsContext) {
         if (partitions < 0) {
             throw new IllegalArgumentException("partitions must be >= 0, was " + partitions);
         }
         this.context = context;
         this.partitions = partitions;
+        this.grouping = java.util.Objects.requireNonNull(grouping, "grouping");
         this.ownsContext = ownsContext;
     }
 
@@ -45,12 +47,17 @@ public final class SparkBackend implements PopulationBackend {
                 .set("spark.ui.enabled", "false")
                 .set("spark.ui.showConsoleProgress", "false");
         extra.forEach(conf::set);
-        return new SparkBackend(new JavaSparkContext(conf), partitions, true);
+        return new SparkBackend(new JavaSparkContext(conf), partitions, TaskGrouping.perBlock(), true);
     }
 
     /** A backend on an existing context, which the caller keeps and stops. */
     public static SparkBackend on(JavaSparkContext context, int partitions) {
-        return new SparkBackend(context, partitions, false);
+        return new SparkBackend(context, partitions, TaskGrouping.perBlock(), false);
+    }
+
+    /** A backend on an existing context, which the caller keeps and stops, with blocks grouped into tasks. */
+    public static SparkBackend on(JavaSparkContext context, int partitions, TaskGrouping grouping) {
+        return new SparkBackend(context, partitions, grouping, false);
     }
 
     public JavaSparkContext context() {
@@ -66,7 +73,7 @@ public final class SparkBackend implements PopulationBackend {
     @Override
     public String description() {
         return "spark(" + context.master() + ", " + (partitions > 0 ? partitions + " partitions" : "3 partitions per core")
-                + ")";
+                + ", " + grouping + ")";
     }
 
     @Override
@@ -80,7 +87,7 @@ public final class SparkBackend implements PopulationBackend {
         }
         checkSerialisable(source);
         return new SparkBlocks(context, source, source.create().dimension(),
-                blocks > 0 ? blocks : partitionsFor(particles));
+                blocks > 0 ? blocks : partitionsFor(particles), grouping);
     }
 
     private static void checkSerialisable(ModelSource source) {
