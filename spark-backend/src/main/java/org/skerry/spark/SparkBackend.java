@@ -40,6 +40,16 @@ public final class SparkBackend implements PopulationBackend {
      * @param extra      further Spark settings ({@code spark.*} keys), applied last
      */
     public static SparkBackend start(String master, String appName, int partitions, Map<String, String> extra) {
+        return start(master, appName, partitions, TaskGrouping.perBlock(), extra);
+    }
+
+    /**
+     * As {@link #start(String, String, int, Map)}, blocks grouped into tasks by {@code grouping}
+     * (per executor: set {@code spark.task.cpus} in {@code extra} to the executors' cores, so that
+     * each task gets an executor's cores to spread over its blocks).
+     */
+    public static SparkBackend start(String master, String appName, int partitions, TaskGrouping grouping,
+            Map<String, String> extra) {
         SparkConf conf = new SparkConf().setMaster(master).setAppName(appName)
                 .set("spark.serializer", "org.apache.spark.serializer.KryoSerializer")
                 .set("spark.kryo.registrator", SkerryKryoRegistrator.class.getName())
@@ -47,7 +57,7 @@ public final class SparkBackend implements PopulationBackend {
                 .set("spark.ui.enabled", "false")
                 .set("spark.ui.showConsoleProgress", "false");
         extra.forEach(conf::set);
-        return new SparkBackend(new JavaSparkContext(conf), partitions, TaskGrouping.perBlock(), true);
+        return new SparkBackend(new JavaSparkContext(conf), partitions, grouping, true);
     }
 
     /** A backend on an existing context, which the caller keeps and stops. */
