@@ -25,9 +25,10 @@ import org.skerry.spark.TaskGrouping;
  * sampling loop against the exact ideal (busy work counted by {@link CountedBusySource} ÷ cores),
  * and Spark's own per-task metrics per iteration ({@link TaskCosts}). Local mode only.
  *
- * <p>Usage: {@code TaskCostStudy variants=threads,blocks:8,blocks:512,executors:8,executors:512
+ * <p>Usage: {@code TaskCostStudy variants=bare,threads,blocks:8,blocks:512,executors:8,executors:512
  * particles=100000 dimension=2 costMicros=0 slowFraction=0 slowFactor=20 temperatures=8 steps=2
- * cores=2 rounds=2 warmup=1 detail=true}. A variant is {@code threads}, {@code blocks:P} (a Spark
+ * cores=2 rounds=2 warmup=1 detail=true}. A variant is {@code bare} (the likelihood calls alone, split
+ * over the cores: {@link BareLoop}), {@code threads}, {@code blocks:P} (a Spark
  * task per block) or {@code executors:P[:G]} (G tasks of consecutive blocks, worked through by
  * threads; G = 0 means one per executor).
  */
@@ -60,9 +61,13 @@ public final class TaskCostStudy {
         System.out.printf(Locale.ROOT, "settings: %s; java %s; %d processors; load average %s%n", options,
                 System.getProperty("java.version"), Runtime.getRuntime().availableProcessors(), load());
 
+        Map<String, List<Double>> walls = new LinkedHashMap<>();
+        java.util.concurrent.ExecutorService barePool = java.util.concurrent.Executors.newFixedThreadPool(cores);
+        long evaluations = (long) particles * (1 + (long) temperatures * steps);
         Map<String, List<Double>> perIteration = new LinkedHashMap<>();
         Map<String, List<Double>> toIdeal = new LinkedHashMap<>();
         variants.forEach(v -> {
+            walls.put(v, new ArrayList<>());
             perIteration.put(v, new ArrayList<>());
             toIdeal.put(v, new ArrayList<>());
         });
@@ -75,6 +80,19 @@ public final class TaskCostStudy {
                 CountedBusySource.reset();
                 String loadBefore = load();
                 SamplerResult result;
+                long started = System.nanoTime();
+                if (variant.equals("bare")) {
+                    BareLoop.run(barePool, cores, evaluations, (long) cost);
+                    double wall = (System.nanoTime() - started) * 1e-9;
+                    System.out.printf(Locale.ROOT, "%s bare: wall %.3f s (%d evaluations at %.0f us, no stragglers); "
+                            + "load %s -> %s%n", round < 0 ? "warmup" : "round " + round, wall, evaluations, cost,
+                            loadBefore, load());
+                    if (round >= 0) {
+                        walls.get(variant).add(wall);
+                        perIteration.get(variant).add(wall);
+                    }
+                    continue;
+                }
                 if (variant.equals("threads")) {
                     try (ThreadPoolBackend backend = new ThreadPoolBackend(cores, 0)) {
                         result = new SmcSampler(settings).run(source, backend, r -> { });
@@ -82,6 +100,7 @@ public final class TaskCostStudy {
                 } else {
                     result = onSpark(variant, cores, settings, source, costs);
                 }
+                double wall = (System.nanoTime() - started) * 1e-9;
                 double z = result.evidence().logEvidence();
                 if (logEvidence != null && Double.compare(logEvidence, z) != 0) {
                     throw new IllegalStateException("log evidence differs: " + logEvidence + " vs " + z + " (" + variant
@@ -98,9 +117,9 @@ public final class TaskCostStudy {
                 int iterations = Math.max(1, result.iterations().size() - 1);
                 double ideal = source.workMicros() * 1e-6 / cores;
                 String label = round < 0 ? "warmup" : "round " + round;
-                System.out.printf(Locale.ROOT, "%s %s: loop %.4f s/iteration over %d iterations; sampling %.3f s, "
-                        + "ideal %.3f s (%d evaluations, %d slow), ratio %.4f; load %s -> %s%n", label, variant,
-                        loop / iterations, iterations, all, ideal, CountedBusySource.EVALUATIONS.sum(),
+                System.out.printf(Locale.ROOT, "%s %s: wall %.3f s; loop %.4f s/iteration over %d iterations; "
+                        + "sampling %.3f s, ideal %.3f s (%d evaluations, %d slow), ratio %.4f; load %s -> %s%n", label,
+                        variant, wall, loop / iterations, iterations, all, ideal, CountedBusySource.EVALUATIONS.sum(),
                         CountedBusySource.SLOW.sum(), ideal > 0 ? all / ideal : Double.NaN, loadBefore, load());
                 if (!variant.equals("threads")) {
                     double[] m = costs.loopMeans();
@@ -111,6 +130,7 @@ public final class TaskCostStudy {
                     }
                 }
                 if (round >= 0) {
+                    walls.get(variant).add(wall);
                     perIteration.get(variant).add(loop / iterations);
                     if (ideal > 0) {
                         toIdeal.get(variant).add(all / ideal);
@@ -118,16 +138,20 @@ public final class TaskCostStudy {
                 }
             }
         }
+        barePool.shutdownNow();
         System.out.println();
         System.out.println("summary over " + rounds + " rounds (log evidence " + logEvidence + " in every run):");
         String first = variants.get(0);
         for (String variant : variants) {
             List<Double> ratios = new ArrayList<>();
+            List<Double> wallRatios = new ArrayList<>();
             for (int r = 0; r < rounds; r++) {
                 ratios.add(perIteration.get(variant).get(r) / perIteration.get(first).get(r));
+                wallRatios.add(walls.get(variant).get(r) / walls.get(first).get(r));
             }
-            System.out.printf(Locale.ROOT, "  %-16s loop s/iteration %s; paired ratio to %s %s; sampling / ideal %s%n",
-                    variant, range(perIteration.get(variant)), first, range(ratios), range(toIdeal.get(variant)));
+            System.out.printf(Locale.ROOT, "  %-16s loop s/iteration %s; paired ratio to %s %s; wall s %s, paired wall "
+                    + "ratio %s; sampling / ideal %s%n", variant, range(perIteration.get(variant)), first, range(ratios),
+                    range(walls.get(variant)), range(wallRatios), range(toIdeal.get(variant)));
         }
     }
 

@@ -148,6 +148,11 @@ final class SparkBlocks implements BlockExecutor {
     private static PartitionState applyTo(int firstBlock, PartitionState state, BlockStep<?> step,
             Broadcast<ModelShipment> model, int workers, boolean readOnly) {
         int count = state.blocks.length;
+        if (workers > 1 && count > 1) {
+            // Built (once per JVM) on the task's own thread, where Spark's task context is set: a
+            // model that cannot be built fails here, as it would with a task per block.
+            ModelCache.get(model.value().source);
+        }
         ParticleBlock[] next = new ParticleBlock[count];
         Object[] reports = new Object[count];
         GroupWork.run(count, workers, i -> {
