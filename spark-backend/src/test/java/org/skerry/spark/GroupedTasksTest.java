@@ -135,22 +135,26 @@ class GroupedTasksTest {
         }
     }
 
+    /** Threads seen working blocks (local mode: the executor is this JVM). */
+    private static final Map<String, Boolean> SEEN = new ConcurrentHashMap<>();
+
     @Test
     @DisplayName("blocks of a group run on two threads at once, and a failing block fails the step with its message")
     void threadsAndFailures() {
-        Map<String, Boolean> threads = new ConcurrentHashMap<>();
         try (BlockExecutor blocks = SparkBackend.on(context, 6, TaskGrouping.perExecutor(1)).open(SOURCE, 60, 6)) {
             blocks.create(new long[] {0, 10, 20, 30, 40, 50}, new int[] {10, 10, 10, 10, 10, 10}, cursor -> null);
+            SEEN.clear();
             List<String> names = blocks.read(cursor -> {
-                try {
-                    Thread.sleep(200); // long enough that the second thread takes a block before the first is done
-                } catch (InterruptedException e) {
-                    Thread.currentThread().interrupt();
+                SEEN.put(Thread.currentThread().getName(), true);
+                // Hold each block until a second thread has taken one (or 30 s pass): a helper that
+                // never started would leave the first thread to work every block alone.
+                long end = System.nanoTime() + 30_000_000_000L;
+                while (SEEN.size() < 2 && System.nanoTime() < end) {
+                    Thread.onSpinWait();
                 }
                 return Thread.currentThread().getName();
             });
-            names.forEach(name -> threads.put(name, true));
-            assertEquals(2, threads.size(), "two threads worked the group: " + names);
+            assertEquals(2, new java.util.HashSet<>(names).size(), "two threads worked the group: " + names);
             Exception e = assertThrows(Exception.class, () -> blocks.read(cursor -> {
                 if (cursor.number() == 4) {
                     throw new IllegalStateException("block four is broken");
