@@ -34,7 +34,7 @@ one per partition, so beta P becomes
                                               and the per-block work inside the executors (parallel)
 
 with C = 8 cores per executor (assumed) and beta_block the slope of loop time per iteration
-against P with tasks per executor (coarse-tasks-blocks-repeat.txt: P = 512 against P = 8 on
+against P with tasks per executor (coarse-tasks-blocks-repeat-run1.txt: P = 512 against P = 8 on
 2 cores; the mean difference was within its noise, so the bound mean + 2 standard errors of the
 paired differences is used, times the 2 cores, as executor time per block). Imbalance between
 executors: ceil(N / E) / (N / E) - 1 for E executors; inside one, threads take blocks as they
@@ -77,7 +77,7 @@ def fit(points):
 def block_slope(folder):
     """Executor seconds per block and iteration with tasks per executor: an upper bound (see above)."""
     loops = {}
-    with open(os.path.join(folder, "coarse-tasks-blocks-repeat.txt")) as f:
+    with open(os.path.join(folder, "coarse-tasks-blocks-repeat-run1.txt")) as f:
         for line in f:
             if line.startswith("round "):
                 variant = line.split()[2].rstrip(":")
