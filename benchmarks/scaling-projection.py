@@ -26,6 +26,19 @@ assumed (not measured; local mode has no network):
   L = 0.5 ms per job round trip, B = 1 GB/s into the driver (10 Gb/s Ethernet)
   imbalance = ceil(N/P) / (N/P) - 1 (partitions differ by at most one particle; three per core)
 Efficiency E(k) = T(1) / (k T(k)). It ignores stragglers, executor loss, and heterogeneous nodes.
+
+Tasks per executor (backend.tasks = per-executor, issue 17): a step is one task per executor, not
+one per partition, so beta P becomes
+
+  beta k / C + beta_block P / k               Spark's per-task cost for k / C executors of C cores,
+                                              and the per-block work inside the executors (parallel)
+
+with C = 8 cores per executor (assumed) and beta_block the slope of loop time per iteration
+against P with tasks per executor (coarse-tasks-blocks-repeat-run1.txt: P = 512 against P = 8 on
+2 cores; the mean difference was within its noise, so the bound mean + 2 standard errors of the
+paired differences is used, times the 2 cores, as executor time per block). Imbalance between
+executors: ceil(N / E) / (N / E) - 1 for E executors; inside one, threads take blocks as they
+free up.
 """
 import csv
 import math
@@ -61,6 +74,20 @@ def fit(points):
     return slope, my - slope * mx
 
 
+def block_slope(folder):
+    """Executor seconds per block and iteration with tasks per executor: an upper bound (see above)."""
+    loops = {}
+    with open(os.path.join(folder, "coarse-tasks-blocks-repeat-run1.txt")) as f:
+        for line in f:
+            if line.startswith("round "):
+                variant = line.split()[2].rstrip(":")
+                loops.setdefault(variant, []).append(float(line.split("loop ")[1].split()[0]))
+    d = [b - a for a, b in zip(loops["executors:8"], loops["executors:512"])]
+    mean = sum(d) / len(d)
+    se = math.sqrt(sum((x - mean) ** 2 for x in d) / (len(d) - 1) / len(d))
+    return max(0.0, mean + 2 * se) * 2 / (512 - 8), mean, se
+
+
 def main():
     folder = sys.argv[1] if len(sys.argv) > 1 else os.path.join(os.path.dirname(__file__), "results")
     particles = rows(folder, "driver-cost-particles")
@@ -77,23 +104,37 @@ def main():
     alpha = max(0.0, intercept - 8 * beta)
     e = max(0.0, 2 * gamma - delta_fixed)
     jobs, latency, bandwidth, steps = 8, 0.5e-3, 1e9, 2
+    beta_block, block_mean, block_se = block_slope(folder)
+    cores_per_executor = 8
+    print("tasks per executor: loop(P = 512) - loop(P = 8) = %.3f +- %.3f s per iteration (mean, standard error); "
+          "beta_block <= %.3g executor s per block and iteration; C = %d cores per executor (assumed)"
+          % (block_mean, block_se, beta_block, cores_per_executor))
     print("measured: delta = %.3g s/particle (driver, adaptive tempering; fixed schedule %.3g), e = %.3g s/particle (executor, one core), "
           "beta = %.3g s/partition, alpha = %.3g s per iteration" % (delta, delta_fixed, e, beta, alpha))
 
-    def iteration(k, n, c, per_core):
+    def iteration(k, n, c, per_core, grouped=False):
         p = per_core * k
-        imbalance = math.ceil(n / p) / (n / p) - 1
-        return (n * steps * c / k * (1 + imbalance) + e * n / k + delta * n + alpha + beta * p
+        if grouped:
+            executors = max(1, k // cores_per_executor)
+            imbalance = math.ceil(n / executors) / (n / executors) - 1
+            tasks = beta * executors + beta_block * p / k
+        else:
+            imbalance = math.ceil(n / p) / (n / p) - 1
+            tasks = beta * p
+        return (n * steps * c / k * (1 + imbalance) + e * n / k + delta * n + alpha + tasks
                 + jobs * latency + 16 * n / bandwidth)
 
-    for per_core, title, size in (
-            (3, "strong scaling, N = 100 000 particles", lambda k: 100_000),
-            (3, "weak scaling, N = 1 000 particles per core", lambda k: 1000 * k),
-            (1, "strong scaling, N = 100 000 particles", lambda k: 100_000),
-            (1, "weak scaling, N = 1 000 particles per core", lambda k: 1000 * k)):
+    for per_core, grouped, title, size in (
+            (3, False, "strong scaling, N = 100 000 particles", lambda k: 100_000),
+            (3, False, "weak scaling, N = 1 000 particles per core", lambda k: 1000 * k),
+            (1, False, "strong scaling, N = 100 000 particles", lambda k: 100_000),
+            (1, False, "weak scaling, N = 1 000 particles per core", lambda k: 1000 * k),
+            (3, True, "strong scaling, N = 100 000 particles", lambda k: 100_000),
+            (3, True, "weak scaling, N = 1 000 particles per core", lambda k: 1000 * k)):
         print()
         print("PROJECTION (not measured): parallel efficiency, " + title + ", R = %d MH steps, "
-              "%d partition(s) per core" % (steps, per_core))
+              "%d partition(s) per core, %s" % (steps, per_core, "a task per executor of %d cores"
+                                                % cores_per_executor if grouped else "a task per partition"))
         print("| likelihood cost | 64 cores | 256 cores | 1024 cores |")
         print("|---|---|---|---|")
         for label, c in (("1 ms", 1e-3), ("10 ms", 1e-2), ("1 s", 1.0)):
@@ -101,9 +142,9 @@ def main():
             for k in (64, 256, 1024):
                 n = size(k)
                 if size(1) == size(k):
-                    eff = iteration(1, n, c, per_core) / (k * iteration(k, n, c, per_core))
+                    eff = iteration(1, n, c, per_core, grouped) / (k * iteration(k, n, c, per_core, grouped))
                 else:
-                    eff = iteration(1, size(1), c, per_core) / iteration(k, n, c, per_core)
+                    eff = iteration(1, size(1), c, per_core, grouped) / iteration(k, n, c, per_core, grouped)
                 cells.append("%.3f" % eff)
             print("| %s | %s |" % (label, " | ".join(cells)))
 

@@ -54,6 +54,7 @@ public final class SkerryKryoRegistrator implements KryoRegistrator {
         kryo.register(long[].class);
         kryo.register(long[][].class);
         kryo.register(int[].class);
+        kryo.register(boolean[].class);
         kryo.register(Object[].class);
         kryo.register(ParticleBlock[].class);
         kryo.register(StoredBlock.class);

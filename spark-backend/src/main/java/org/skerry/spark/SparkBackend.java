@@ -19,14 +19,16 @@ public final class SparkBackend implements PopulationBackend {
 
     private final JavaSparkContext context;
     private final int partitions;
+    private final TaskGrouping grouping;
     private final boolean ownsContext;
 
-    private SparkBackend(JavaSparkContext context, int partitions, boolean ownsContext) {
+    private SparkBackend(JavaSparkContext context, int partitions, TaskGrouping grouping, boolean ownsContext) {
         if (partitions < 0) {
             throw new IllegalArgumentException("partitions must be >= 0, was " + partitions);
         }
         this.context = context;
         this.partitions = partitions;
+        this.grouping = java.util.Objects.requireNonNull(grouping, "grouping");
         this.ownsContext = ownsContext;
     }
 
@@ -38,6 +40,16 @@ public final class SparkBackend implements PopulationBackend {
      * @param extra      further Spark settings ({@code spark.*} keys), applied last
      */
     public static SparkBackend start(String master, String appName, int partitions, Map<String, String> extra) {
+        return start(master, appName, partitions, TaskGrouping.perBlock(), extra);
+    }
+
+    /**
+     * As {@link #start(String, String, int, Map)}, blocks grouped into tasks by {@code grouping}
+     * (per executor: set {@code spark.task.cpus} in {@code extra} to the executors' cores, so that
+     * each task gets an executor's cores to spread over its blocks).
+     */
+    public static SparkBackend start(String master, String appName, int partitions, TaskGrouping grouping,
+            Map<String, String> extra) {
         SparkConf conf = new SparkConf().setMaster(master).setAppName(appName)
                 .set("spark.serializer", "org.apache.spark.serializer.KryoSerializer")
                 .set("spark.kryo.registrator", SkerryKryoRegistrator.class.getName())
@@ -45,12 +57,17 @@ public final class SparkBackend implements PopulationBackend {
                 .set("spark.ui.enabled", "false")
                 .set("spark.ui.showConsoleProgress", "false");
         extra.forEach(conf::set);
-        return new SparkBackend(new JavaSparkContext(conf), partitions, true);
+        return new SparkBackend(new JavaSparkContext(conf), partitions, grouping, true);
     }
 
     /** A backend on an existing context, which the caller keeps and stops. */
     public static SparkBackend on(JavaSparkContext context, int partitions) {
-        return new SparkBackend(context, partitions, false);
+        return new SparkBackend(context, partitions, TaskGrouping.perBlock(), false);
+    }
+
+    /** A backend on an existing context, which the caller keeps and stops, with blocks grouped into tasks. */
+    public static SparkBackend on(JavaSparkContext context, int partitions, TaskGrouping grouping) {
+        return new SparkBackend(context, partitions, grouping, false);
     }
 
     public JavaSparkContext context() {
@@ -66,7 +83,7 @@ public final class SparkBackend implements PopulationBackend {
     @Override
     public String description() {
         return "spark(" + context.master() + ", " + (partitions > 0 ? partitions + " partitions" : "3 partitions per core")
-                + ")";
+                + ", " + grouping + ")";
     }
 
     @Override
@@ -80,7 +97,7 @@ public final class SparkBackend implements PopulationBackend {
         }
         checkSerialisable(source);
         return new SparkBlocks(context, source, source.create().dimension(),
-                blocks > 0 ? blocks : partitionsFor(particles));
+                blocks > 0 ? blocks : partitionsFor(particles), grouping);
     }
 
     private static void checkSerialisable(ModelSource source) {

@@ -1,6 +1,7 @@
 package org.skerry.spark;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Iterator;
 import java.util.List;
 import java.util.function.Consumer;
@@ -23,12 +24,13 @@ import org.skerry.engine.resample.Redistribution;
 import scala.Tuple2;
 
 /**
- * A population's blocks held by Spark: a cached RDD with one {@link ParticleBlock} per partition.
- * Each step is one job that maps the cached states to new ones and collects their typed results;
- * the states it replaces are dropped once that job has computed the new ones. An exchange of
- * particles between partitions is only defined, and computed (with its shuffle) by the next job;
- * its result is not cached, since that job's own result is.
- * The model source reaches each executor once, as a broadcast.
+ * A population's blocks held by Spark: a cached RDD whose partitions each hold a group of
+ * consecutive blocks ({@link TaskGrouping}: one block, or a group per executor worked through by
+ * threads). Each step is one job that maps the cached states to new ones and collects their typed
+ * results, in block order; the states it replaces are dropped once that job has computed the new
+ * ones. An exchange of particles between blocks is only defined, and computed (with its shuffle,
+ * which carries only the runs that leave their group) by the next job; its result is not cached,
+ * since that job's own result is. The model source reaches each executor once, as a broadcast.
  */
 final class SparkBlocks implements BlockExecutor {
 
@@ -37,21 +39,45 @@ final class SparkBlocks implements BlockExecutor {
     private final JavaSparkContext context;
     private final Broadcast<ModelShipment> source;
     private final int dimension;
-    private int partitions;
-    private JavaRDD<PartitionState<?>> states;
+    private final TaskGrouping grouping;
+    /** Threads a task works its group with: spark.task.cpus when grouped, else 1. */
+    private final int threads;
+    private int blocks;
+    /** Group starts in block numbers, then the block count ({@link TaskGrouping#starts}). */
+    private int[] starts;
+    private JavaRDD<PartitionState> states;
     /** States that {@link #states} was defined from, dropped once a job has computed it. */
-    private final List<JavaRDD<PartitionState<?>>> replaced = new ArrayList<>();
+    private final List<JavaRDD<PartitionState>> replaced = new ArrayList<>();
 
-    SparkBlocks(JavaSparkContext context, ModelSource source, int dimension, int partitions) {
+    SparkBlocks(JavaSparkContext context, ModelSource source, int dimension, int blocks, TaskGrouping grouping) {
         this.context = context;
         this.source = context.broadcast(new ModelShipment(source));
         this.dimension = dimension;
-        this.partitions = partitions;
+        this.grouping = grouping;
+        this.threads = grouping.isPerBlock() ? 1 : Math.max(1, context.getConf().getInt("spark.task.cpus", 1));
+        regroup(blocks);
+    }
+
+    /** Groups for {@code count} blocks: as many as Spark runs tasks at once when grouped per executor. */
+    private void regroup(int count) {
+        int slots = Math.max(1, context.defaultParallelism() / Math.max(1, context.getConf().getInt("spark.task.cpus",
+                1)));
+        blocks = count;
+        starts = TaskGrouping.starts(count, grouping.groupsFor(count, slots));
+    }
+
+    private int groups() {
+        return starts.length - 1;
     }
 
     @Override
     public int blockCount() {
-        return partitions;
+        return blocks;
+    }
+
+    /** Tasks per step (for tests). */
+    int groupCount() {
+        return groups();
     }
 
     /** The current states' lineage, as Spark prints it (for tests). */
@@ -61,58 +87,97 @@ final class SparkBlocks implements BlockExecutor {
 
     @Override
     public <R> List<R> create(long[] first, int[] sizes, BlockStep<R> step) {
+        regroup(sizes.length);
         List<long[]> runs = new ArrayList<>(sizes.length);
         for (int b = 0; b < sizes.length; b++) {
             runs.add(new long[] {first[b], sizes[b]});
         }
         int d = dimension;
+        int[] start = starts;
+        int workers = threads;
         Broadcast<ModelShipment> model = source;
-        JavaRDD<PartitionState<?>> next = context.parallelize(runs, runs.size()).mapPartitionsWithIndex((p, it) -> {
-            long[] run = it.next();
-            ParticleBlock block = ParticleBlock.indexed(d, run[0], (int) run[1]);
-            return List.<PartitionState<?>>of(applyTo(p, block, true, step, model)).iterator();
+        // parallelize slices a list as TaskGrouping.starts does, so partition g gets group g's runs.
+        JavaRDD<PartitionState> next = context.parallelize(runs, groups()).mapPartitionsWithIndex((g, it) -> {
+            List<ParticleBlock> made = new ArrayList<>();
+            it.forEachRemaining(run -> made.add(ParticleBlock.indexed(d, run[0], (int) run[1])));
+            checkGroup(g, made.size(), start);
+            PartitionState fresh = new PartitionState(made.toArray(new ParticleBlock[0]), null, all(made.size()));
+            return List.of(applyTo(start[g], fresh, step, model, workers, false)).iterator();
         }, true);
-        partitions = runs.size();
         return commit(next);
     }
 
     @Override
     public <R> List<R> update(BlockStep<R> step) {
         Broadcast<ModelShipment> model = source;
-        // Blocks of uncached states (an exchange's joins) are fresh objects no cache holds: the
-        // step may change them in place instead of copying.
-        boolean owned = !cached(states);
-        return commit(states.mapPartitionsWithIndex((p, it) ->
-                List.<PartitionState<?>>of(applyTo(p, it.next().block, owned, step, model)).iterator(), true));
+        int[] start = starts;
+        int workers = threads;
+        return commit(states.mapPartitionsWithIndex((g, it) ->
+                List.of(applyTo(start[g], it.next(), step, model, workers, false)).iterator(), true));
     }
 
     @Override
     public <R> List<R> read(BlockStep<R> query) {
         Broadcast<ModelShipment> model = source;
-        List<R> results = states.mapPartitionsWithIndex((p, it) -> {
-            ParticleBlock block = it.next().block;
-            return List.of(query.apply(new Cursor(p, block, false, model, true))).iterator();
-        }, true).collect();
+        int[] start = starts;
+        int workers = threads;
+        List<Object[]> results = states.mapPartitionsWithIndex((g, it) ->
+                java.util.Collections.singletonList(
+                        applyTo(start[g], it.next(), query, model, workers, true).reports).iterator(), true).collect();
         dropReplaced();
+        return flatten(results);
+    }
+
+    private static boolean[] all(int count) {
+        boolean[] fresh = new boolean[count];
+        Arrays.fill(fresh, true);
+        return fresh;
+    }
+
+    private static void checkGroup(int group, int count, int[] start) {
+        if (count != start[group + 1] - start[group]) {
+            throw new IllegalStateException("partition " + group + " holds " + count + " blocks, expected "
+                    + (start[group + 1] - start[group]));
+        }
+    }
+
+    /**
+     * Executor side: runs {@code step} on each block of a partition's group, on up to
+     * {@code workers} threads, and keeps the results with the new state.
+     */
+    private static PartitionState applyTo(int firstBlock, PartitionState state, BlockStep<?> step,
+            Broadcast<ModelShipment> model, int workers, boolean readOnly) {
+        int count = state.blocks.length;
+        if (workers > 1 && count > 1) {
+            // Built (once per JVM) on the task's own thread, where Spark's task context is set: a
+            // model that cannot be built fails here, as it would with a task per block.
+            ModelCache.get(model.value().source);
+        }
+        ParticleBlock[] next = new ParticleBlock[count];
+        Object[] reports = new Object[count];
+        GroupWork.run(count, workers, i -> {
+            Cursor cursor = new Cursor(firstBlock + i, state.blocks[i], state.fresh(i), model, readOnly);
+            reports[i] = step.apply(cursor);
+            next[i] = cursor.result();
+        });
+        return new PartitionState(next, reports);
+    }
+
+    @SuppressWarnings("unchecked")
+    private static <R> List<R> flatten(List<Object[]> perGroup) {
+        List<R> results = new ArrayList<>();
+        for (Object[] reports : perGroup) {
+            for (Object report : reports) {
+                results.add((R) report);
+            }
+        }
         return results;
     }
 
-    /** Executor side: runs {@code step} on a partition's block and keeps its result with the new state. */
-    private static <R> PartitionState<R> applyTo(int partition, ParticleBlock block, boolean owned, BlockStep<R> step,
-            Broadcast<ModelShipment> model) {
-        Cursor cursor = new Cursor(partition, block, owned, model, false);
-        R report = step.apply(cursor);
-        return new PartitionState<>(cursor.result(), report);
-    }
-
-    /** Defines {@code next} as the states, computes it in one job and returns its results in partition order. */
-    @SuppressWarnings("unchecked")
-    private <R> List<R> commit(JavaRDD<PartitionState<?>> next) {
+    /** Defines {@code next} as the states, computes it in one job and returns its results in block order. */
+    private <R> List<R> commit(JavaRDD<PartitionState> next) {
         define(next);
-        List<R> results = new ArrayList<>(partitions);
-        for (Object report : states.map(state -> state.report).collect()) {
-            results.add((R) report);
-        }
+        List<R> results = flatten(states.map(state -> state.reports).collect());
         dropReplaced();
         return results;
     }
@@ -121,12 +186,12 @@ final class SparkBlocks implements BlockExecutor {
      * Makes {@code next} the states without running a job: it is cached when a job first
      * computes it, and the states it replaces are dropped then.
      */
-    private void define(JavaRDD<PartitionState<?>> next) {
+    private void define(JavaRDD<PartitionState> next) {
         define(next, true);
     }
 
     /** As {@link #define(JavaRDD)}, {@code next} cached only when {@code cache}. */
-    private void define(JavaRDD<PartitionState<?>> next, boolean cache) {
+    private void define(JavaRDD<PartitionState> next, boolean cache) {
         if (cache) {
             next.persist(StorageLevel.MEMORY_ONLY());
         }
@@ -148,87 +213,140 @@ final class SparkBlocks implements BlockExecutor {
         if (states != null && !cached(states)) {
             return;
         }
-        for (JavaRDD<PartitionState<?>> old : replaced) {
+        for (JavaRDD<PartitionState> old : replaced) {
             old.unpersist(false);
         }
         replaced.clear();
     }
 
     /**
-     * Only the runs the plan names move; each partition keeps the part of its run it will hold,
-     * and its last result.
+     * Only the runs the plan names move, and only those that leave their group go through the
+     * shuffle; a block the plan leaves alone is kept as it is, so the work follows the particles
+     * moved. Each partition keeps its blocks' last results.
      */
     @Override
     public void exchange(Redistribution plan) {
-        JavaRDD<Tuple2<Integer, ParticleBlock>> outgoing = states.mapPartitionsWithIndex((p, iterator) -> {
-            ParticleBlock block = iterator.next().block;
+        if (plan.blockCount() != blocks) {
+            throw new IllegalArgumentException("plan for " + plan.blockCount() + " blocks, population has " + blocks);
+        }
+        int[] start = starts;
+        JavaRDD<Tuple2<Integer, ParticleBlock>> outgoing = states.mapPartitionsWithIndex((g, iterator) -> {
+            PartitionState state = iterator.next();
             List<Tuple2<Integer, ParticleBlock>> runs = new ArrayList<>();
             for (int t = 0; t < plan.transferCount(); t++) {
-                if (plan.fromBlock(t) == p) {
-                    int from = (int) (plan.runFirstIndex(t) - block.index()[0]);
-                    runs.add(new Tuple2<>(plan.toBlock(t), BlockSlices.slice(block, from, plan.runCount(t))));
+                int from = plan.fromBlock(t);
+                int to = plan.toBlock(t);
+                if (from >= start[g] && from < start[g + 1] && (to < start[g] || to >= start[g + 1])) {
+                    ParticleBlock block = state.blocks[from - start[g]];
+                    runs.add(new Tuple2<>(to, BlockSlices.slice(block, (int) (plan.runFirstIndex(t) - block.index()[0]),
+                            plan.runCount(t))));
                 }
             }
             return runs.iterator();
         }, true);
-        JavaRDD<ParticleBlock> incoming = JavaPairRDD.fromJavaRDD(outgoing).partitionBy(new BlockPartitioner(partitions))
-                .values();
+        JavaPairRDD<Integer, ParticleBlock> incoming = JavaPairRDD.fromJavaRDD(outgoing)
+                .partitionBy(new BlockPartitioner(start));
         int d = dimension;
         // Not cached: the next step (a move) runs on the joined blocks and caches its own result,
         // so an executor holds two copies of its block during a step, not three. Until then the
         // states before the exchange stay cached (dropReplaced waits for cached states).
-        define(states.zipPartitions(incoming, (Iterator<PartitionState<?>> own, Iterator<ParticleBlock> arriving) -> {
-            int p = TaskContext.getPartitionId();
-            PartitionState<?> state = own.next();
-            ParticleBlock block = state.block;
-            long targetFirst = plan.targetFirstIndex(p);
-            long targetEnd = targetFirst + plan.targetSize(p);
-            List<ParticleBlock> pieces = new ArrayList<>();
-            if (block.size() > 0) {
-                long keepFirst = Math.max(targetFirst, block.index()[0]);
-                long keepEnd = Math.min(targetEnd, block.index()[0] + block.size());
-                if (keepEnd > keepFirst) {
-                    pieces.add(BlockSlices.slice(block, (int) (keepFirst - block.index()[0]),
-                            (int) (keepEnd - keepFirst)));
+        define(states.zipPartitions(incoming.rdd().toJavaRDD(),
+                (Iterator<PartitionState> own, Iterator<Tuple2<Integer, ParticleBlock>> arriving) -> {
+            int g = TaskContext.getPartitionId();
+            PartitionState state = own.next();
+            int count = state.blocks.length;
+            List<List<ParticleBlock>> pieces = new ArrayList<>(count);
+            for (int i = 0; i < count; i++) {
+                pieces.add(new ArrayList<>());
+            }
+            boolean[] touched = new boolean[count];
+            for (int t = 0; t < plan.transferCount(); t++) {
+                int from = plan.fromBlock(t);
+                int to = plan.toBlock(t);
+                boolean fromHere = from >= start[g] && from < start[g + 1];
+                boolean toHere = to >= start[g] && to < start[g + 1];
+                if (fromHere) {
+                    touched[from - start[g]] = true;
+                }
+                if (toHere) {
+                    touched[to - start[g]] = true;
+                }
+                if (fromHere && toHere) {
+                    ParticleBlock block = state.blocks[from - start[g]];
+                    pieces.get(to - start[g]).add(BlockSlices.slice(block,
+                            (int) (plan.runFirstIndex(t) - block.index()[0]), plan.runCount(t)));
                 }
             }
-            arriving.forEachRemaining(pieces::add);
-            return List.<PartitionState<?>>of(new PartitionState<>(BlockSlices.join(d, pieces), state.report))
-                    .iterator();
+            arriving.forEachRemaining(run -> pieces.get(run._1() - start[g]).add(run._2()));
+            ParticleBlock[] joined = new ParticleBlock[count];
+            boolean[] fresh = new boolean[count];
+            for (int i = 0; i < count; i++) {
+                ParticleBlock block = state.blocks[i];
+                long targetFirst = plan.targetFirstIndex(start[g] + i);
+                long targetEnd = targetFirst + plan.targetSize(start[g] + i);
+                if (!touched[i] && (block.size() == 0 ? targetEnd == targetFirst
+                        : block.index()[0] == targetFirst && block.index()[0] + block.size() == targetEnd)) {
+                    joined[i] = block; // nothing leaves or arrives: the cached block, still shared
+                    continue;
+                }
+                List<ParticleBlock> parts = pieces.get(i);
+                if (block.size() > 0) {
+                    long keepFirst = Math.max(targetFirst, block.index()[0]);
+                    long keepEnd = Math.min(targetEnd, block.index()[0] + block.size());
+                    if (keepEnd > keepFirst) {
+                        parts.add(BlockSlices.slice(block, (int) (keepFirst - block.index()[0]),
+                                (int) (keepEnd - keepFirst)));
+                    }
+                }
+                joined[i] = BlockSlices.join(d, parts);
+                fresh[i] = true;
+            }
+            return List.of(new PartitionState(joined, state.reports, fresh)).iterator();
         }), false);
     }
 
     @Override
     public void forEachBlock(Consumer<ParticleBlock> sink) {
-        // Jobs of bounded bytes: each fetches runs of particles from a few partitions, a large
-        // partition split over several jobs, so neither one task's result nor one job's results
-        // together come near spark.driver.maxResultSize, whatever N is.
-        List<Long> shapes = states.map(state -> (long) state.block.auxiliaryWidth() << 32 | state.block.size()).collect();
-        long auxiliaryWidth = shapes.stream().mapToLong(shape -> shape >>> 32).max().orElse(0L);
+        // Jobs of bounded bytes: each fetches runs of particles from a few blocks, a large block
+        // split over several jobs, so neither one task's result nor one job's results together
+        // come near spark.driver.maxResultSize, whatever N is.
+        List<long[]> perGroup = states.map(state -> {
+            long[] shapes = new long[state.blocks.length];
+            for (int i = 0; i < shapes.length; i++) {
+                shapes[i] = (long) state.blocks[i].auxiliaryWidth() << 32 | state.blocks[i].size();
+            }
+            return shapes;
+        }).collect();
+        long[] shapes = perGroup.stream().flatMapToLong(Arrays::stream).toArray();
+        long auxiliaryWidth = Arrays.stream(shapes).map(shape -> shape >>> 32).max().orElse(0L);
         long bytesPerParticle = Double.BYTES * (dimension + 3L + auxiliaryWidth) + 2L * Long.BYTES;
         long perJob = Math.max(1L, fetchBudgetBytes(context.getConf().getSizeAsBytes(MAX_RESULT_SIZE, "1g"))
                 / bytesPerParticle);
-        int[] from = new int[partitions];
-        int[] count = new int[partitions];
-        List<Integer> ids = new ArrayList<>();
+        int[] from = new int[blocks];
+        int[] count = new int[blocks];
+        boolean any = false;
         long room = perJob;
-        for (int p = 0; p < partitions; p++) {
-            int size = (int) (long) shapes.get(p);
-            int start = 0;
-            while (start < size) {
-                int take = (int) Math.min(size - start, room);
-                from[p] = start;
-                count[p] = take;
-                ids.add(p);
-                start += take;
+        for (int b = 0; b < blocks; b++) {
+            int size = (int) shapes[b];
+            int begin = 0;
+            while (begin < size) {
+                int take = (int) Math.min(size - begin, room);
+                from[b] = begin;
+                count[b] = take;
+                any = true;
+                begin += take;
                 room -= take;
                 if (room == 0) {
-                    fetch(ids, from, count, sink);
+                    fetch(from, count, sink);
+                    Arrays.fill(count, 0);
+                    any = false;
                     room = perJob;
                 }
             }
         }
-        fetch(ids, from, count, sink);
+        if (any) {
+            fetch(from, count, sink);
+        }
         dropReplaced();
     }
 
@@ -238,22 +356,33 @@ final class SparkBlocks implements BlockExecutor {
         return maxResultSize <= 0 ? ceiling : Math.min(ceiling, maxResultSize / 8);
     }
 
-    /** One job: run {@code [from[p], from[p]+count[p])} of each partition p in {@code ids}, handed on in order. */
-    private void fetch(List<Integer> ids, int[] from, int[] count, Consumer<ParticleBlock> sink) {
-        if (ids.isEmpty()) {
-            return;
-        }
+    /** One job: run {@code [from[b], from[b]+count[b])} of each block b with a count, handed on in order. */
+    private void fetch(int[] from, int[] count, Consumer<ParticleBlock> sink) {
         int[] starts = from.clone();
         int[] counts = count.clone();
-        int[] partitionIds = ids.stream().mapToInt(Integer::intValue).toArray();
-        JavaRDD<ParticleBlock> runs = states.mapPartitionsWithIndex((p, iterator) -> {
-            ParticleBlock block = iterator.next().block;
-            return List.of(BlockSlices.slice(block, starts[p], counts[p])).iterator();
+        int[] start = this.starts;
+        List<Integer> groups = new ArrayList<>();
+        for (int g = 0; g < groups(); g++) {
+            for (int b = start[g]; b < start[g + 1]; b++) {
+                if (counts[b] > 0) {
+                    groups.add(g);
+                    break;
+                }
+            }
+        }
+        JavaRDD<ParticleBlock> runs = states.mapPartitionsWithIndex((g, iterator) -> {
+            PartitionState state = iterator.next();
+            List<ParticleBlock> slices = new ArrayList<>();
+            for (int b = start[g]; b < start[g + 1]; b++) {
+                if (counts[b] > 0) {
+                    slices.add(BlockSlices.slice(state.blocks[b - start[g]], starts[b], counts[b]));
+                }
+            }
+            return slices.iterator();
         }, true);
-        for (List<ParticleBlock> part : runs.collectPartitions(partitionIds)) {
+        for (List<ParticleBlock> part : runs.collectPartitions(groups.stream().mapToInt(Integer::intValue).toArray())) {
             part.forEach(sink);
         }
-        ids.clear();
     }
 
     /**
@@ -264,55 +393,88 @@ final class SparkBlocks implements BlockExecutor {
      */
     @Override
     public List<StoredBlock> write(BlockStore store) {
-        List<StoredBlock> stored = states.mapPartitionsWithIndex((p, iterator) ->
-                List.of(store.write(p, iterator.next().block)).iterator(), true).collect();
+        int[] start = starts;
+        int workers = threads;
+        List<StoredBlock> stored = flatten(states.mapPartitionsWithIndex((g, iterator) -> {
+            PartitionState state = iterator.next();
+            Object[] written = new Object[state.blocks.length];
+            GroupWork.run(written.length, workers, i -> {
+                try {
+                    written[i] = store.write(start[g] + i, state.blocks[i]);
+                } catch (java.io.IOException e) {
+                    throw new java.io.UncheckedIOException("cannot write block " + (start[g] + i) + " to "
+                            + store.location() + ": " + e, e);
+                }
+            });
+            return java.util.Collections.singletonList(written).iterator();
+        }, true).collect());
         dropReplaced();
         int d = dimension;
         String location = store.location();
         long[] first = StoredBlock.firstIndices(stored);
+        regroup(stored.size());
         define(fromFiles(stored, (number, block) -> BlockReading.read(store, block, first[number], d)).map(state -> {
-            if (state.report != null) {
-                throw new java.io.UncheckedIOException(new java.io.IOException("the checkpoint just written to "
-                        + location + " does not read back: " + state.report));
+            for (Object report : state.reports) {
+                if (report != null) {
+                    throw new java.io.UncheckedIOException(new java.io.IOException("the checkpoint just written to "
+                            + location + " does not read back: " + report));
+                }
             }
             return state;
         }));
         dropReplaced();
-        partitions = stored.size();
         return stored;
     }
 
     @Override
     public List<String> read(List<StoredBlock> stored, BlockReader reader) {
-        JavaRDD<PartitionState<?>> next = fromFiles(stored, reader);
+        int[] before = starts;
+        int blocksBefore = blocks;
+        regroup(stored.size());
+        JavaRDD<PartitionState> next = fromFiles(stored, reader);
         next.persist(StorageLevel.MEMORY_ONLY());
         List<String> problems = new ArrayList<>();
-        for (Object report : next.map(state -> state.report).collect()) {
+        for (Object report : flatten(next.map(state -> state.reports).collect())) {
             if (report != null) {
                 problems.add((String) report);
             }
         }
         if (!problems.isEmpty()) {
             next.unpersist(false);
+            starts = before;
+            blocks = blocksBefore;
             return problems;
         }
         define(next);
         dropReplaced();
-        partitions = stored.size();
         return problems;
     }
 
-    /** The blocks in {@code stored} as states, each with what is wrong with its file as report (null when nothing). */
-    private JavaRDD<PartitionState<?>> fromFiles(List<StoredBlock> stored, BlockReader reader) {
-        return context.parallelize(stored, stored.size()).mapPartitionsWithIndex((p, iterator) -> {
-            BlockReading.Outcome outcome = reader.read(p, iterator.next());
-            return List.<PartitionState<?>>of(new PartitionState<>(outcome.block(), outcome.problem())).iterator();
+    /**
+     * The blocks in {@code stored} as states in the current grouping, each with what is wrong with
+     * its file as report (null when nothing).
+     */
+    private JavaRDD<PartitionState> fromFiles(List<StoredBlock> stored, BlockReader reader) {
+        int[] start = starts;
+        int workers = threads;
+        return context.parallelize(stored, groups()).mapPartitionsWithIndex((g, iterator) -> {
+            List<StoredBlock> files = new ArrayList<>();
+            iterator.forEachRemaining(files::add);
+            checkGroup(g, files.size(), start);
+            ParticleBlock[] read = new ParticleBlock[files.size()];
+            Object[] problems = new Object[files.size()];
+            GroupWork.run(files.size(), workers, i -> {
+                BlockReading.Outcome outcome = reader.read(start[g] + i, files.get(i));
+                read[i] = outcome.block();
+                problems[i] = outcome.problem();
+            });
+            return List.of(new PartitionState(read, problems)).iterator();
         }, true);
     }
 
     @Override
     public void close() {
-        for (JavaRDD<PartitionState<?>> old : replaced) {
+        for (JavaRDD<PartitionState> old : replaced) {
             old.unpersist(false);
         }
         replaced.clear();
@@ -325,8 +487,9 @@ final class SparkBlocks implements BlockExecutor {
     }
 
     /**
-     * Executor side: one partition's block for a step. A step that changes particles gets a
-     * private copy, so the cached state it came from stays as it was (Spark may recompute from it).
+     * Executor side: one block for a step. A step that changes particles gets a private copy,
+     * unless the block is fresh, so the cached state it came from stays as it was (Spark may
+     * recompute from it).
      */
     private static final class Cursor implements BlockCursor {
         private final int number;

@@ -99,10 +99,16 @@ class SparkJobCountTest {
 
     private List<Integer> jobsPerIteration(ModelSource source, SamplerSettings settings, int partitions,
             Checkpointer checkpointer, List<IterationRecord> records) throws InterruptedException {
+        return jobsPerIteration(source, settings, partitions, TaskGrouping.perBlock(), checkpointer, records);
+    }
+
+    private List<Integer> jobsPerIteration(ModelSource source, SamplerSettings settings, int partitions,
+            TaskGrouping grouping, Checkpointer checkpointer, List<IterationRecord> records)
+            throws InterruptedException {
         String run = "run-" + System.nanoTime() + "-";
         COUNTER.jobs.clear();
         context.setLocalProperty(LABEL, run + 0);
-        SamplerResult result = new SmcSampler(settings).run(source, SparkBackend.on(context, partitions),
+        SamplerResult result = new SmcSampler(settings).run(source, SparkBackend.on(context, partitions, grouping),
                 record -> context.setLocalProperty(LABEL, run + (record.iteration() + 1)), checkpointer,
                 StopCondition.NEVER);
         COUNTER.endLabel = run + "end";
@@ -187,6 +193,24 @@ class SparkJobCountTest {
                     .build();
             List<IterationRecord> records = new ArrayList<>();
             List<Integer> counts = jobsPerIteration(settings, 8, Checkpointer.NONE, records);
+            assertTrue(records.stream().anyMatch(IterationRecord::resampled), "the run resamples at least once");
+            for (int k = 1; k < counts.size(); k++) {
+                int allowed = allowed(records, k, false, scheme, false);
+                assertTrue(counts.get(k) <= allowed, scheme + ", iteration " + k + " started " + counts.get(k)
+                        + " jobs, more than " + allowed + ": " + counts);
+            }
+        }
+    }
+
+    @Test
+    @DisplayName("blocks grouped into tasks (8 blocks in 3 groups, every scheme): the same figure as a task per block")
+    void grouped() throws InterruptedException {
+        for (ResamplingScheme scheme : ResamplingScheme.values()) {
+            SamplerSettings settings = SamplerSettings.builder().particles(240).seed(17).resamplingScheme(scheme)
+                    .build();
+            List<IterationRecord> records = new ArrayList<>();
+            List<Integer> counts = jobsPerIteration(SOURCE, settings, 8, TaskGrouping.perExecutor(3), Checkpointer.NONE,
+                    records);
             assertTrue(records.stream().anyMatch(IterationRecord::resampled), "the run resamples at least once");
             for (int k = 1; k < counts.size(); k++) {
                 int allowed = allowed(records, k, false, scheme, false);

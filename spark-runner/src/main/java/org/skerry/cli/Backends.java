@@ -20,6 +20,7 @@ import org.skerry.cli.runfile.SparkMasters;
 import org.skerry.engine.population.PopulationBackend;
 import org.skerry.engine.population.threads.ThreadPoolBackend;
 import org.skerry.spark.SparkBackend;
+import org.skerry.spark.TaskGrouping;
 
 /**
  * Opens the backend a run file asks for: a thread pool, or a Spark context (local mode, a
@@ -91,11 +92,17 @@ public final class Backends {
                     System.getProperty("spark.authenticate.secret") != null);
         }
         settings.putAll(sparkDefaults);
+        if (backend.perExecutor()) {
+            // One task per executor: it takes all the executor's cores and spreads them over its blocks.
+            settings.put(BackendSpec.TASK_CPUS, String.valueOf(backend.taskCores()));
+        }
         settings.putAll(backend.sparkSettings());
+        TaskGrouping grouping = backend.perExecutor() ? TaskGrouping.perExecutor(backend.taskGroups())
+                : TaskGrouping.perBlock();
         try {
             Files.createDirectories(scratch);
             Supplier<SparkBackend> start = () -> SparkBackend.start(master, "skerry " + spec.name(), backend.partitions(),
-                    settings);
+                    grouping, settings);
             return new Opened(master.startsWith("local") ? withoutLoopbackWarning(start) : start.get(), scratch);
         } catch (IOException e) {
             throw new RunFileException("cannot create Spark's scratch folder " + scratch + ": " + e, e);

@@ -146,6 +146,21 @@ class SlippedInputTest {
     }
 
     @Test
+    @DisplayName("tasks per executor on a cluster master without the executors' cores, or cores that are no number: "
+            + "refused at the line, nothing written")
+    void tasksPerExecutorWithoutCores() throws IOException {
+        goodData();
+        Path file = write("run.conf", GOOD.replace("backend.kind = threads",
+                "backend { kind = spark, master = \"spark://127.0.0.1:7077\", tasks = per-executor }"));
+        CommandRunner.assertBadInput(CommandRunner.run("validate", file.toString()), "run.conf: line 6",
+                "backend.tasks", "spark.executor.cores", "per-block");
+        expectBadRun(file, "run.conf: line 6", "backend.tasks");
+        Path cores = write("cores.conf", GOOD.replace("backend.kind = threads",
+                "backend { kind = spark, master = \"local[2]\", spark { \"spark.executor.cores\" = two } }"));
+        expectBadRun(cores, "cores.conf: line 6", "spark.executor.cores", "a number of cores");
+    }
+
+    @Test
     @DisplayName("an empty run file names itself, not the jar's reference.conf")
     void emptyRunFile() throws IOException {
         String message = expectBadRun(write("empty.conf", "# nothing yet\n"), "empty.conf: the run file is empty",

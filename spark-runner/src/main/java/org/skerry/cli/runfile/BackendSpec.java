@@ -21,13 +21,23 @@ import org.skerry.engine.settings.SettingsReader;
  * @param jars                  extra jars for the executors
  * @param threads               the thread pool's threads; 0 for one per processor
  * @param blockSize             particles per block of the thread pool; 0 lets the backend choose
+ * @param tasks                 Spark: "per-executor" (a task works through a group of blocks on its
+ *                              executor's cores) or "per-block" (a task per block)
+ * @param taskGroups            Spark, per executor: tasks per step; 0 for one per executor
  */
 public record BackendSpec(String kind, String master, int connectTimeoutSeconds, int partitions,
-        Map<String, String> sparkSettings, List<String> jars, int threads, int blockSize) {
+        Map<String, String> sparkSettings, List<String> jars, int threads, int blockSize, String tasks,
+        int taskGroups) {
+
+    /** The Spark setting that gives each task its cores. */
+    public static final String TASK_CPUS = "spark.task.cpus";
+    /** The Spark setting that gives each executor its cores. */
+    public static final String EXECUTOR_CORES = "spark.executor.cores";
 
     public BackendSpec {
         Objects.requireNonNull(kind, "kind");
         Objects.requireNonNull(master, "master");
+        Objects.requireNonNull(tasks, "tasks");
         sparkSettings = Collections.unmodifiableMap(new LinkedHashMap<>(
                 Objects.requireNonNull(sparkSettings, "sparkSettings")));
         jars = List.copyOf(jars);
@@ -58,6 +68,42 @@ public record BackendSpec(String kind, String master, int connectTimeoutSeconds,
         int connectTimeoutSeconds = r.integer("backend.connect-timeout-seconds", 1, 3600);
         int threads = r.integer("backend.threads", 0, 4096);
         int blockSize = r.integer("backend.block-size", 0, Integer.MAX_VALUE);
-        return new BackendSpec(kind, master, connectTimeoutSeconds, partitions, sparkSettings, jars, threads, blockSize);
+        String tasks = r.choice("backend.tasks", List.of("auto", "per-executor", "per-block"));
+        int taskGroups = r.integer("backend.task-groups", 0, 1_000_000);
+        for (String key : List.of(TASK_CPUS, EXECUTOR_CORES)) {
+            String value = sparkSettings.get(key);
+            if (value != null && !value.trim().matches("[1-9]\\d{0,5}")) {
+                throw r.error("backend.spark.\"" + key + "\"", "a number of cores (a whole number from 1), was "
+                        + value);
+            }
+        }
+        boolean coresKnown = SparkMasters.coresPerExecutor(master) > 0 || sparkSettings.containsKey(EXECUTOR_CORES)
+                || sparkSettings.containsKey(TASK_CPUS);
+        if (tasks.equals("per-executor") && !coresKnown) {
+            throw r.error("backend.tasks", "per-executor tasks on " + master + " need the executors' cores: set "
+                    + "backend.spark { \"" + EXECUTOR_CORES + "\" = N } (or \"" + TASK_CPUS + "\"), or use per-block");
+        }
+        if (tasks.equals("auto")) {
+            tasks = coresKnown ? "per-executor" : "per-block";
+        }
+        return new BackendSpec(kind, master, connectTimeoutSeconds, partitions, sparkSettings, jars, threads, blockSize,
+                tasks, taskGroups);
+    }
+
+    /** Whether a Spark task works through a group of blocks on its executor's cores. */
+    public boolean perExecutor() {
+        return tasks.equals("per-executor");
+    }
+
+    /**
+     * The cores a per-executor task takes ({@code spark.task.cpus}): the run file's own setting,
+     * else the executors' cores from {@code spark.executor.cores} or the master.
+     */
+    public int taskCores() {
+        String set = sparkSettings.getOrDefault(TASK_CPUS, sparkSettings.get(EXECUTOR_CORES));
+        if (set != null) {
+            return Integer.parseInt(set.trim()); // checked when the run file was read
+        }
+        return Math.max(1, SparkMasters.coresPerExecutor(master));
     }
 }

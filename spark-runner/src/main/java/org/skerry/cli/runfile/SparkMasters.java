@@ -35,6 +35,24 @@ public final class SparkMasters {
     }
 
     /**
+     * Cores of each executor where the master says it: {@code local[N]} (N), {@code local[*]}
+     * (this machine's processors), {@code local} (1), {@code local-cluster[W,C,M]} (C); 0 for a
+     * cluster master, whose executors' cores only the cluster knows.
+     */
+    public static int coresPerExecutor(String master) {
+        java.util.regex.Matcher local = LOCAL.matcher(master);
+        if (local.matches()) {
+            String cores = local.group(2);
+            return cores == null ? 1 : cores.equals("*") ? Runtime.getRuntime().availableProcessors()
+                    : Integer.parseInt(cores);
+        }
+        if (LOCAL_CLUSTER.matcher(master).matches()) {
+            return Integer.parseInt(master.replaceAll("\\s", "").split("[\\[,\\]]")[2]);
+        }
+        return 0;
+    }
+
+    /**
      * Whether {@code master} runs everything in this process (local mode): executors share the
      * driver's class path and disk. {@code local-cluster[…]} does not: its executors are JVMs of
      * their own.

@@ -21,7 +21,7 @@ import org.skerry.engine.sampler.PhaseTimes;
  *
  * @param iterations      tempering iterations after the initial draw
  * @param particles       N
- * @param partitions      blocks of the population (Spark: tasks per stage; threads: blocks), or −1
+ * @param partitions      blocks of the population (Spark: backend.partitions, or as its tasks show them; threads: blocks), or −1
  * @param evaluations     likelihood evaluations of the run
  * @param wallSeconds     the whole run as {@code skerry run} times it (backend start-up included)
  * @param phases          seconds per phase, summed over iterations

@@ -22,7 +22,7 @@ final class ScalingSummary {
             "|---|---|",
             "| `point`, `repeat` | the grid point (its axis values) and the repeat; the run folder is `runs/<point>-r<repeat>` |",
             "| `cores` | cores the run could use: `local[k]` (Spark local mode), `spark.cores.max` (other Spark masters) or `backend.threads` |",
-            "| `particles`, `partitions`, `islands` | N; partitions of the Spark population (tasks per stage; empty for threads); islands (0 = global resampling) |",
+            "| `particles`, `partitions`, `islands` | N; blocks of the Spark population (`backend.partitions`; with a task per block also the tasks per stage; empty for threads); islands (0 = global resampling) |",
             "| one column per axis | the axis value of the point |",
             "| `iterations`, `evaluations` | tempering iterations after the initial draw; likelihood evaluations of the run |",
             "| `wall_seconds` | the whole run as `skerry run` times it, backend start-up (Spark context) included |",

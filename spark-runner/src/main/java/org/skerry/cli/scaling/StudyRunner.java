@@ -93,7 +93,7 @@ final class StudyRunner {
             moved += record.particlesMoved();
         }
         RunMeasurement measurement = new RunMeasurement(outcome.result().iterationCount(),
-                point.spec().sampler().population().particles(), traffic == null ? -1 : traffic.partitions(),
+                point.spec().sampler().population().particles(), traffic == null ? -1 : blocks(point, traffic),
                 outcome.result().evaluations().evaluations(), outcome.wallSeconds(), RunMeasurement.sum(records), moved,
                 traffic == null ? -1 : traffic.loopBytes(), traffic == null ? -1 : traffic.exportBytes(),
                 clock.loopCpuSeconds(), load, backendOf(folder));
@@ -103,6 +103,23 @@ final class StudyRunner {
             throw new UncheckedIOException("cannot write " + folder.resolve(RunMeasurement.FILE_NAME), e);
         }
         return measurement;
+    }
+
+    /**
+     * The population's blocks: the run file's count, else what Spark's tasks show. A task per block
+     * makes one task per block; a task per executor makes one per executor, each of whose cores
+     * holds three blocks by default (SparkBackend.partitionsFor); −1 where a set group count hides it.
+     */
+    private static long blocks(StudyPoint point, DriverTraffic traffic) {
+        org.skerry.cli.runfile.BackendSpec backend = point.spec().backend();
+        if (backend.partitions() > 0) {
+            return Math.min(backend.partitions(), point.spec().sampler().population().particles());
+        }
+        if (!backend.perExecutor()) {
+            return traffic.partitions();
+        }
+        return backend.taskGroups() > 0 ? -1 : Math.min(3L * backend.taskCores() * traffic.partitions(),
+                point.spec().sampler().population().particles());
     }
 
     private static String backendOf(Path folder) {

@@ -182,6 +182,35 @@ class CheckpointResumeTest {
     }
 
     @Test
+    @DisplayName("tasks per block and per executor (3 blocks in 2 groups) give the same bytes, straight through and "
+            + "resumed from each other's checkpoints")
+    void taskGroupings() throws IOException {
+        // The run file's local[2] makes tasks per executor by default (one group, both cores).
+        Path perBlock = dir.resolve("per-block");
+        Result straight = skerry(run(perBlock, "--set", "backend.tasks=per-block"));
+        assertEquals(0, straight.exitCode(), straight.err());
+        assertSameResults(undisturbed, perBlock);
+        int middle = (checkpoints(undisturbed).size() - 1) / 2;
+        Path crashed = crashedAfter(middle, "crashed-grouped");
+        Result grouped = skerry("resume", crashed.toString(), "--set", "backend.tasks=per-executor",
+                "--set", "backend.task-groups=2", "--set", "backend.partitions=5", "--set", "output.progress=off");
+        assertEquals(0, grouped.exitCode(), grouped.err());
+        assertSameResults(undisturbed, crashed);
+        // The grouped resume (the checkpoint's three blocks in two groups) wrote its own checkpoints:
+        // a task per block resumes from one of them.
+        Path again = dir.resolve("crashed-grouped-again");
+        Files.createDirectories(again.resolve("checkpoints"));
+        Files.copy(crashed.resolve("run.conf"), again.resolve("run.conf"));
+        Path written = checkpoints(crashed).get(middle + 1);
+        assertTrue(Files.isRegularFile(written.resolve("block-00002.bin")), "three blocks in " + written);
+        copyFolder(written, again.resolve("checkpoints").resolve(written.getFileName()));
+        Result perBlockResume = skerry("resume", again.toString(), "--set", "backend.tasks=per-block",
+                "--set", "output.progress=off");
+        assertEquals(0, perBlockResume.exitCode(), perBlockResume.err());
+        assertSameResults(undisturbed, again);
+    }
+
+    @Test
     @DisplayName("the thread backend resumes a Spark run's checkpoint to the same bytes (the backend does not change the answer)")
     void resumeOnThreads() throws IOException {
         Path crashed = crashedAfter(2, "crashed-threads");

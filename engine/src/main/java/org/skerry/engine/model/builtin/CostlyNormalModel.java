@@ -98,8 +98,11 @@ public final class CostlyNormalModel implements Model {
         return target.logLikelihood(mu, context) + (spent == Long.MIN_VALUE + 1 ? Double.MIN_VALUE : 0.0);
     }
 
-    /** Whether the evaluation of this particle in this iteration is a slow one. */
-    boolean isSlow(long particleIndex, int iteration) {
+    /**
+     * Whether the evaluation of this particle in this iteration is a slow one (public so that a
+     * benchmark can count the exact work a run made).
+     */
+    public boolean isSlow(long particleIndex, int iteration) {
         if (slowFraction == 0) {
             return false;
         }
