@@ -72,7 +72,14 @@ public final class ProcessLauncher {
         builder.environment().clear();
         builder.environment().putAll(environment);
         builder.redirectErrorStream(mergeStderr);
-        Future<Process> started = THREAD.submit(builder::start);
+        // The group is listed with the reaper by the thread that started it, at once: handed back
+        // to the caller first, a program under load could start its children before the listing
+        // and outlive a SIGKILLed JVM (ProgramFaultTest caught it once in CI).
+        Future<Process> started = THREAD.submit(() -> {
+            Process process = builder.start();
+            GroupReaper.started(process.pid());
+            return process;
+        });
         try {
             return started.get();
         } catch (ExecutionException e) {
@@ -88,7 +95,6 @@ public final class ProcessLauncher {
 
     static void register(ChildProcess child) {
         LIVE.add(child);
-        GroupReaper.started(child.pid());
     }
 
     static void unregister(ChildProcess child) {
