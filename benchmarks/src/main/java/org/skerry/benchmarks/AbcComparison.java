@@ -38,14 +38,7 @@ public final class AbcComparison {
     private static final double[] TOLERANCES = {2.0, 1.0, 0.5, 0.25};
 
     public static void main(String[] args) throws Exception {
-        Map<String, String> options = new LinkedHashMap<>();
-        for (String arg : args) {
-            int eq = arg.indexOf('=');
-            if (eq < 1) {
-                throw new IllegalArgumentException("arguments are key=value, got " + arg);
-            }
-            options.put(arg.substring(0, eq), arg.substring(eq + 1));
-        }
+        Map<String, String> options = KeyValueArguments.parse(args);
         int particles = Integer.parseInt(options.getOrDefault("particles", "4000"));
         long costMicros = Long.parseLong(options.getOrDefault("costMicros", "1000"));
         int threads = Integer.parseInt(options.getOrDefault("threads", "2"));

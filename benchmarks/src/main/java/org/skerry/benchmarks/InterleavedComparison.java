@@ -62,14 +62,7 @@ public final class InterleavedComparison {
     }
 
     public static void main(String[] args) throws Exception {
-        Map<String, String> options = new LinkedHashMap<>();
-        for (String arg : args) {
-            int eq = arg.indexOf('=');
-            if (eq < 1) {
-                throw new IllegalArgumentException("arguments are key=value, got " + arg);
-            }
-            options.put(arg.substring(0, eq), arg.substring(eq + 1));
-        }
+        Map<String, String> options = KeyValueArguments.parse(args);
         new InterleavedComparison(options).run();
     }
 

@@ -35,14 +35,7 @@ import org.skerry.spark.TaskGrouping;
 public final class TaskCostStudy {
 
     public static void main(String[] args) throws Exception {
-        Map<String, String> options = new LinkedHashMap<>();
-        for (String arg : args) {
-            int eq = arg.indexOf('=');
-            if (eq < 1) {
-                throw new IllegalArgumentException("arguments are key=value, got " + arg);
-            }
-            options.put(arg.substring(0, eq), arg.substring(eq + 1));
-        }
+        Map<String, String> options = KeyValueArguments.parse(args);
         int particles = Integer.parseInt(options.getOrDefault("particles", "100000"));
         int dimension = Integer.parseInt(options.getOrDefault("dimension", "2"));
         double cost = Double.parseDouble(options.getOrDefault("costMicros", "0"));
