@@ -12,7 +12,8 @@
 #     (the JVM, Spark's own structures). Spark local mode runs driver and executor in one JVM, so
 #     its figure holds the executor's cached blocks and the driver alike.
 # Usage: benchmarks/large-population.sh [N] [HEAP_N] [ROUNDS]   (SKERRY_HEAP, default 24g: -Xmx;
-# N = 0 skips part 1, HEAP_N = 0 part 2)
+# N = 0 skips part 1, HEAP_N = 0 part 2; BACKENDS, default "threads spark": part 1's backends, in
+# the odd rounds' order)
 # Prints one line a run and the ratios; keeps nothing (a temporary folder, removed at the end).
 set -euo pipefail
 n="${1:-10000000}"
@@ -57,7 +58,8 @@ PY
 }
 
 [ "$n" -gt 0 ] && for round in $(seq 1 "$rounds"); do
-  if [ $((round % 2)) -eq 1 ]; then order="threads spark"; else order="spark threads"; fi
+  backends="${BACKENDS:-threads spark}"
+  if [ $((round % 2)) -eq 1 ]; then order="$backends"; else order="$(echo "$backends" | awk '{ for (i = NF; i > 0; i--) printf "%s ", $i }')"; fi
   for backend in $order; do one "$backend-$round" "$backend" "$n"; done
 done | tee "$out/large"
 
