@@ -8,6 +8,7 @@ import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.CompletableFuture;
 import java.util.concurrent.TimeUnit;
 
 /**
@@ -45,6 +46,25 @@ final class Processes {
                     + tail(log));
         }
         return new Result(process.exitValue(), Files.readString(log, StandardCharsets.UTF_8));
+    }
+
+    /**
+     * {@link #run} on a thread of its own, for work a test overlaps with a wait (a reference run
+     * while daemons come up); {@code join()} gives the result or the failure.
+     */
+    static CompletableFuture<Result> runInBackground(List<String> command, Path dir, Map<String, String> environment,
+            Path log, Duration limit) {
+        CompletableFuture<Result> result = new CompletableFuture<>();
+        Thread thread = new Thread(() -> {
+            try {
+                result.complete(run(command, dir, environment, log, limit));
+            } catch (Throwable e) {
+                result.completeExceptionally(e);
+            }
+        }, "background " + log.getFileName());
+        thread.setDaemon(true);
+        thread.start();
+        return result;
     }
 
     /** TERM, then KILL after 10 s, to {@code process} and everything below it. */

@@ -84,6 +84,13 @@ class SlurmBatchTest {
         }
     }
 
+    private final long started = System.nanoTime();
+
+    /** Where the test's time goes, in its report: seconds since the test began, then the step. */
+    private void step(String what) {
+        System.out.printf("SlurmBatchTest %6.1f s: %s%n", (System.nanoTime() - started) / 1e9, what);
+    }
+
     private static int freePort() throws IOException {
         try (ServerSocket socket = new ServerSocket(0)) {
             return socket.getLocalPort();
@@ -99,7 +106,6 @@ class SlurmBatchTest {
         Files.writeString(dir.resolve("data.csv"), "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n0.3\n1.6\n");
         Files.writeString(dir.resolve("run.conf"), RUN_FILE);
         Path undisturbed = dir.resolve("undisturbed");
-        localRun(undisturbed);
 
         Path slurm = Files.createDirectories(dir.resolve("slurm"));
         Files.setPosixFilePermissions(dir, PosixFilePermissions.fromString("rwxr-xr-x"));
@@ -162,6 +168,7 @@ class SlurmBatchTest {
             daemon(List.of(program("slurmctld").get().toString(), "-f", conf.toString()), env, "slurmctld");
             daemon(List.of(program("slurmd").get().toString(), "-f", conf.toString()), env, "slurmd");
             awaitIdle(env);
+            step("daemons up, node idle");
 
             Path runFolder = dir.resolve("stopped");
             env.put("SKERRY_RESERVED_MB", "2000");
@@ -174,17 +181,24 @@ class SlurmBatchTest {
                     Duration.ofSeconds(30));
             assertEquals(0, submitted.exitCode(), submitted.output());
             job = submitted.output().strip().split(";")[0];
+            step("job submitted");
 
             // TERM once the first checkpoint is complete, as Slurm sends it before a time limit.
             awaitFile(runFolder.resolve("checkpoints"), "manifest.txt", Duration.ofSeconds(240), jobLog);
             Processes.Result signalled = Processes.run(List.of(program("scancel").get().toString(), "--signal=TERM",
                     "--batch", job), root, env, dir.resolve("scancel.log"), Duration.ofSeconds(30));
             assertEquals(0, signalled.exitCode(), signalled.output());
+            step("first checkpoint written; TERM sent");
 
-            // Slurm holds a requeued job for cred_expire + 1 s (see slurm.conf above), then starts it.
+            // The undisturbed reference run while the job stops and Slurm holds it for requeueing
+            // (cred_expire + 1 s, see slurm.conf above) before starting it again.
+            localRun(undisturbed);
+            step("reference run done");
             awaitLine(jobLog, "requeueing job " + job, Duration.ofSeconds(120));
+            step("job requeued");
 
             awaitGone(job, env, Duration.ofSeconds(300), runFolder, jobLog);
+            step("job finished");
             String finished = job;
             String log = Files.readString(jobLog);
             assertTrue(log.contains("skerry exited with 75"), "stopped resumably:\n" + log);

@@ -14,6 +14,7 @@ import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.concurrent.CompletableFuture;
 import java.util.stream.Stream;
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
@@ -86,8 +87,9 @@ class SparkSubmitTest {
                 + Processes.root().resolve("spark-runner/target/skerry-spark-runner.jar"), "org.skerry.cli.SkerryCommand", "run",
                 dir.resolve("run.conf").toString(), "--out", dir.resolve("local").toString(),
                 "--set", "backend.master=\"local[2]\""));
-        Processes.Result reference = Processes.run(localRun, dir, Map.of(), dir.resolve("local.log"), Duration.ofSeconds(300));
-        assertEquals(0, reference.exitCode(), reference.output());
+        // The reference run while the cluster comes up: both mostly wait for JVMs to start.
+        CompletableFuture<Processes.Result> reference = Processes.runInBackground(localRun, dir, Map.of(),
+                dir.resolve("local.log"), Duration.ofSeconds(300));
         local = dir.resolve("local");
 
         cluster = dir.resolve("cluster");
@@ -97,6 +99,7 @@ class SparkSubmitTest {
                 "--workers", "2", "--port", Integer.toString(port), "--ui-port", Integer.toString(freePort()),
                 "--timeout", "120"), dir, Map.of(), dir.resolve("cluster-start.log"), Duration.ofSeconds(180));
         assertEquals(0, started.exitCode(), started.output());
+        assertEquals(0, reference.join().exitCode(), reference.join().output());
     }
 
     @AfterAll
