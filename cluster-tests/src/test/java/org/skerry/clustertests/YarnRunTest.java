@@ -203,7 +203,10 @@ class YarnRunTest {
                 environment(), dir.resolve("client.log"), Duration.ofSeconds(400));
         assertEquals(0, result.exitCode(), Processes.tail(dir.resolve("client.log")));
         assertTrue(result.output().contains("queue: root." + QUEUE), "the queue asked for: " + Processes.tail(dir.resolve("client.log")));
-        assertTrue(Files.readString(out.resolve("timing.json")).contains("yarn"), "ran on YARN");
+        String timing = Files.readString(out.resolve("timing.json"));
+        assertTrue(timing.contains("yarn"), "ran on YARN");
+        // backend.tasks = auto saw spark-submit's --executor-cores, though the run file names no cores.
+        assertTrue(timing.contains("a task per executor"), "tasks per executor from --executor-cores: " + timing);
         // The application master and the two executors.
         assertEquals(3, containers(application(result.output())).size(), "containers of the application");
         assertSameAnswer(out);
