@@ -47,10 +47,14 @@ class ProgramFaultTest {
         assertEquals(ExitCodes.SUCCESS, result.exitCode(), result.err());
     }
 
-    private static Process startAndAwaitCheckpoint(Path out, Path log, Path pids, int iteration)
+    private static Process startAndAwaitCheckpoint(Path out, Path log, Path pids, int iteration, String... settings)
             throws IOException, InterruptedException {
-        Process process = ProgramProcess.start(log, "run", runFile.toString(), "--out", out.toString(),
-                "--set", "model.program.environment.SKERRY_TEST_PIDS=" + pids);
+        List<String> arguments = new ArrayList<>(List.of("run", runFile.toString(), "--out", out.toString(),
+                "--set", "model.program.environment.SKERRY_TEST_PIDS=" + pids));
+        for (String setting : settings) {
+            arguments.addAll(List.of("--set", setting));
+        }
+        Process process = ProgramProcess.start(log, arguments.toArray(String[]::new));
         Path manifest = out.resolve(String.format("checkpoints/iteration-%06d/manifest.txt", iteration));
         long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
         while (!Files.exists(manifest)) {
@@ -89,7 +93,9 @@ class ProgramFaultTest {
     void sigkillLeavesNoWorker() throws Exception {
         Path pids = Files.createDirectories(dir.resolve("pids-killed"));
         Path out = dir.resolve("killed");
-        Process process = startAndAwaitCheckpoint(out, dir.resolve("killed.log"), pids, 1);
+        // A SIGKILLed skerry cannot remove its scratch folder: keep it in the test's folder, not /tmp.
+        Process process = startAndAwaitCheckpoint(out, dir.resolve("killed.log"), pids, 1,
+                "model.program.scratch=" + ProgramRunFiles.quote(dir.resolve("scratch-killed").toString()));
         List<Long> workers = pids(pids);
         assertTrue(workers.stream().anyMatch(ProgramFaultTest::alive), "workers running when skerry is killed: " + workers);
         process.destroyForcibly();
@@ -146,6 +152,8 @@ class ProgramFaultTest {
         Path run = Files.writeString(folder.resolve("run.conf"), "name = file-mode-killed\nmodel.program {\n"
                 + "  mode = file\n  command = [\"sh\", " + ProgramRunFiles.quote(script.toString()) + ", \"hang-many\"]\n"
                 + "  input-template = \"input.tmpl\"\n  timeout = 10m\n"
+                // A SIGKILLed skerry cannot remove its scratch folder: keep it in the test's folder, not /tmp.
+                + "  scratch = " + ProgramRunFiles.quote(folder.resolve("scratch").toString()) + "\n"
                 + "  environment { PIDS_DIR = " + ProgramRunFiles.quote(pids.toString()) + " }\n"
                 + "  parameters = [ { name = mu, prior { distribution = normal, mean = 0, sd = 1 } } ]\n}\n"
                 + "sampler.particles = 20\nbackend { kind = threads, threads = 2 }\noutput.progress = off\n"
