@@ -32,19 +32,24 @@ def serve(address, port):
                     while (byte := connection.recv(1)):
                         connection.sendall(byte)
                 elif mode == b"s":
-                    expected = int.from_bytes(connection.recv(8, socket.MSG_WAITALL), "big")
-                    got = 0
-                    while got < expected:
-                        part = connection.recv(CHUNK)
-                        if not part:
-                            break
-                        got += len(part)
+                    receive(connection, int.from_bytes(connection.recv(8, socket.MSG_WAITALL), "big"))
                     connection.sendall(b"k")
                 elif mode == b"r":
                     count = int.from_bytes(connection.recv(8, socket.MSG_WAITALL), "big")
                     block = bytes(CHUNK)
                     for _ in range(count // CHUNK):
                         connection.sendall(block)
+
+
+def receive(connection, expected):
+    """Reads and drops up to `expected` bytes; returns how many came before the peer closed."""
+    got = 0
+    while got < expected:
+        part = connection.recv(CHUNK)
+        if not part:
+            break
+        got += len(part)
+    return got
 
 
 def connect(address, port, mode):
@@ -75,12 +80,7 @@ def client(address, port, megabytes):
     with connect(address, port, b"r") as c:
         start = time.perf_counter()
         c.sendall(total.to_bytes(8, "big"))
-        got = 0
-        while got < total:
-            part = c.recv(CHUNK)
-            if not part:
-                break
-            got += len(part)
+        got = receive(c, total)
         receive_seconds = time.perf_counter() - start
     print(f"round trip (1 byte each way, {PINGS} times): median {statistics.median(times):.1f} us, "
           f"10th percentile {times[len(times) // 10]:.1f} us, 90th {times[9 * len(times) // 10]:.1f} us")

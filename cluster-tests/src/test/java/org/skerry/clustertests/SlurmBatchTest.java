@@ -6,14 +6,12 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
 
-import java.io.File;
 import java.io.IOException;
 import java.net.ServerSocket;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.attribute.PosixFilePermissions;
 import java.time.Duration;
-import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
@@ -255,22 +253,9 @@ class SlurmBatchTest {
     }
 
     private void localRun(Path out) throws Exception {
-        Path lib = Processes.root().resolve("spark-runner/target/lib");
-        Processes.Result options = Processes.run(List.of(java(), "-cp", lib + File.separator + "*",
-                Processes.root().resolve("deploy/lib/ModuleOptions.java").toString()), dir, Map.of(),
-                dir.resolve("module-options.log"), Duration.ofSeconds(60));
-        assertEquals(0, options.exitCode(), options.output());
-        List<String> command = new ArrayList<>(List.of(java()));
-        command.addAll(options.output().lines().filter(line -> !line.isBlank()).toList());
-        command.addAll(List.of("-cp", lib + File.separator + "*" + File.pathSeparator
-                + Processes.root().resolve("spark-runner/target/skerry-spark-runner.jar"), "org.skerry.cli.SkerryCommand",
-                "run", dir.resolve("run.conf").toString(), "--out", out.toString(), "--set", "backend.master=\"local[2]\""));
-        Processes.Result result = Processes.run(command, dir, Map.of(), dir.resolve("local.log"), Duration.ofSeconds(300));
+        Processes.Result result = Processes.run(Packaged.localRun(Packaged.moduleOptions(dir), dir.resolve("run.conf"), out),
+                dir, Map.of(), dir.resolve("local.log"), Duration.ofSeconds(300));
         assertEquals(0, result.exitCode(), result.output());
-    }
-
-    private static String java() {
-        return Path.of(System.getProperty("java.home"), "bin", "java").toString();
     }
 
     /** Starts a daemon that forks into the background by itself, and checks that it did. */

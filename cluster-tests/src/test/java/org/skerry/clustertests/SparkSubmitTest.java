@@ -60,37 +60,23 @@ class SparkSubmitTest {
         }
     }
 
-    private static Path lib() {
-        return Processes.root().resolve("spark-runner/target/lib");
-    }
-
     @BeforeAll
     static void startCluster() throws Exception {
         Files.writeString(dir.resolve("data.csv"), "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n");
         Files.writeString(dir.resolve("run.conf"), RUN_FILE);
-        Path optionsLog = dir.resolve("module-options.log");
-        Processes.Result options = Processes.run(List.of(java(), "-cp", lib() + File.separator + "*",
-                Processes.root().resolve("deploy/lib/ModuleOptions.java").toString()), dir, Map.of(), optionsLog,
-                Duration.ofSeconds(60));
-        assertEquals(0, options.exitCode(), options.output());
-        moduleOptions = options.output().lines().filter(line -> !line.isBlank()).toList();
+        moduleOptions = Packaged.moduleOptions(dir);
         // Spark's jars as a distribution has them: skerry's own modules left out, so the
         // application jar is what brings skerry to the driver.
-        try (Stream<Path> jars = Files.list(lib())) {
+        try (Stream<Path> jars = Files.list(Packaged.lib())) {
             sparkClassPath = String.join(File.pathSeparator, jars.filter(jar -> !jar.getFileName().toString()
                     .startsWith("skerry-")).map(Path::toString).sorted().toList());
         }
 
-        List<String> localRun = new ArrayList<>(List.of(java()));
-        localRun.addAll(moduleOptions);
-        localRun.addAll(List.of("-cp", lib() + File.separator + "*" + File.pathSeparator
-                + Processes.root().resolve("spark-runner/target/skerry-spark-runner.jar"), "org.skerry.cli.SkerryCommand", "run",
-                dir.resolve("run.conf").toString(), "--out", dir.resolve("local").toString(),
-                "--set", "backend.master=\"local[2]\""));
         // The reference run while the cluster comes up: both mostly wait for JVMs to start.
-        CompletableFuture<Processes.Result> reference = Processes.runInBackground(localRun, dir, Map.of(),
-                dir.resolve("local.log"), Duration.ofSeconds(300));
         local = dir.resolve("local");
+        CompletableFuture<Processes.Result> reference = Processes.runInBackground(
+                Packaged.localRun(moduleOptions, dir.resolve("run.conf"), local), dir, Map.of(), dir.resolve("local.log"),
+                Duration.ofSeconds(300));
 
         cluster = dir.resolve("cluster");
         int port = freePort();
@@ -116,10 +102,6 @@ class SparkSubmitTest {
         return Processes.root().resolve("deploy/loopback-cluster").toString();
     }
 
-    private static String java() {
-        return Path.of(System.getProperty("java.home"), "bin", "java").toString();
-    }
-
     private static Path applicationJar() {
         return Processes.root().resolve("submit-jar/target/skerry-submit.jar");
     }
@@ -127,7 +109,7 @@ class SparkSubmitTest {
     /** spark-submit's command line for {@code mode}, then skerry's arguments. */
     private static List<String> submit(String mode, String... skerry) {
         String options = String.join(" ", moduleOptions);
-        List<String> command = new ArrayList<>(List.of(java(), "-Xmx512m"));
+        List<String> command = new ArrayList<>(List.of(Packaged.java(), "-Xmx512m"));
         command.addAll(moduleOptions);
         command.addAll(List.of("-cp", sparkClassPath, "org.apache.spark.deploy.SparkSubmit",
                 "--master", master, "--deploy-mode", mode,
@@ -145,7 +127,7 @@ class SparkSubmitTest {
     }
 
     private static Processes.Result status(Path runFolder) throws Exception {
-        List<String> command = new ArrayList<>(List.of(java(), "-cp",
+        List<String> command = new ArrayList<>(List.of(Packaged.java(), "-cp",
                 applicationJar() + File.pathSeparator + sparkClassPath, "org.skerry.submit.SubmitMain", "status",
                 runFolder.toString()));
         return Processes.run(command, dir, Map.of(), dir.resolve("status-" + runFolder.getFileName() + ".log"),

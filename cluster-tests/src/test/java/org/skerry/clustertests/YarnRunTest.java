@@ -60,14 +60,6 @@ class YarnRunTest {
             "output { progress = log, report = false }",
             "");
 
-    private static Path lib() {
-        return Processes.root().resolve("spark-runner/target/lib");
-    }
-
-    private static String java() {
-        return Path.of(System.getProperty("java.home"), "bin", "java").toString();
-    }
-
     @BeforeAll
     static void startYarn() throws Exception {
         Files.writeString(dir.resolve("data.csv"), "# synthetic test data\ny\n1.2\n0.7\n2.5\n1.9\n");
@@ -79,24 +71,19 @@ class YarnRunTest {
         String miniClassPath = miniYarn.resolve("skerry-mini-yarn.jar") + File.pathSeparator
                 + Files.readString(miniYarn.resolve("classpath.txt")).strip();
         Path yarnHome = Files.createDirectories(dir.resolve("yarn"));
-        ProcessBuilder builder = new ProcessBuilder(List.of(java(), "-Xmx768m", "-cp", miniClassPath,
+        ProcessBuilder builder = new ProcessBuilder(List.of(Packaged.java(), "-Xmx768m", "-cp", miniClassPath,
                 "org.skerry.miniyarn.MiniYarnMain", confDir.toString(), QUEUE)).directory(yarnHome.toFile())
                 .redirectErrorStream(true).redirectOutput(dir.resolve("yarn.log").toFile());
         // Containers start java from the node manager's JAVA_HOME.
         builder.environment().put("JAVA_HOME", System.getProperty("java.home"));
         yarn = builder.start();
 
-        Path optionsLog = dir.resolve("module-options.log");
-        Processes.Result options = Processes.run(List.of(java(), "-cp", lib() + File.separator + "*",
-                Processes.root().resolve("deploy/lib/ModuleOptions.java").toString()), dir, Map.of(), optionsLog,
-                Duration.ofSeconds(60));
-        assertEquals(0, options.exitCode(), options.output());
-        moduleOptions = options.output().lines().filter(line -> !line.isBlank()).toList();
+        moduleOptions = Packaged.moduleOptions(dir);
 
         // Spark's jars as a Spark installation has them (skerry's own modules left out, so the
         // application jar is what brings skerry), with Spark's YARN support, in one folder.
         sparkJars = Files.createDirectories(dir.resolve("spark-jars"));
-        try (Stream<Path> jars = Files.list(lib())) {
+        try (Stream<Path> jars = Files.list(Packaged.lib())) {
             for (Path jar : jars.filter(jar -> !jar.getFileName().toString().startsWith("skerry-")).toList()) {
                 Files.createSymbolicLink(sparkJars.resolve(jar.getFileName()), jar);
             }
@@ -105,16 +92,10 @@ class YarnRunTest {
                 .getCodeSource().getLocation().toURI());
         Files.createSymbolicLink(sparkJars.resolve(yarnSupport.getFileName()), yarnSupport);
 
-        List<String> localRun = new ArrayList<>(List.of(java()));
-        localRun.addAll(moduleOptions);
-        localRun.addAll(List.of("-cp", lib() + File.separator + "*" + File.pathSeparator
-                + Processes.root().resolve("spark-runner/target/skerry-spark-runner.jar"), "org.skerry.cli.SkerryCommand",
-                "run", dir.resolve("run.conf").toString(), "--out", dir.resolve("local").toString(),
-                "--set", "backend.master=\"local[2]\""));
-        Processes.Result reference = Processes.run(localRun, dir, Map.of(), dir.resolve("local.log"),
-                Duration.ofSeconds(300));
-        assertEquals(0, reference.exitCode(), reference.output());
         local = dir.resolve("local");
+        Processes.Result reference = Processes.run(Packaged.localRun(moduleOptions, dir.resolve("run.conf"), local), dir,
+                Map.of(), dir.resolve("local.log"), Duration.ofSeconds(300));
+        assertEquals(0, reference.exitCode(), reference.output());
 
         // The cluster writes its client configuration when its resource manager listens.
         long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(240);
@@ -147,7 +128,7 @@ class YarnRunTest {
     /** spark-submit's command line for {@code mode} on YARN, then skerry's arguments. */
     private static List<String> submit(String mode, List<String> sparkOptions, String... skerry) {
         String options = String.join(" ", moduleOptions);
-        List<String> command = new ArrayList<>(List.of(java(), "-Xmx512m"));
+        List<String> command = new ArrayList<>(List.of(Packaged.java(), "-Xmx512m"));
         command.addAll(moduleOptions);
         // HADOOP_CONF_DIR on the class path, as Spark's launch scripts put it.
         command.addAll(List.of("-cp", confDir + File.pathSeparator + sparkJars + File.separator + "*",
